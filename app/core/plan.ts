@@ -1,0 +1,115 @@
+/**
+ * Plan file v1 types. `PlanFile` is what a file holds (optional fields may be absent);
+ * `Plan` is the same with every default filled in (see `resolvePlan` in plan-defaults.ts).
+ * Field names are a contract: docs/plan-format.md documents each one.
+ */
+
+export type AltitudeReference = 'AGL' | 'MSL';
+export type Guidance = 'passive' | 'fixed-heading' | 'homing';
+
+export interface WindLayer {
+  /** Altitude of the layer, m, above ground or sea level per `winds.reference`. */
+  altitude_m: number;
+  /** Meteorological direction the wind blows from, degrees true. */
+  fromDeg: number;
+  speed_mps: number;
+}
+
+export interface Variant {
+  id: string;
+  name?: string;
+  guidance: Guidance;
+  /** Steady autorotation descent speed at sea-level ISA density (1.225 kg/m³), m/s. */
+  descentRate_mps: number;
+  /** Angle of the full-authority glide below horizontal in still air, degrees. */
+  glideAngle_deg?: number;
+  /** Longest steering (thruster) time after the entry, s. */
+  controlTime_s?: number;
+  /** Altitude lost after release before steering can start, m. */
+  entryLoss_m?: number;
+  /** Mass the descent rate was measured with, kg. */
+  referenceMass_kg?: number;
+  /** Mass flown in this plan (vehicle + sensor), kg. */
+  payloadMass_kg?: number;
+  /** Overrides the relaxation time τ = w/g of the forward throw, s. */
+  throwTime_s?: number;
+  /** Largest wind the variant is cleared to fly in, m/s (used by the safety checks). */
+  maxWind_mps?: number;
+}
+
+export interface Site {
+  id: string;
+  name?: string;
+  lat: number;
+  lon: number;
+  /** Ground elevation at the site, m MSL. */
+  elevation_m?: number;
+  /** Landing within this distance of the site counts as a hit, m. */
+  tolerance_m?: number;
+  /** Pins a variant id instead of taking the recommended one. */
+  variant?: string;
+}
+
+export interface Uncertainty {
+  /** 1σ wind error per horizontal component, m/s. */
+  windSpeed_mps: number;
+  /** Altitude over which wind errors decorrelate (exp(−Δz/L)), m. */
+  windCorrelation_m: number;
+  /** 1σ descent-rate error, % of the nominal rate. */
+  descentRate_pct: number;
+  /** 1σ release position error per horizontal axis, m. */
+  releasePosition_m: number;
+  /** 1σ heading error of steered variants, degrees. */
+  heading_deg: number;
+  /** 1σ release timing error, s (moves the release along the carrier track). */
+  releaseTiming_s: number;
+}
+
+export interface PlanFile {
+  format: 'seedfall-plan';
+  version: 1;
+  name?: string;
+  /** Planned release time, ISO 8601 with zone. */
+  time?: string;
+  groundElevation_m?: number;
+  atmosphere?: { isaOffset_K?: number };
+  winds?: { reference?: AltitudeReference; layers?: WindLayer[]; surfaceExponent?: number };
+  release: { lat: number; lon: number; altitude_m: number; reference?: AltitudeReference };
+  carrier?: { groundSpeed_mps?: number; trackDeg?: number };
+  variants: Variant[];
+  sites: Site[];
+  uncertainty?: Partial<Uncertainty>;
+  monteCarlo?: { samples?: number; seed?: number };
+  requiredPHit?: number;
+}
+
+/** A plan with every default applied; what the core computes on. */
+export interface Plan {
+  format: 'seedfall-plan';
+  version: 1;
+  name: string;
+  time: string;
+  groundElevation_m: number;
+  atmosphere: { isaOffset_K: number };
+  winds: { reference: AltitudeReference; layers: WindLayer[]; surfaceExponent: number };
+  release: { lat: number; lon: number; altitude_m: number; reference: AltitudeReference };
+  carrier: { groundSpeed_mps: number; trackDeg: number };
+  variants: ResolvedVariant[];
+  sites: ResolvedSite[];
+  uncertainty: Uncertainty;
+  monteCarlo: { samples: number; seed: number };
+  requiredPHit: number;
+}
+
+export interface ResolvedVariant extends Variant {
+  name: string;
+  glideAngle_deg: number;
+  controlTime_s: number;
+  entryLoss_m: number;
+}
+
+export interface ResolvedSite extends Site {
+  name: string;
+  elevation_m: number;
+  tolerance_m: number;
+}
