@@ -11,6 +11,7 @@ export default defineConfig({
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
+          globalSetup: ['tests/e2e/global-setup.ts'],
           testTimeout: 120_000,
           hookTimeout: 180_000,
           fileParallelism: false,

@@ -60,6 +60,12 @@ function parseArgs(argv: string[]): Args {
   return args;
 }
 
+// A closed pipe (e.g. `| head`) ends the output quietly instead of with a stack trace.
+process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+  if (e.code === 'EPIPE') process.exit(0);
+  throw e;
+});
+
 function main(): void {
   const args = parseArgs(process.argv.slice(2));
   if (!args.file) fail('no plan file given (usage: plan <plan.json> [--format json|text])', 1);

@@ -145,6 +145,10 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const homing = s.guidance === 'homing';
   const fixed = s.guidance === 'fixed-heading';
   const k = tab.bandCount;
+  const { bandDt, bandDz, bandEast, bandNorth, bandRemEast, bandRemNorth, bandControl } = tab;
+  const { arRho, arScale } = wf;
+  const sx = req.site.x;
+  const sy = req.site.y;
 
   for (let i = 0; i < req.n; i++) {
     const f = Math.max(0.2, 1 + sf * rng.normal());
@@ -177,18 +181,21 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
       let ey = 0;
       let budget = s.controlTime_s;
       for (let b = 0; b < k; b++) {
-        ex = wf.arRho[b] * ex + sw * wf.arScale[b] * rng.normal();
-        ey = wf.arRho[b] * ey + sw * wf.arScale[b] * rng.normal();
+        const rho = arRho[b];
+        const inn = sw * arScale[b];
+        ex = rho * ex + inn * rng.normal();
+        ey = rho * ey + inn * rng.normal();
         if (b === 0) {
           px += (airX - ex) * tau;
           py += (airY - ey) * tau;
         }
-        if (budget > 0 && tab.bandControl[b] === 1) {
-          const dtReal = tab.bandDt[b] * invF;
-          const full = s.cotGamma * tab.bandDz[b];
-          const cap = full * Math.min(1, budget / dtReal);
-          const rx = req.site.x - px - tab.bandRemEast[b] * invF;
-          const ry = req.site.y - py - tab.bandRemNorth[b] * invF;
+        const dt = bandDt[b];
+        if (budget > 0 && bandControl[b] === 1) {
+          const dtReal = dt * invF;
+          const full = s.cotGamma * bandDz[b];
+          const cap = budget >= dtReal ? full : (full * budget) / dtReal;
+          const rx = sx - px - bandRemEast[b] * invF;
+          const ry = sy - py - bandRemNorth[b] * invF;
           const dist = Math.sqrt(rx * rx + ry * ry);
           if (dist > 1e-9 && full > 0) {
             const use = dist < cap ? dist : cap;
@@ -200,8 +207,8 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
             py += -ux * sd + uy * cd;
           }
         }
-        px += (tab.bandEast[b] + ex * tab.bandDt[b]) * invF;
-        py += (tab.bandNorth[b] + ey * tab.bandDt[b]) * invF;
+        px += (bandEast[b] + ex * dt) * invF;
+        py += (bandNorth[b] + ey * dt) * invF;
       }
     }
     xs[i] = px;

@@ -75,7 +75,7 @@ export interface PlanResult {
 }
 
 export interface PlanOptions {
-  /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 300)). */
+  /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 256)). */
   probeSamples?: number;
 }
 
@@ -223,7 +223,7 @@ function evaluate(
       const edge = (dir: number): number => {
         let out = dir * span;
         for (let i = 0; i < 6 && at(out) >= req; i++) out *= 2;
-        return bisectEdge(at, 0, out, req, 8);
+        return bisectEdge(at, 0, out, req, 7);
       };
       releaseWindow = {
         open_s: sStar + edge(-1),
@@ -310,7 +310,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
     speed: plan.carrier.groundSpeed_mps,
     declination,
-    probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 300)),
+    probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 256)),
   };
   const sites = plan.sites.map((s, si): SiteResult => {
     const all = plan.variants.map((v, vi) => evaluate(ctx, v, vi, s, si));

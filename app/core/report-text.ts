@@ -2,8 +2,12 @@ import { CAUTION_TEXT } from './caution';
 import type { Plan } from './plan';
 import type { PlanResult } from './planner';
 
-const fix = (v: number | null | undefined, d = 1): string =>
-  v === null || v === undefined || !Number.isFinite(v) ? '-' : v.toFixed(d);
+const fix = (v: number | null | undefined, d = 1): string => {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '-';
+  const s = v.toFixed(d);
+  // Values that round to zero print without a sign.
+  return Number(s) === 0 ? (0).toFixed(d) : s;
+};
 
 function table(rows: string[][]): string {
   const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));

@@ -1,0 +1,145 @@
+/**
+ * Speed of the planning core (npm run bench). Prints descents per second for passive and homing
+ * Monte Carlo flights through a 40-layer wind profile, the speed-up over the naive 10 ms
+ * integrator at equal accuracy, and the time of the full demo plan. Targets (issue #2):
+ * ≥ 2·10^6 passive and ≥ 2·10^5 homing descents/s, ≥ 100× naive at ≤ 0.1 m, demo ≤ 50 ms.
+ */
+import { readFileSync } from 'node:fs';
+import {
+  FallTable,
+  fixedHeadingProgramme,
+  flySamples,
+  naiveFlight,
+  passiveOffset,
+  planDrop,
+  Rng,
+  validatePlan,
+  WindProfile,
+  type FlightSetup,
+  type Uncertainty,
+} from '../app/core/index';
+
+const layers = Array.from({ length: 40 }, (_, i) => ({
+  altitude_m: 10 + i * 15,
+  fromDeg: (250 + i * 2.5) % 360,
+  speed_mps: 3 + 6 * Math.sin((i / 40) * Math.PI),
+}));
+const wind = new WindProfile(layers, { groundElevation_m: 100 });
+const top_m = 100 + 400;
+const unc: Uncertainty = {
+  windSpeed_mps: 1,
+  windCorrelation_m: 300,
+  descentRate_pct: 5,
+  releasePosition_m: 3,
+  heading_deg: 5,
+  releaseTiming_s: 0.3,
+};
+const carrier = { x: -12, y: -4 };
+
+function setup(guidance: FlightSetup['guidance']): FlightSetup {
+  const table = new FallTable({
+    top_m,
+    bottom_m: 100,
+    descentRateSL_mps: 3,
+    entryLoss_m: 6,
+    isaOffset_K: 0,
+    wind,
+  });
+  const w = wind.at(top_m);
+  return {
+    table,
+    guidance,
+    cotGamma: guidance === 'passive' ? 0 : 1 / Math.tan((45 * Math.PI) / 180),
+    controlTime_s: guidance === 'passive' ? 0 : 60,
+    carrier,
+    windTop: { x: w.east_mps, y: w.north_mps },
+  };
+}
+
+function rate(guidance: FlightSetup['guidance'], n: number): number {
+  const su = setup(guidance);
+  const off = passiveOffset(su);
+  const site = { x: off.x + 40, y: off.y - 30 };
+  const programme =
+    guidance === 'fixed-heading' ? fixedHeadingProgramme(su, { x: 40, y: -30 }) : undefined;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  const req = {
+    n,
+    rng: new Rng(1),
+    uncertainty: unc,
+    release: { x: 0, y: 0 },
+    trackUnit: { x: -0.95, y: -0.31 },
+    groundSpeed_mps: 12.6,
+    site,
+    programme,
+  };
+  flySamples(su, { ...req, n: Math.min(n, 20000) }, xs, ys); // warm-up
+  const t0 = performance.now();
+  flySamples(su, req, xs, ys);
+  return n / ((performance.now() - t0) / 1000);
+}
+
+/**
+ * Naive baseline: a 10 ms midpoint integrator per descent. Ours: the fall table built once and
+ * amortised over a 2,000-sample Monte Carlo, plus the per-sample cost. Equal accuracy: the two
+ * nominal landings must agree within 0.1 m.
+ */
+function naiveComparison(samplesPerSec: number): { ratio: number; diff_m: number } {
+  const reps = 200;
+  let t0 = performance.now();
+  let ours = { x: 0, y: 0 };
+  for (let i = 0; i < reps; i++) ours = passiveOffset(setup('passive'));
+  const tTable_ms = (performance.now() - t0) / reps;
+  const tOurs_ms = tTable_ms / 2000 + 1000 / samplesPerSec;
+  const carrier0 = setup('passive').carrier;
+  let ref = { x: 0, y: 0 };
+  t0 = performance.now();
+  for (let i = 0; i < 20; i++) {
+    ref = naiveFlight({
+      top_m,
+      bottom_m: 100,
+      descentRateSL_mps: 3,
+      entryLoss_m: 6,
+      isaOffset_K: 0,
+      wind,
+      carrier: carrier0,
+    });
+  }
+  const tNaive_ms = (performance.now() - t0) / 20;
+  return { ratio: tNaive_ms / tOurs_ms, diff_m: Math.hypot(ours.x - ref.x, ours.y - ref.y) };
+}
+
+const passive = rate('passive', 1_000_000);
+const fixed = rate('fixed-heading', 1_000_000);
+const homing = rate('homing', 200_000);
+const naive = naiveComparison(passive);
+
+const demo = JSON.parse(readFileSync(new URL('../data/demo-plan.json', import.meta.url), 'utf8'));
+const checked = validatePlan(demo);
+if (!checked.ok) throw new Error('demo plan invalid');
+for (let i = 0; i < 3; i++) planDrop(checked.plan);
+const runs = 10;
+const times: number[] = [];
+for (let i = 0; i < runs; i++) {
+  const t0 = performance.now();
+  planDrop(checked.plan);
+  times.push(performance.now() - t0);
+}
+times.sort((a, b) => a - b);
+const sites = checked.plan.sites.length;
+const variants = checked.plan.variants.length;
+
+const line = (label: string, value: string, ok: boolean): void =>
+  console.log(`${ok ? 'ok  ' : 'MISS'}  ${label.padEnd(52)} ${value}`);
+const fmt = (x: number): string => x.toExponential(2);
+line('passive Monte Carlo descents/s (40 layers)', fmt(passive), passive >= 2e6);
+line('fixed-heading Monte Carlo descents/s (40 layers)', fmt(fixed), fixed >= 2e6);
+line('homing Monte Carlo descents/s (40 layers)', fmt(homing), homing >= 2e5);
+line('speed-up over naive 10 ms integrator', `${naive.ratio.toFixed(0)}x`, naive.ratio >= 100);
+line('  difference from naive integrator', `${naive.diff_m.toFixed(4)} m`, naive.diff_m <= 0.1);
+line(
+  `demo plan (${sites} sites x ${variants} variants x ${checked.plan.monteCarlo.samples}), median of ${runs}`,
+  `${times[runs >> 1].toFixed(1)} ms`,
+  times[runs >> 1] <= 50,
+);
