@@ -77,6 +77,8 @@ export interface PlanResult {
 export interface PlanOptions {
   /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 256)). */
   probeSamples?: number;
+  /** Called after each site with the number of sites done and the total. */
+  onProgress?: (done: number, total: number) => void;
 }
 
 interface Context {
@@ -314,6 +316,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   };
   const sites = plan.sites.map((s, si): SiteResult => {
     const all = plan.variants.map((v, vi) => evaluate(ctx, v, vi, s, si));
+    opts.onProgress?.(si + 1, plan.sites.length);
     const meeting = all.find((r) => r.pHit >= plan.requiredPHit);
     const top = all.reduce((a, b) => (b.pHit > a.pHit ? b : a));
     const recommended = (meeting ?? top).variant;

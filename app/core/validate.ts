@@ -300,3 +300,31 @@ export function validatePlan(raw: unknown, opts: { now?: Date } = {}): PlanValid
     return { ok: false, errors: [{ path: '', message: `plan could not be checked: ${why}` }] };
   }
 }
+
+/** The schema node a house path (e.g. `sites[2].lat`) points to, or undefined. */
+function schemaNodeAt(path: string): SchemaNode | undefined {
+  let node: SchemaNode | undefined = schema as unknown as SchemaNode;
+  const defs = (schema as unknown as { definitions: Record<string, SchemaNode> }).definitions;
+  const deref = (n: SchemaNode | undefined): SchemaNode | undefined => {
+    const ref = n?.$ref;
+    return typeof ref === 'string' ? deref(defs[ref.split('/').pop() ?? '']) : n;
+  };
+  for (const key of path.match(/[^.[\]]+/g) ?? []) {
+    node = deref(node);
+    if (!node) return undefined;
+    node = /^\d+$/.test(key)
+      ? (node.items as SchemaNode | undefined)
+      : (node.properties?.[key] as SchemaNode | undefined);
+  }
+  return deref(node);
+}
+
+/**
+ * What a numeric field at `path` accepts, in words ("a number between -90 and 90"), for form
+ * hints and messages; null when the path is not a number field of the plan schema.
+ */
+export function allowedRange(path: string): string | null {
+  const node = schemaNodeAt(path);
+  if (!node || (node.type !== 'number' && node.type !== 'integer')) return null;
+  return numberText(node, 'number');
+}

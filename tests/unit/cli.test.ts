@@ -1,0 +1,166 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CAUTION_TEXT } from '../../app/core/caution';
+import demo from '../../data/demo-plan.json';
+
+// The CLI contract (app/cli.ts header): JSON or text on stdout, exit 0
+// when planned, 1 for usage/file errors, 2 for an invalid plan; problems go to stderr.
+const TSX = 'node_modules/.bin/tsx';
+
+interface Run {
+  status: number;
+  stdout: string;
+  stderr: string;
+}
+
+function runCli(...args: string[]): Run {
+  try {
+    const stdout = execFileSync(TSX, ['app/cli.ts', ...args], {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'pipe'],
+      timeout: 60_000,
+    });
+    return { status: 0, stdout, stderr: '' };
+  } catch (e) {
+    const err = e as { status: number | null; stdout: string; stderr: string };
+    return { status: err.status ?? -1, stdout: err.stdout ?? '', stderr: err.stderr ?? '' };
+  }
+}
+
+/** Stack-trace lines ("    at fn (file:line)") must never reach the user. */
+const STACK_LINE = /^\s+at /m;
+
+let dir: string;
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'seedfall-cli-'));
+});
+afterAll(() => {
+  rmSync(dir, { recursive: true, force: true });
+});
+
+function writePlan(name: string, content: unknown): string {
+  const path = join(dir, name);
+  writeFileSync(path, typeof content === 'string' ? content : JSON.stringify(content));
+  return path;
+}
+
+const isLatLon = (p: unknown): boolean => {
+  const q = p as { lat: unknown; lon: unknown };
+  return Number.isFinite(q?.lat) && Number.isFinite(q?.lon);
+};
+const isEllipse = (e: unknown): boolean => {
+  const q = e as Record<string, unknown>;
+  return (
+    isLatLon(q.center) &&
+    Number.isFinite(q.semiMajor_m) &&
+    Number.isFinite(q.semiMinor_m) &&
+    Number.isFinite(q.azimuth_deg)
+  );
+};
+
+describe('CLI json output on the demo plan', () => {
+  let run: Run;
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  let out: any;
+  beforeAll(() => {
+    run = runCli('data/demo-plan.json', '--format', 'json', '--samples', '400');
+    out = JSON.parse(run.stdout);
+  }, 60_000);
+
+  it('exits 0 and prints parseable JSON with the declination and one entry per site', () => {
+    expect(run.status).toBe(0);
+    expect(Number.isFinite(out.declination_deg)).toBe(true);
+    expect(out.sites.map((s: { id: string }) => s.id)).toEqual(demo.sites.map((s) => s.id));
+    expect(out.caution).toBe(CAUTION_TEXT);
+  });
+
+  it('gives every site the contract fields', () => {
+    const variantIds = demo.variants.map((v) => v.id);
+    for (const s of out.sites) {
+      const what = `site ${s.id}`;
+      expect(typeof s.id, what).toBe('string');
+      expect(variantIds, what).toContain(s.variant);
+      expect(s.fallTime_s, what).toBeGreaterThan(0);
+      expect(isLatLon(s.nominalLanding), what).toBe(true);
+      expect(Number.isFinite(s.reachRadius_m), what).toBe(true);
+      expect(typeof s.reachable, what).toBe('boolean');
+      expect(isEllipse(s.ellipse95), what).toBe(true);
+      expect(isEllipse(s.ellipse50), what).toBe(true);
+      expect(Number.isFinite(s.cep_m), what).toBe(true);
+      expect(s.pHit, what).toBeGreaterThanOrEqual(0);
+      expect(s.pHit, what).toBeLessThanOrEqual(1);
+      expect('releaseWindow' in s && 'releaseZone' in s, what).toBe(true);
+      if (s.releaseWindow !== null) {
+        expect(s.releaseWindow.open_s, what).toBeLessThanOrEqual(s.releaseWindow.close_s);
+      }
+      expect(
+        s.comparison.map((c: { variant: string }) => c.variant),
+        what,
+      ).toEqual(variantIds);
+      expect(variantIds, what).toContain(s.recommended);
+      if (s.guidance === 'fixed-heading') {
+        expect(Number.isFinite(s.headingTrue_deg), what).toBe(true);
+        expect(Number.isFinite(s.headingMag_deg), what).toBe(true);
+        expect(Number.isFinite(s.thrustTime_s), what).toBe(true);
+      }
+    }
+  });
+
+  it('has at least one fixed-heading site in the demo (the pinned vane-steer one)', () => {
+    expect(out.sites.some((s: { guidance: string }) => s.guidance === 'fixed-heading')).toBe(true);
+  });
+});
+
+describe('CLI text output', () => {
+  it('--format text contains the caution', () => {
+    const run = runCli('data/demo-plan.json', '--format', 'text', '--samples', '200');
+    expect(run.status).toBe(0);
+    expect(run.stdout).toContain(CAUTION_TEXT);
+    for (const s of demo.sites) expect(run.stdout).toContain(s.id);
+  }, 60_000);
+});
+
+describe('CLI errors', () => {
+  it('a bad plan exits non-zero and lists every problem with its field path, no stack trace', () => {
+    const bad = structuredClone(demo) as Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
+    bad.release.lat = 123;
+    bad.variants[0].descentRate_mps = -1;
+    bad.sites[3].tolerance_m = 'wide';
+    const run = runCli(writePlan('bad.json', bad), '--format', 'json');
+    expect(run.status).not.toBe(0);
+    expect(run.stdout).toBe('');
+    for (const path of ['release.lat', 'variants[0].descentRate_mps', 'sites[3].tolerance_m']) {
+      expect(run.stderr).toContain(path);
+    }
+    expect(run.stderr).toMatch(/3 problem/);
+    expect(run.stderr).not.toMatch(STACK_LINE);
+  }, 60_000);
+
+  it('an unknown variant id is named', () => {
+    const bad = structuredClone(demo);
+    bad.sites[0] = { ...bad.sites[0], variant: 'no-such-spinner' };
+    const run = runCli(writePlan('unknown-variant.json', bad));
+    expect(run.status).not.toBe(0);
+    expect(run.stderr).toContain('sites[0].variant');
+    expect(run.stderr).toContain('no-such-spinner');
+    expect(run.stderr).not.toMatch(STACK_LINE);
+  }, 60_000);
+
+  it('a missing file gives a clear message', () => {
+    const run = runCli(join(dir, 'does-not-exist.json'));
+    expect(run.status).not.toBe(0);
+    expect(run.stderr).toMatch(/cannot read .*does-not-exist\.json/);
+    expect(run.stderr).toContain('ENOENT');
+    expect(run.stderr).not.toMatch(STACK_LINE);
+  }, 60_000);
+
+  it('a file that is not JSON gives a clear message', () => {
+    const run = runCli(writePlan('not-json.json', '{ "format": "seedfall-plan", '));
+    expect(run.status).not.toBe(0);
+    expect(run.stderr).toMatch(/not valid JSON/);
+    expect(run.stderr).not.toMatch(STACK_LINE);
+  }, 60_000);
+});
