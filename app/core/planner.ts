@@ -180,10 +180,11 @@ function evaluate(
   const tol = s.tolerance_m;
   const moving = speed > 0;
 
-  // Release used: on a moving track, the point whose uncontrolled landing passes closest to the site.
+  // Release used: on a moving track, the point whose uncontrolled landing passes closest to the
+  // site; when hovering, the point whose uncontrolled landing is the site (the zone's centre).
   const toSite = { x: site.x - off.x, y: site.y - off.y };
   let sStar = moving ? (toSite.x * unit.x + toSite.y * unit.y) / speed : 0;
-  let rel: Vec = { x: unit.x * speed * sStar, y: unit.y * speed * sStar };
+  let rel: Vec = moving ? { x: unit.x * speed * sStar, y: unit.y * speed * sStar } : toSite;
   const reach = reachRadius(su);
   const programmeAt = (r: Vec): Programme | undefined =>
     v.guidance === 'fixed-heading'
@@ -243,9 +244,8 @@ function evaluate(
 
   if (!moving) {
     // Hover: where to hold so that P(hit) meets the requirement (a disc about the best point).
-    const c = { x: site.x - off.x, y: site.y - off.y };
-    const base = probe(c);
-    if (base >= req) {
+    const c = rel;
+    if (stats.pHit >= req) {
       let radius = Infinity;
       for (let d = 0; d < 8; d++) {
         const u = { x: Math.sin((d * Math.PI) / 4), y: Math.cos((d * Math.PI) / 4) };

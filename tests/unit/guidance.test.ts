@@ -23,8 +23,12 @@ const PASSIVE = { id: 'drifter', guidance: 'passive' as const, descentRate_mps: 
 const FIXED = steered('vane', 'fixed-heading');
 const HOMING = steered('seeker', 'homing');
 
-/** A hovering plan at 120 m AGL in LAYERS with the given variants and sites. */
-function hoverPlan(
+/**
+ * A plan at 120 m AGL in LAYERS with the carrier flying north at 10 m/s, so each site is released
+ * for at the track point whose uncontrolled landing passes closest to it: the nominal miss is the
+ * site's east–west offset from the line of uncontrolled landings through `landing`.
+ */
+function trackPlan(
   variants: PlanFile['variants'],
   sites: PlanFile['sites'],
   extra: Partial<PlanFile> = {},
@@ -32,15 +36,16 @@ function hoverPlan(
   return makePlan({
     winds: { reference: 'AGL', layers: LAYERS },
     release: { ...RELEASE, altitude_m: 120, reference: 'AGL' },
+    carrier: { groundSpeed_mps: 10, trackDeg: 0 },
     variants,
     sites,
     ...extra,
   });
 }
 
-// Hovering: the uncontrolled landing does not depend on the site, so it is found once.
-const landing = planDrop(hoverPlan([PASSIVE], [{ id: 'x', ...RELEASE }])).sites[0].nominalLanding;
-const reach = planDrop(hoverPlan([HOMING], [{ id: 'x', ...RELEASE }])).sites[0].reachRadius_m;
+// A point on the line of uncontrolled landings (the line runs north, along the track).
+const landing = planDrop(trackPlan([PASSIVE], [{ id: 'x', ...RELEASE }])).sites[0].nominalLanding;
+const reach = planDrop(trackPlan([HOMING], [{ id: 'x', ...RELEASE }])).sites[0].reachRadius_m;
 
 describe('homing against fixed heading', () => {
   // Common practice: closed-loop guidance corrects errors met on the way down; an open-loop
@@ -48,7 +53,7 @@ describe('homing against fixed heading', () => {
   // from the uncontrolled landing (inside the ~97 m reach).
   const n = 1000;
   const r = planDrop(
-    hoverPlan([FIXED, HOMING], [{ id: 's', ...offsetLatLng(landing, 25, 25), tolerance_m: 8 }], {
+    trackPlan([FIXED, HOMING], [{ id: 's', ...offsetLatLng(landing, 25, 25), tolerance_m: 8 }], {
       uncertainty: { windSpeed_mps: 1, windCorrelation_m: 300 },
       monteCarlo: { samples: n, seed: 17 },
     }),
@@ -74,11 +79,12 @@ describe('homing with no uncertainty', () => {
         fc.double({ min: 0, max: 1, noNaN: true }),
         fc.double({ min: 0, max: 359.9, noNaN: true }),
         (frac, az) => {
+          // East offset = nominal miss, within the reach; the north offset only moves the release.
           const d = frac * reach;
           const rad = (az * Math.PI) / 180;
-          const site = offsetLatLng(landing, d * Math.sin(rad), d * Math.cos(rad));
+          const site = offsetLatLng(landing, d * Math.sin(rad), 40 * Math.cos(rad));
           const res = planDrop(
-            hoverPlan([HOMING], [{ id: 's', ...site }], { monteCarlo: { samples: 4, seed: 1 } }),
+            trackPlan([HOMING], [{ id: 's', ...site }], { monteCarlo: { samples: 4, seed: 1 } }),
           ).sites[0];
           expect(res.reachable).toBe(true);
           expect(res.cep_m).toBeLessThanOrEqual(0.5);
@@ -93,7 +99,7 @@ describe('homing with no uncertainty', () => {
   it('lands on a reachable site whatever its descent-rate error (σ 10 %)', () => {
     const site = offsetLatLng(landing, 25, 25);
     const r = planDrop(
-      hoverPlan([HOMING], [{ id: 's', ...site, tolerance_m: 0.5 }], {
+      trackPlan([HOMING], [{ id: 's', ...site, tolerance_m: 0.5 }], {
         uncertainty: { descentRate_pct: 10 },
         monteCarlo: { samples: 300, seed: 8 },
       }),
@@ -107,24 +113,24 @@ describe('recommendation', () => {
   const within = offsetLatLng(landing, -20, 30); // 36 m from the uncontrolled landing
 
   it('picks the first variant in catalogue order that meets requiredPHit', () => {
-    const a = planDrop(hoverPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...within }])).sites[0];
+    const a = planDrop(trackPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...within }])).sites[0];
     expect(a.comparison.map((c) => c.pHit)).toEqual([0, 1, 1]);
     expect(a.recommended).toBe('vane');
     expect(a.variant).toBe('vane');
     expect(a.pinned).toBe(false);
     expect(a.meetsRequired).toBe(true);
 
-    const b = planDrop(hoverPlan([HOMING, FIXED, PASSIVE], [{ id: 's', ...within }])).sites[0];
+    const b = planDrop(trackPlan([HOMING, FIXED, PASSIVE], [{ id: 's', ...within }])).sites[0];
     expect(b.recommended).toBe('seeker');
 
     // On the uncontrolled landing even the passive variant hits, and it comes first.
-    const c = planDrop(hoverPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...landing }])).sites[0];
+    const c = planDrop(trackPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...landing }])).sites[0];
     expect(c.recommended).toBe('drifter');
   });
 
   it('a pinned site keeps its pin even when another variant is recommended', () => {
     const r = planDrop(
-      hoverPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...within, variant: 'drifter' }]),
+      trackPlan([PASSIVE, FIXED, HOMING], [{ id: 's', ...within, variant: 'drifter' }]),
     ).sites[0];
     expect(r.recommended).toBe('vane');
     expect(r.variant).toBe('drifter');
@@ -139,7 +145,7 @@ describe('recommendation', () => {
     // 2 s of thrust (about 6 m of reach) corrects part of the error. None reaches 0.99.
     const shortHoming = { ...HOMING, id: 'short-seeker', controlTime_s: 2 };
     const r = planDrop(
-      hoverPlan([PASSIVE, FIXED, shortHoming], [{ id: 's', ...landing, tolerance_m: 5 }], {
+      trackPlan([PASSIVE, FIXED, shortHoming], [{ id: 's', ...landing, tolerance_m: 5 }], {
         uncertainty: { releasePosition_m: 6 },
         monteCarlo: { samples: 400, seed: 2 },
         requiredPHit: 0.99,

@@ -273,12 +273,16 @@ describe('hovering carrier', () => {
     const r = planDrop(hover([PASSIVE], 10)).sites[0];
     expect(r.releaseWindow).toBeNull();
     expect(r.releaseZone).not.toBeNull();
-    // From the plan's release point the passive landing is L = nominal − release; from the zone
-    // centre it is centre + L, which must be the site.
-    const L = localOf(r.nominalLanding);
+    // Hovering, the site is planned from the zone centre, whose uncontrolled landing is the site.
     const c = localOf(r.releaseZone!.center);
-    expectClose(c.x + L.x, 80, 0.01, 'east');
-    expectClose(c.y + L.y, -30, 0.01, 'north');
+    const rel = localOf(r.release);
+    expectClose(rel.x, c.x, 0.01, 'release east');
+    expectClose(rel.y, c.y, 0.01, 'release north');
+    const L = localOf(r.nominalLanding);
+    expectClose(L.x, 80, 0.01, 'east');
+    expectClose(L.y, -30, 0.01, 'north');
+    // The centre sits upwind of the site by the drift: not at the plan's release point.
+    expect(Math.hypot(c.x, c.y)).toBeGreaterThan(20);
     // With no error, the zone is the tolerance disc: radius = tol to the bisection's error,
     // at most (tol + 50)/2⁸ = 0.23 m for 7 or more halvings from (tol + 50) m.
     expectClose(r.releaseZone!.radius_m, 10, 60 / 256, 'radius');
