@@ -1,1 +1,10 @@
 import './ui/seedfall-app';
+import type { SeedfallApp } from './ui/seedfall-app';
+
+// Planning runs in a worker so dragging and typing never wait for the Monte Carlo.
+const app = document.querySelector('seedfall-app') as SeedfallApp | null;
+if (app) {
+  app.store.attachWorker(
+    new Worker(new URL('./worker/plan-worker.ts', import.meta.url), { type: 'module' }),
+  );
+}

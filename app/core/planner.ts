@@ -69,6 +69,8 @@ export interface PlanResult {
   declination_deg: number | null;
   declinationModel: string | null;
   releaseAltitudeMSL_m: number;
+  /** The plan's release point: the frame origin and, when moving, time 0 of the track. */
+  releasePoint: LatLon;
   track: { unit: Vec; groundSpeed_mps: number; trackDeg: number };
   sites: SiteResult[];
   warnings: string[];
@@ -344,6 +346,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     declination_deg: declination,
     declinationModel,
     releaseAltitudeMSL_m: top_m,
+    releasePoint: { lat: plan.release.lat, lon: plan.release.lon },
     track: { unit: ctx.unit, groundSpeed_mps: ctx.speed, trackDeg: plan.carrier.trackDeg },
     sites,
     warnings,

@@ -1,78 +1,429 @@
 import { LitElement, css, html } from 'lit';
-import { customElement, state } from 'lit/decorators.js';
+import { customElement, property, state } from 'lit/decorators.js';
 import demo from '../../data/demo-plan.json';
-import { CAUTION_TEXT, planDrop, validatePlan, type PlanResult } from '../core/index';
+import { CAUTION_TEXT } from '../core/caution';
+import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from '../core/units';
+import { validatePlan } from '../core/validate';
+import { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-map';
+import './sf-plan-panel';
+import './sf-results-table';
+import './sf-sites-panel';
+import './sf-variants-panel';
+import './sf-wind-panel';
 
-/** Application shell: plans the demo drop and lists the results per site. */
+type Tab = 'results' | 'plan' | 'winds' | 'sites' | 'variants' | 'settings';
+const TABS: [Tab, string][] = [
+  ['results', 'Results'],
+  ['plan', 'Release & plan'],
+  ['winds', 'Winds'],
+  ['sites', 'Sites'],
+  ['variants', 'Variants'],
+  ['settings', 'Units & map'],
+];
+
+/** The application shell: toolbar, map, side panels, status line and the standing caution. */
 @customElement('seedfall-app')
 export class SeedfallApp extends LitElement {
-  static styles = css`
-    :host {
-      display: block;
-      font-family: system-ui, sans-serif;
-      color: #1d2a26;
-      padding: 1rem;
-    }
-    .caution {
-      background: #fff4d6;
-      border-left: 4px solid #c98a00;
-      padding: 0.5rem 0.75rem;
-    }
-    table {
-      border-collapse: collapse;
-    }
-    th,
-    td {
-      padding: 0.2rem 0.6rem;
-      text-align: right;
-      border-bottom: 1px solid #d5ddd9;
-    }
-  `;
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: grid;
+        grid-template-rows: auto auto 1fr auto;
+        height: 100vh;
+        background: #fff;
+      }
+      header {
+        display: flex;
+        align-items: center;
+        gap: 10px;
+        padding: 6px 10px;
+        background: #1f3a34;
+        color: #fff;
+        flex-wrap: wrap;
+      }
+      header h1 {
+        font-size: 17px;
+        margin: 0 10px 0 0;
+        letter-spacing: 0.02em;
+      }
+      header .plan-name {
+        opacity: 0.85;
+        margin-right: auto;
+      }
+      header button {
+        background: #2d5047;
+        color: #fff;
+        border-color: #4c7369;
+      }
+      header button:hover:not(:disabled) {
+        background: #3a6358;
+      }
+      .caution {
+        background: var(--sf-warn-bg);
+        border-bottom: 1px solid var(--sf-warn-line);
+        padding: 4px 10px;
+        font-size: 13px;
+      }
+      .caution strong {
+        color: #7a4d00;
+      }
+      main {
+        display: grid;
+        grid-template-columns: minmax(0, 1fr) minmax(380px, 47%);
+        min-height: 0;
+      }
+      sf-map {
+        min-height: 0;
+      }
+      aside {
+        border-left: 1px solid var(--sf-line);
+        display: flex;
+        flex-direction: column;
+        min-height: 0;
+      }
+      nav {
+        display: flex;
+        flex-wrap: wrap;
+        border-bottom: 1px solid var(--sf-line);
+        background: var(--sf-panel);
+      }
+      nav button {
+        border: none;
+        border-radius: 0;
+        background: none;
+        padding: 7px 10px;
+        border-bottom: 3px solid transparent;
+      }
+      nav button[aria-selected='true'] {
+        border-bottom-color: var(--sf-accent);
+        font-weight: 600;
+      }
+      .panel {
+        overflow: auto;
+        padding: 4px 12px 16px;
+        flex: 1;
+      }
+      footer {
+        display: flex;
+        gap: 12px;
+        align-items: center;
+        padding: 4px 10px;
+        border-top: 1px solid var(--sf-line);
+        background: var(--sf-panel);
+        font-size: 13px;
+        min-height: 26px;
+      }
+      .notice-error,
+      .invalid {
+        color: var(--sf-bad);
+        font-weight: 600;
+      }
+      progress {
+        width: 120px;
+      }
+      .settings label {
+        display: grid;
+        grid-template-columns: 1fr 14em;
+        gap: 6px;
+        margin: 4px 0;
+        align-items: center;
+      }
+      .issues li {
+        color: var(--sf-bad);
+      }
+      @media (max-width: 900px) {
+        :host {
+          height: auto;
+        }
+        main {
+          grid-template-columns: 1fr;
+          grid-template-rows: 60vh auto;
+        }
+        aside {
+          border-left: none;
+          border-top: 1px solid var(--sf-line);
+        }
+      }
+    `,
+  ];
 
-  @state() private result?: PlanResult;
-  @state() private error?: string;
+  @property({ attribute: false }) store = new PlanStore(demo as Record<string, unknown>);
+  @state() private tab: Tab = 'results';
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
 
   connectedCallback(): void {
     super.connectedCallback();
-    const v = validatePlan(demo);
-    if (v.ok) this.result = planDrop(v.plan);
-    else this.error = v.errors.map((e) => e.message).join('; ');
+    window.addEventListener('keydown', this.onKey);
+    window.addEventListener('pagehide', this.onHide);
+  }
+
+  disconnectedCallback(): void {
+    window.removeEventListener('keydown', this.onKey);
+    window.removeEventListener('pagehide', this.onHide);
+    super.disconnectedCallback();
+  }
+
+  private readonly onHide = (): void => this.store.flush();
+
+  private readonly onKey = (e: KeyboardEvent): void => {
+    if (!(e.ctrlKey || e.metaKey)) return;
+    const target = e.composedPath()[0] as HTMLElement | undefined;
+    if (target && (target.tagName === 'INPUT' || target.tagName === 'SELECT')) return;
+    const k = e.key.toLowerCase();
+    if (k === 'z' && !e.shiftKey) {
+      e.preventDefault();
+      this.store.undo();
+    } else if (k === 'y' || (k === 'z' && e.shiftKey)) {
+      e.preventDefault();
+      this.store.redo();
+    }
+  };
+
+  private async open(e: Event): Promise<void> {
+    const input = e.target as HTMLInputElement;
+    const file = input.files?.[0];
+    input.value = '';
+    if (!file) return;
+    let raw: unknown;
+    try {
+      raw = JSON.parse(await file.text());
+    } catch (err) {
+      this.store.setNotice(
+        'error',
+        `${file.name} was not opened: it is not JSON (${(err as Error).message}). Your plan is unchanged.`,
+      );
+      return;
+    }
+    const v = validatePlan(raw);
+    if (!v.ok) {
+      const first = v.errors
+        .slice(0, 4)
+        .map((x) => x.message)
+        .join('; ');
+      const more = v.errors.length > 4 ? ` and ${v.errors.length - 4} more` : '';
+      this.store.setNotice(
+        'error',
+        `${file.name} was not opened: ${first}${more}. Your plan is unchanged.`,
+      );
+      return;
+    }
+    this.store.replace(raw as Record<string, unknown>, `Opened ${file.name}.`);
+  }
+
+  private save(): void {
+    const name =
+      String(this.store.get('name') ?? 'plan')
+        .replace(/[^\w.-]+/g, '-')
+        .replace(/^-+|-+$/g, '') || 'plan';
+    const blob = new Blob([`${JSON.stringify(this.store.draft, null, 2)}\n`], {
+      type: 'application/json',
+    });
+    const a = document.createElement('a');
+    a.href = URL.createObjectURL(blob);
+    a.download = `${name}.json`;
+    a.click();
+    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    this.store.setNotice(
+      this.store.valid ? 'info' : 'error',
+      this.store.valid
+        ? `Saved ${a.download}.`
+        : `Saved ${a.download} — it still has problems to fix before it can be planned.`,
+    );
+  }
+
+  private setUnits(patch: Partial<UnitPrefs>): void {
+    this.store.setSettings({ units: { ...this.store.settings.units, ...patch } });
+  }
+
+  private renderSettings() {
+    const st = this.store.settings;
+    return html`<div class="settings">
+      <h3>Units</h3>
+      <label
+        >Lengths and altitudes
+        <select
+          data-setting="length"
+          @change=${(e: Event) => this.setUnits({ length: (e.target as HTMLSelectElement).value as UnitPrefs['length'] })}
+        >
+          ${LENGTH_UNITS.map((u) => html`<option ?selected=${u === st.units.length}>${u}</option>`)}
+        </select></label
+      >
+      <label
+        >Speeds
+        <select
+          data-setting="speed"
+          @change=${(e: Event) => this.setUnits({ speed: (e.target as HTMLSelectElement).value as UnitPrefs['speed'] })}
+        >
+          ${SPEED_UNITS.map((u) => html`<option ?selected=${u === st.units.speed}>${u}</option>`)}
+        </select></label
+      >
+      <label
+        >Coordinates
+        <select
+          data-setting="coords"
+          @change=${(e: Event) => this.setUnits({ coords: (e.target as HTMLSelectElement).value as UnitPrefs['coords'] })}
+        >
+          ${COORD_FORMATS.map((u) => html`<option value=${u} ?selected=${u === st.units.coords}>${{ decimal: 'decimal degrees', dms: 'degrees minutes seconds', utm: 'UTM', mgrs: 'MGRS' }[u]}</option>`)}
+        </select></label
+      >
+      <h3>Background map</h3>
+      <p class="muted">
+        Without a tile source the map shows a coordinate grid and scale only, which is all planning
+        needs. When online, give a tile URL template with {z}, {x}, {y} and its attribution.
+      </p>
+      <label
+        >Tile URL template
+        <input
+          data-setting="tileUrl"
+          .value=${st.tileUrl}
+          placeholder="https://…/{z}/{x}/{y}.png"
+          @change=${(e: Event) => this.store.setSettings({ tileUrl: (e.target as HTMLInputElement).value.trim() })}
+      /></label>
+      <label
+        >Attribution
+        <input
+          data-setting="tileAttribution"
+          .value=${st.tileAttribution}
+          @change=${(e: Event) => this.store.setSettings({ tileAttribution: (e.target as HTMLInputElement).value })}
+      /></label>
+    </div>`;
+  }
+
+  private renderPanel() {
+    const s = this.store;
+    switch (this.tab) {
+      case 'results':
+        return html`${
+            s.issues.length
+              ? html`<h3>Problems to fix</h3>
+                  <ul class="issues">
+                    ${s.issues.map((i) => html`<li>${i.message}</li>`)}
+                  </ul>`
+              : ''
+          }
+          <sf-results-table .store=${s}></sf-results-table>
+          ${s.result?.warnings.map((w) => html`<p class="notice-error">${w}</p>`)}
+          ${
+            s.result
+              ? html`<p class="muted">
+                  Declination ${s.result.declination_deg?.toFixed(2) ?? '—'}°
+                  (${s.result.declinationModel ?? 'unavailable'}).
+                  ${
+                    s.result.track.groundSpeed_mps > 0
+                      ? 'Window times are seconds relative to passing the release point (negative = before).'
+                      : 'Hovering: each site is planned from its own hover point.'
+                  }
+                </p>`
+              : ''
+          }`;
+      case 'plan':
+        return html`<sf-plan-panel .store=${s}></sf-plan-panel>`;
+      case 'winds':
+        return html`<sf-wind-panel .store=${s}></sf-wind-panel>`;
+      case 'sites':
+        return html`<sf-sites-panel .store=${s}></sf-sites-panel>`;
+      case 'variants':
+        return html`<sf-variants-panel .store=${s}></sf-variants-panel>`;
+      case 'settings':
+        return this.renderSettings();
+    }
+  }
+
+  private renderStatus() {
+    const s = this.store;
+    const parts = [];
+    if (s.computing) {
+      parts.push(
+        html`<span data-testid="computing"
+          >Planning… <progress max="1" .value=${s.progress}></progress
+        ></span>`,
+      );
+    } else if (s.result) {
+      parts.push(
+        html`<span data-testid="planned"
+          >Planned ${s.result.sites.length} sites in ${Math.round(s.elapsed_ms)} ms.</span
+        >`,
+      );
+    }
+    if (!s.valid) {
+      const n = s.issues.length + s.texts.size;
+      parts.push(
+        html`<span class="invalid" data-testid="stale" role="status">
+          ${n} problem${n === 1 ? '' : 's'} in the plan — the map shows the last valid result.</span
+        >`,
+      );
+    }
+    if (s.workerError)
+      parts.push(html`<span class="notice-error">Planning failed: ${s.workerError}</span>`);
+    if (s.notice) {
+      parts.push(
+        html`<span
+          class=${s.notice.kind === 'error' ? 'notice-error' : ''}
+          data-testid="notice"
+          role="status"
+          >${s.notice.text}</span
+        >`,
+      );
+    }
+    return parts;
   }
 
   render() {
-    const r = this.result;
+    const s = this.store;
     return html`
-      <h1>Seedfall</h1>
-      <p class="caution" role="note">${CAUTION_TEXT}</p>
-      ${this.error ? html`<p role="alert">${this.error}</p>` : ''}
-      ${
-        r
-          ? html`<h2>${r.name}</h2>
-              <table>
-                <thead>
-                  <tr>
-                    <th>Site</th>
-                    <th>Variant</th>
-                    <th>P(hit)</th>
-                    <th>CEP m</th>
-                    <th>Reachable</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  ${r.sites.map(
-                    (s) =>
-                      html`<tr data-site=${s.id}>
-                        <td>${s.id}</td>
-                        <td>${s.variant}</td>
-                        <td>${s.pHit.toFixed(2)}</td>
-                        <td>${s.cep_m.toFixed(1)}</td>
-                        <td>${s.reachable ? 'yes' : 'no'}</td>
-                      </tr>`,
-                  )}
-                </tbody>
-              </table>`
-          : ''
-      }
+      <header>
+        <h1>Seedfall</h1>
+        <span class="plan-name">${String(s.get('name') ?? 'Untitled plan')}</span>
+        <label
+          ><input
+            type="file"
+            accept=".json,application/json"
+            hidden
+            data-testid="open-file"
+            @change=${this.open}
+          />
+          <button
+            @click=${(e: Event) => ((e.currentTarget as HTMLElement).previousElementSibling as HTMLInputElement).click()}
+          >
+            Open…
+          </button></label
+        >
+        <button @click=${this.save}>Save</button>
+        <button ?disabled=${!s.canUndo} @click=${() => s.undo()} title="Undo (Ctrl+Z)">Undo</button>
+        <button ?disabled=${!s.canRedo} @click=${() => s.redo()} title="Redo (Ctrl+Y)">Redo</button>
+        <button @click=${() => s.replace(demo as Record<string, unknown>, 'Demo plan loaded.')}>
+          Demo plan
+        </button>
+      </header>
+      <div class="caution" role="note"><strong>Caution:</strong> ${CAUTION_TEXT}</div>
+      <main>
+        <sf-map .store=${s}></sf-map>
+        <aside>
+          <nav role="tablist">
+            ${TABS.map(
+              ([t, label]) =>
+                html`<button
+                  role="tab"
+                  data-tab=${t}
+                  aria-selected=${this.tab === t ? 'true' : 'false'}
+                  @click=${() => (this.tab = t)}
+                >
+                  ${label}
+                </button>`,
+            )}
+          </nav>
+          <div class="panel" role="tabpanel">${this.renderPanel()}</div>
+        </aside>
+      </main>
+      <footer>${this.renderStatus()}</footer>
     `;
   }
 }

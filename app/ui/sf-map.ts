@@ -1,0 +1,529 @@
+import L from 'leaflet';
+import leafletCss from 'leaflet/dist/leaflet.css?inline';
+import { LitElement, css, html, unsafeCSS } from 'lit';
+import { customElement, property, state } from 'lit/decorators.js';
+import { bearingDeg, distance_m } from '../core/geodesy';
+import type { Site, Variant } from '../core/plan';
+import { formatCoord, formatLength } from '../core/units';
+import { bearingHandle, trackSegment } from '../map/geometry';
+import { Graticule } from '../map/graticule';
+import {
+  buildResultLayers,
+  DEFAULT_VISIBILITY,
+  SHAPE_KINDS,
+  type LayerVisibility,
+  type ShapeKind,
+} from '../map/plan-layers';
+import type { PlanStore } from './plan-store';
+import { nextSiteId } from './sf-sites-panel';
+import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
+import { StoreController } from './store-controller';
+
+/** The track handle sits where the carrier will be this many seconds after the release point. */
+const HANDLE_SECONDS = 10;
+const KIND_LABEL: Record<ShapeKind, string> = {
+  reach: 'Reach areas',
+  landing: 'Uncontrolled landings',
+  ellipse50: '50 % ellipses',
+  ellipse95: '95 % ellipses',
+  window: 'Release windows',
+  zone: 'Hover zones',
+};
+
+const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+/**
+ * The planning map: coordinate grid and scale (no tiles needed; a tile URL can be set), the
+ * release point, carrier track and its handle, the sites (all draggable), and the results.
+ */
+@customElement('sf-map')
+export class SfMap extends LitElement {
+  static styles = [
+    unsafeCSS(leafletCss),
+    sharedStyles,
+    css`
+      :host {
+        display: flex;
+        flex-direction: column;
+        min-height: 0;
+      }
+      .bar {
+        display: flex;
+        flex-wrap: wrap;
+        gap: 4px 12px;
+        align-items: center;
+        padding: 4px 8px;
+        background: var(--sf-panel);
+        border-bottom: 1px solid var(--sf-line);
+        font-size: 13px;
+      }
+      .bar label {
+        display: inline-flex;
+        gap: 4px;
+        align-items: center;
+        white-space: nowrap;
+      }
+      .swatch {
+        width: 10px;
+        height: 10px;
+        border-radius: 2px;
+        display: inline-block;
+      }
+      .adding {
+        background: #0f766e;
+        color: #fff;
+        border-color: #0f766e;
+      }
+      #map {
+        flex: 1;
+        min-height: 300px;
+        background: #f3f4ef;
+      }
+      #map.add-mode {
+        cursor: crosshair;
+      }
+      .sf-site-icon,
+      .sf-release-icon,
+      .sf-handle-icon {
+        background: none;
+        border: none;
+      }
+      .site-dot {
+        width: 14px;
+        height: 14px;
+        border-radius: 50%;
+        background: #fff;
+        border: 3px solid #1a7f37;
+        box-sizing: border-box;
+        box-shadow: 0 0 0 1px #fff;
+      }
+      .site-dot.bad {
+        border-color: #b42318;
+      }
+      .site-label {
+        position: absolute;
+        left: 16px;
+        top: -3px;
+        font:
+          600 12px system-ui,
+          sans-serif;
+        color: #1c2b27;
+        text-shadow:
+          0 0 3px #fff,
+          0 0 3px #fff,
+          0 0 2px #fff;
+        white-space: nowrap;
+      }
+      .release-mark {
+        width: 20px;
+        height: 20px;
+        transform: rotate(45deg);
+        background: #1c2b27;
+        border: 3px solid #fff;
+        box-sizing: border-box;
+        box-shadow: 0 0 0 1px #1c2b27;
+      }
+      .handle-mark {
+        width: 14px;
+        height: 14px;
+        border-radius: 3px;
+        background: #fff;
+        border: 3px solid #1c2b27;
+        box-sizing: border-box;
+      }
+      .leaflet-tooltip {
+        font:
+          12px/1.35 system-ui,
+          sans-serif;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @state() private vis: LayerVisibility = structuredClone(DEFAULT_VISIBILITY);
+  @state() private addMode = false;
+
+  private map?: L.Map;
+  private resultLayer?: L.LayerGroup;
+  private tileLayer?: L.TileLayer;
+  private tileUrl = '';
+  private releaseMarker?: L.Marker;
+  private handleMarker?: L.Marker;
+  private trackLine?: L.Polyline;
+  private siteLayer = L.layerGroup();
+  private siteMarkers = new Map<number, L.Marker>();
+  private dragging = false;
+  private drawnResult: unknown = null;
+  private drawnVis = '';
+  private drawnUnits = '';
+  private fitted = false;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  connectedCallback(): void {
+    super.connectedCallback();
+    this.store?.addEventListener('focus-site', this.onFocus);
+  }
+
+  disconnectedCallback(): void {
+    this.store?.removeEventListener('focus-site', this.onFocus);
+    super.disconnectedCallback();
+  }
+
+  private readonly onFocus = (e: Event): void => {
+    const id = (e as CustomEvent<string>).detail;
+    const sites = (this.store?.get('sites') as Site[] | undefined) ?? [];
+    const i = sites.findIndex((s) => s.id === id);
+    const m = this.siteMarkers.get(i);
+    if (!this.map || !m) return;
+    this.map.setView(m.getLatLng(), Math.max(this.map.getZoom(), 17));
+    m.openTooltip();
+  };
+
+  firstUpdated(): void {
+    const el = this.renderRoot.querySelector('#map') as HTMLElement;
+    const map = L.map(el, { zoomControl: true, attributionControl: true, zoomSnap: 0.25 });
+    this.map = map;
+    map.attributionControl.setPrefix('Seedfall · coordinate grid WGS 84');
+    this.fit();
+    new Graticule().addTo(map);
+    L.control.scale({ metric: true, imperial: true, position: 'bottomleft' }).addTo(map);
+    this.siteLayer.addTo(map);
+    map.on('click', (e: L.LeafletMouseEvent) => this.onMapClick(e));
+    new ResizeObserver(() => map.invalidateSize()).observe(el);
+    this.sync();
+  }
+
+  updated(): void {
+    this.sync();
+  }
+
+  /** Fits the view to the release point and the sites (once, on first valid data). */
+  private fit(): void {
+    const s = this.store;
+    if (!s || !this.map) return;
+    const pts: L.LatLngTuple[] = [];
+    const lat = num(s.get('release.lat'));
+    const lon = num(s.get('release.lon'));
+    if (lat !== null && lon !== null) pts.push([lat, lon]);
+    for (const site of (s.get('sites') as Site[] | undefined) ?? []) {
+      if (num(site.lat) !== null && num(site.lon) !== null) pts.push([site.lat, site.lon]);
+    }
+    if (pts.length === 0) {
+      this.map.setView([0, 0], 2);
+      return;
+    }
+    if (pts.length === 1) this.map.setView(pts[0], 16);
+    else this.map.fitBounds(L.latLngBounds(pts).pad(0.25));
+    this.fitted = true;
+  }
+
+  /** Brings the Leaflet layers in line with the store. */
+  private sync(): void {
+    const s = this.store;
+    const map = this.map;
+    if (!s || !map) return;
+    if (!this.fitted) this.fit();
+    this.syncTiles();
+    if (!this.dragging) {
+      this.syncRelease();
+      this.syncSites();
+    }
+    this.syncResults();
+  }
+
+  private syncTiles(): void {
+    const { tileUrl, tileAttribution } = this.store!.settings;
+    if (tileUrl === this.tileUrl) return;
+    this.tileUrl = tileUrl;
+    this.tileLayer?.remove();
+    this.tileLayer = undefined;
+    if (tileUrl) {
+      this.tileLayer = L.tileLayer(tileUrl, {
+        attribution: tileAttribution,
+        maxZoom: 22,
+        maxNativeZoom: 19,
+      });
+      this.tileLayer.addTo(this.map!);
+    }
+  }
+
+  private syncRelease(): void {
+    const s = this.store!;
+    const map = this.map!;
+    const lat = num(s.get('release.lat'));
+    const lon = num(s.get('release.lon'));
+    if (lat === null || lon === null) return;
+    const rp = { lat, lon };
+    const trackDeg = num(s.get('carrier.trackDeg')) ?? 0;
+    const speed = num(s.get('carrier.groundSpeed_mps')) ?? 0;
+    if (!this.releaseMarker) {
+      this.releaseMarker = L.marker([lat, lon], {
+        draggable: true,
+        keyboard: true,
+        title: 'Release point (drag to move)',
+        icon: L.divIcon({
+          className: 'sf-release-icon sf-release',
+          html: '<div class="release-mark"></div>',
+          iconSize: [20, 20],
+        }),
+        zIndexOffset: 1000,
+      }).addTo(map);
+      this.releaseMarker.on('dragstart', () => (this.dragging = true));
+      this.releaseMarker.on('drag', () => {
+        const p = this.releaseMarker!.getLatLng();
+        const rel = (this.store!.get('release') as Record<string, unknown>) ?? {};
+        this.store!.edit(
+          'release',
+          { ...rel, lat: +p.lat.toFixed(7), lon: +p.lng.toFixed(7) },
+          { transient: true },
+        );
+        this.placeTrack();
+      });
+      this.releaseMarker.on('dragend', () => this.endDrag());
+    } else {
+      this.releaseMarker.setLatLng([lat, lon]);
+    }
+    this.releaseMarker
+      .unbindTooltip()
+      .bindTooltip(
+        `Release point · ${formatCoord(rp, s.settings.units.coords)}<br>` +
+          `${speed > 0 ? `carrier ${speed.toFixed(1)} m/s on ${Math.round(trackDeg)}° true` : 'carrier hovering'}`,
+      );
+    this.placeTrack();
+  }
+
+  /** Track line and handle from the current draft. */
+  private placeTrack(): void {
+    const s = this.store!;
+    const map = this.map!;
+    const lat = num(s.get('release.lat'));
+    const lon = num(s.get('release.lon'));
+    if (lat === null || lon === null) return;
+    const rp = { lat, lon };
+    const trackDeg = num(s.get('carrier.trackDeg')) ?? 0;
+    const speed = num(s.get('carrier.groundSpeed_mps')) ?? 0;
+    const len = Math.max(40, speed * HANDLE_SECONDS);
+    const line = trackSegment(
+      rp,
+      trackDeg,
+      1,
+      -Math.max(400, speed * 40),
+      Math.max(400, speed * 40),
+    );
+    if (!this.trackLine) {
+      this.trackLine = L.polyline(line, {
+        color: '#1c2b27',
+        weight: 1.5,
+        dashArray: '10 6',
+        className: 'sf-track',
+        interactive: false,
+      }).addTo(map);
+    } else this.trackLine.setLatLngs(line);
+    const hp = bearingHandle(rp, trackDeg, len);
+    if (!this.handleMarker) {
+      this.handleMarker = L.marker(hp, {
+        draggable: true,
+        title: `Carrier track handle: drag to set the track; its distance is ${HANDLE_SECONDS} s of flight`,
+        icon: L.divIcon({
+          className: 'sf-handle-icon sf-track-handle',
+          html: '<div class="handle-mark"></div>',
+          iconSize: [14, 14],
+        }),
+        zIndexOffset: 900,
+      }).addTo(map);
+      this.handleMarker.on('dragstart', () => (this.dragging = true));
+      this.handleMarker.on('drag', () => {
+        const st = this.store!;
+        const r = { lat: num(st.get('release.lat')) ?? 0, lon: num(st.get('release.lon')) ?? 0 };
+        const p = this.handleMarker!.getLatLng();
+        const h = { lat: p.lat, lon: p.lng };
+        const d = distance_m(r, h);
+        const carrier = (st.get('carrier') as Record<string, unknown>) ?? {};
+        // Closer than 20 m to the release point means hover.
+        const speed_mps = d < 20 ? 0 : Math.round((d / HANDLE_SECONDS) * 10) / 10;
+        st.edit(
+          'carrier',
+          {
+            ...carrier,
+            trackDeg: (Math.round(bearingDeg(r, h) * 10) / 10) % 360,
+            groundSpeed_mps: speed_mps,
+          },
+          { transient: true },
+        );
+        const rp2 = r;
+        this.trackLine?.setLatLngs(trackSegment(rp2, bearingDeg(r, h), 1, -400, 400));
+      });
+      this.handleMarker.on('dragend', () => this.endDrag());
+    } else if (!this.dragging) this.handleMarker.setLatLng(hp);
+  }
+
+  private endDrag(): void {
+    this.dragging = false;
+    this.store?.commit();
+    this.requestUpdate();
+  }
+
+  private syncSites(): void {
+    const s = this.store!;
+    const sites = (s.get('sites') as Site[] | undefined) ?? [];
+    const result = s.result;
+    for (const [i, m] of this.siteMarkers) {
+      if (i >= sites.length) {
+        m.remove();
+        this.siteMarkers.delete(i);
+      }
+    }
+    sites.forEach((site, i) => {
+      if (num(site.lat) === null || num(site.lon) === null) return;
+      const r = result?.sites.find((x) => x.id === site.id);
+      const bad = r ? !r.meetsRequired : false;
+      const label = String(site.id ?? '');
+      const icon = L.divIcon({
+        className: `sf-site-icon sf-site`,
+        html: `<div class="site-dot${bad ? ' bad' : ''}"></div><span class="site-label"></span>`,
+        iconSize: [14, 14],
+      });
+      let m = this.siteMarkers.get(i);
+      if (!m) {
+        m = L.marker([site.lat, site.lon], { draggable: true, keyboard: true, icon }).addTo(
+          this.siteLayer,
+        );
+        m.on('dragstart', () => (this.dragging = true));
+        m.on('drag', () => {
+          const p = m!.getLatLng();
+          const cur = (this.store!.get(`sites[${i}]`) as Record<string, unknown>) ?? {};
+          this.store!.edit(
+            `sites[${i}]`,
+            { ...cur, lat: +p.lat.toFixed(7), lon: +p.lng.toFixed(7) },
+            { transient: true },
+          );
+        });
+        m.on('dragend', () => this.endDrag());
+        this.siteMarkers.set(i, m);
+      } else {
+        m.setLatLng([site.lat, site.lon]);
+        m.setIcon(icon);
+      }
+      // Site ids and names come from files: set them as text, never as HTML.
+      const el = m.getElement()?.querySelector('.site-label');
+      if (el) el.textContent = label;
+      m.getElement()?.setAttribute('data-site', label);
+      m.getElement()?.setAttribute('aria-label', `Site ${label}`);
+      const tip = document.createElement('div');
+      const u = s.settings.units;
+      tip.textContent = r
+        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
+        : `Site ${label}`;
+      m.unbindTooltip().bindTooltip(tip, { direction: 'top', offset: [0, -8] });
+    });
+  }
+
+  private colour = (variantId: string): string => {
+    const variants = (this.store?.get('variants') as Variant[] | undefined) ?? [];
+    const i = Math.max(
+      0,
+      variants.findIndex((v) => v.id === variantId),
+    );
+    return VARIANT_COLOURS[i % VARIANT_COLOURS.length];
+  };
+
+  private syncResults(): void {
+    const s = this.store!;
+    const r = s.result;
+    const visKey = JSON.stringify(this.vis);
+    const unitKey = s.settings.units.length;
+    if (r === this.drawnResult && visKey === this.drawnVis && unitKey === this.drawnUnits) return;
+    this.drawnResult = r;
+    this.drawnVis = visKey;
+    this.drawnUnits = unitKey;
+    this.resultLayer?.remove();
+    this.resultLayer = undefined;
+    if (!r) return;
+    this.resultLayer = buildResultLayers(r, this.colour, this.vis, {
+      length: (m) => formatLength(m, s.settings.units.length, m < 10 ? 1 : 0),
+    }).addTo(this.map!);
+    // Sites may have changed status colour with the new result.
+    if (!this.dragging) this.syncSites();
+  }
+
+  private onMapClick(e: L.LeafletMouseEvent): void {
+    if (!this.addMode || !this.store) return;
+    const sites = (this.store.get('sites') as Site[] | undefined) ?? [];
+    this.store.edit('sites', [
+      ...sites,
+      { id: nextSiteId(sites), lat: +e.latlng.lat.toFixed(7), lon: +e.latlng.lng.toFixed(7) },
+    ]);
+  }
+
+  private toggleKind(k: ShapeKind, on: boolean): void {
+    this.vis = { ...this.vis, kinds: { ...this.vis.kinds, [k]: on } };
+  }
+
+  render() {
+    const variants = (this.store?.get('variants') as Variant[] | undefined) ?? [];
+    return html`
+      <div class="bar" role="toolbar" aria-label="Map layers">
+        <button
+          class=${this.addMode ? 'adding' : ''}
+          aria-pressed=${this.addMode ? 'true' : 'false'}
+          @click=${() => (this.addMode = !this.addMode)}
+        >
+          ${this.addMode ? 'Adding sites: click the map' : 'Add sites by clicking'}
+        </button>
+        ${SHAPE_KINDS.map(
+          (k) =>
+            html`<label
+              ><input
+                type="checkbox"
+                data-kind=${k}
+                .checked=${this.vis.kinds[k]}
+                @change=${(e: Event) => this.toggleKind(k, (e.target as HTMLInputElement).checked)}
+              />${KIND_LABEL[k]}</label
+            >`,
+        )}
+        <label
+          ><input
+            type="checkbox"
+            data-kind="chosen-only"
+            .checked=${this.vis.chosenOnly}
+            @change=${(e: Event) => (this.vis = { ...this.vis, chosenOnly: (e.target as HTMLInputElement).checked })}
+          />Chosen variant only</label
+        >
+        ${variants.map(
+          (v, i) =>
+            html`<label
+              title=${this.vis.chosenOnly ? 'Clear “Chosen variant only” to compare variants' : ''}
+              ><input
+                type="checkbox"
+                data-variant=${String(v.id)}
+                ?disabled=${this.vis.chosenOnly}
+                .checked=${this.vis.variants[v.id] !== false}
+                @change=${(e: Event) =>
+                  (this.vis = {
+                    ...this.vis,
+                    variants: {
+                      ...this.vis.variants,
+                      [v.id]: (e.target as HTMLInputElement).checked,
+                    },
+                  })}
+              /><span
+                class="swatch"
+                style=${`background:${VARIANT_COLOURS[i % VARIANT_COLOURS.length]}`}
+              ></span
+              >${v.id}</label
+            >`,
+        )}
+      </div>
+      <div
+        id="map"
+        class=${this.addMode ? 'add-mode' : ''}
+        role="application"
+        aria-label="Planning map"
+      ></div>
+    `;
+  }
+}

@@ -1,0 +1,156 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import { live } from 'lit/directives/live.js';
+import {
+  fromDisplayLength,
+  fromDisplaySpeed,
+  parseNumber,
+  toDisplayLength,
+  toDisplaySpeed,
+} from '../core/units';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+
+/** What a field holds: converted to the user's units for length and speed, as is otherwise. */
+export type FieldKind = 'length' | 'speed' | 'plain';
+
+let nextId = 0;
+
+/**
+ * A labelled number input bound to one plan path. Text that does not read as a number, or a
+ * value out of range, is kept as typed and explained beside the field.
+ */
+@customElement('sf-number-field')
+export class SfNumberField extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      label {
+        display: grid;
+        grid-template-columns: 1fr 7.5em;
+        gap: 6px;
+        align-items: center;
+      }
+      .unit {
+        color: var(--sf-muted);
+        font-size: 12px;
+        margin-left: 3px;
+      }
+      input {
+        width: 100%;
+        text-align: right;
+      }
+      .box {
+        display: flex;
+        align-items: center;
+      }
+      input.compact {
+        width: 100%;
+        max-width: 7em;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @property() path = '';
+  @property() label = '';
+  @property() kind: FieldKind = 'plain';
+  /** Unit label for plain fields (e.g. "°", "K", "%"). */
+  @property() unit = '';
+  /** When the field is optional, an empty input removes the value (the default applies). */
+  @property({ type: Boolean }) optional = false;
+  @property() placeholder = '';
+  /** Table-cell form: no visible label (it becomes the accessible name), no unit. */
+  @property({ type: Boolean }) compact = false;
+
+  private readonly inputId = `sf-num-${nextId++}`;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private unitLabel(): string {
+    const u = this.store?.settings.units;
+    if (this.kind === 'length') return u?.length ?? 'm';
+    if (this.kind === 'speed') return u?.speed ?? 'm/s';
+    return this.unit;
+  }
+
+  private toDisplay(v: number): number {
+    const u = this.store?.settings.units;
+    if (this.kind === 'length' && u) return toDisplayLength(v, u.length);
+    if (this.kind === 'speed' && u) return toDisplaySpeed(v, u.speed);
+    return v;
+  }
+
+  private fromDisplay(v: number): number {
+    const u = this.store?.settings.units;
+    if (this.kind === 'length' && u) return fromDisplayLength(v, u.length);
+    if (this.kind === 'speed' && u) return fromDisplaySpeed(v, u.speed);
+    return v;
+  }
+
+  private text(): string {
+    const s = this.store;
+    if (!s) return '';
+    const typed = s.texts.get(this.path);
+    if (typed) return typed.text;
+    const v = s.get(this.path);
+    if (typeof v !== 'number') return v === undefined || v === null ? '' : String(v);
+    // Converted values are shown to 6 significant digits so unit round trips stay readable.
+    return String(Number(this.toDisplay(v).toPrecision(6)));
+  }
+
+  private onChange(e: Event): void {
+    const s = this.store;
+    if (!s) return;
+    const text = (e.target as HTMLInputElement).value;
+    if (this.optional && text.trim() === '') {
+      s.edit(this.path, undefined);
+      return;
+    }
+    s.editText(this.path, text, (t) => {
+      const r = parseNumber(t);
+      return r.ok ? { ok: true, value: this.fromDisplay(r.value) } : r;
+    });
+  }
+
+  render() {
+    const msg = this.store?.messageAt(this.path);
+    if (this.compact) {
+      return html`<input
+          class="compact"
+          aria-label=${`${this.label} (${this.unitLabel()})`}
+          inputmode="decimal"
+          .value=${live(this.text())}
+          aria-invalid=${msg ? 'true' : 'false'}
+          title=${msg ?? ''}
+          data-path=${this.path}
+          @change=${this.onChange}
+        />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
+    }
+    return html`<label for=${this.inputId}>
+        <span>${this.label}</span>
+        <span class="box">
+          <input
+            id=${this.inputId}
+            inputmode="decimal"
+            .value=${live(this.text())}
+            placeholder=${this.placeholder}
+            aria-invalid=${msg ? 'true' : 'false'}
+            aria-describedby=${`${this.inputId}-err`}
+            data-path=${this.path}
+            @change=${this.onChange}
+          /><span class="unit">${this.unitLabel()}</span>
+        </span>
+      </label>
+      <div class="field-error" id=${`${this.inputId}-err`} role=${msg ? 'alert' : 'none'}>
+        ${msg ?? ''}
+      </div>`;
+  }
+}

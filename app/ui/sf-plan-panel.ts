@@ -1,0 +1,119 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import { formatCoord } from '../core/units';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-number-field';
+import './sf-text-field';
+
+const REF: [string, string][] = [
+  ['AGL', 'above plan ground (AGL)'],
+  ['MSL', 'above sea level (MSL)'],
+];
+
+/** Release, carrier, atmosphere, uncertainty and Monte Carlo settings of the plan. */
+@customElement('sf-plan-panel')
+export class SfPlanPanel extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      section {
+        display: grid;
+        gap: 2px;
+      }
+      .coord {
+        font-size: 12px;
+        color: var(--sf-muted);
+        text-align: right;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  render() {
+    const s = this.store;
+    if (!s) return html``;
+    const lat = s.get('release.lat');
+    const lon = s.get('release.lon');
+    const coord =
+      typeof lat === 'number' && typeof lon === 'number'
+        ? formatCoord({ lat, lon }, s.settings.units.coords)
+        : '';
+    const n = (
+      path: string,
+      label: string,
+      kind: 'length' | 'speed' | 'plain' = 'plain',
+      unit = '',
+      optional = true,
+    ) =>
+      html`<sf-number-field
+        .store=${s}
+        path=${path}
+        label=${label}
+        kind=${kind}
+        unit=${unit}
+        ?optional=${optional}
+      ></sf-number-field>`;
+    return html`
+      <h3>Plan</h3>
+      <section>
+        <sf-text-field .store=${s} path="name" label="Plan name" optional></sf-text-field>
+        <sf-text-field
+          .store=${s}
+          path="time"
+          label="Release time (ISO 8601, with zone)"
+          placeholder="2026-12-01T09:30:00Z"
+        ></sf-text-field>
+        ${n('requiredPHit', 'Required P(hit), 0–1', 'plain', '')}
+      </section>
+      <h3>Release point</h3>
+      <section>
+        ${n('release.lat', 'Latitude', 'plain', '°', false)}
+        ${n('release.lon', 'Longitude', 'plain', '°', false)}
+        <div class="coord" data-testid="release-coord">${coord}</div>
+        ${n('release.altitude_m', 'Release altitude', 'length', '', false)}
+        <sf-text-field
+          .store=${s}
+          path="release.reference"
+          label="Altitude measured"
+          .options=${REF}
+        ></sf-text-field>
+        ${n('groundElevation_m', 'Plan ground elevation (MSL)', 'length')}
+      </section>
+      <h3>Carrier</h3>
+      <section>
+        ${n('carrier.groundSpeed_mps', 'Ground speed (0 = hover)', 'speed')}
+        ${n('carrier.trackDeg', 'Track', 'plain', '° true')}
+      </section>
+      <h3>Atmosphere</h3>
+      <section>
+        ${n('atmosphere.isaOffset_K', 'Temperature offset from ISA', 'plain', 'K')}
+        ${n('winds.surfaceExponent', 'Near-ground wind exponent α', 'plain', '')}
+      </section>
+      <h3>Uncertainty (1σ)</h3>
+      <section>
+        ${n('uncertainty.windSpeed_mps', 'Wind, per component', 'speed')}
+        ${n('uncertainty.windCorrelation_m', 'Wind error correlation height', 'length')}
+        ${n('uncertainty.descentRate_pct', 'Descent rate', 'plain', '%')}
+        ${n('uncertainty.releasePosition_m', 'Release position, per axis', 'length')}
+        ${n('uncertainty.heading_deg', 'Heading (steered)', 'plain', '°')}
+        ${n('uncertainty.releaseTiming_s', 'Release timing', 'plain', 's')}
+      </section>
+      <h3>Monte Carlo</h3>
+      <section>
+        ${n('monteCarlo.samples', 'Samples', 'plain', '')}
+        ${n('monteCarlo.seed', 'Seed', 'plain', '')}
+      </section>
+    `;
+  }
+}

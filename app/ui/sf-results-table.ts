@@ -1,0 +1,171 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property, state } from 'lit/decorators.js';
+import type { SiteResult } from '../core/planner';
+import { formatLength } from '../core/units';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+
+type Key = 'id' | 'variant' | 'pHit' | 'cep_m' | 'reachable' | 'open' | 'heading' | 'thrust';
+
+const num = (v: number | null | undefined, d = 1): string =>
+  v === null || v === undefined || !Number.isFinite(v)
+    ? '–'
+    : (Number(v.toFixed(d)) || 0).toFixed(d);
+
+function sortValue(r: SiteResult, k: Key): number | string {
+  switch (k) {
+    case 'id':
+      return r.id;
+    case 'variant':
+      return r.variant;
+    case 'pHit':
+      return r.pHit;
+    case 'cep_m':
+      return r.cep_m;
+    case 'reachable':
+      return r.reachable ? 1 : 0;
+    case 'open':
+      return r.releaseWindow?.open_s ?? Infinity;
+    case 'heading':
+      return r.headingTrue_deg ?? Infinity;
+    case 'thrust':
+      return r.thrustTime_s ?? Infinity;
+  }
+}
+
+/** Per-site results of the latest plan: sortable; a row click shows the site on the map. */
+@customElement('sf-results-table')
+export class SfResultsTable extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      th button {
+        border: none;
+        background: none;
+        padding: 0;
+        font: inherit;
+        color: inherit;
+        cursor: pointer;
+      }
+      tbody tr {
+        cursor: pointer;
+      }
+      tbody tr:hover {
+        background: #eef5f2;
+      }
+      .bad {
+        color: var(--sf-bad);
+        font-weight: 600;
+      }
+      .good {
+        color: var(--sf-good);
+      }
+      .scroll {
+        overflow-x: auto;
+      }
+      td,
+      th {
+        white-space: nowrap;
+        font-size: 13px;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @state() private key: Key = 'id';
+  @state() private asc = true;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private sortBy(k: Key): void {
+    if (this.key === k) this.asc = !this.asc;
+    else {
+      this.key = k;
+      this.asc = true;
+    }
+  }
+
+  render() {
+    const s = this.store;
+    const r = s?.result;
+    if (!s || !r) return html`<p class="muted">Planning…</p>`;
+    const moving = r.track.groundSpeed_mps > 0;
+    const rows = [...r.sites].sort((a, b) => {
+      const x = sortValue(a, this.key);
+      const y = sortValue(b, this.key);
+      const c = typeof x === 'string' ? x.localeCompare(String(y)) : x - (y as number);
+      return this.asc ? c : -c;
+    });
+    const u = s.settings.units;
+    const h = (k: Key, label: string, title = '') => {
+      const sorted = this.key === k ? (this.asc ? 'ascending' : 'descending') : 'none';
+      return html`<th aria-sort=${sorted} title=${title}>
+        <button @click=${() => this.sortBy(k)}>
+          ${label}${this.key === k ? (this.asc ? ' ▲' : ' ▼') : ''}
+        </button>
+      </th>`;
+    };
+    return html`
+      <div class="scroll">
+        <table data-testid="results">
+          <thead>
+            <tr>
+              ${h('id', 'Site')}
+              ${h('variant', 'Variant', 'Chosen variant (pinned or recommended)')}
+              ${h('pHit', 'P(hit)')} ${h('cep_m', 'CEP')} ${h('reachable', 'Reach')}
+              ${
+                moving
+                  ? h(
+                      'open',
+                      'Window s',
+                      'Release window: opens … closes, s relative to passing the release point',
+                    )
+                  : html`<th>Hover zone</th>`
+              }
+              ${h('heading', 'Hdg T/M °', 'Programmed heading, true / magnetic')}
+              ${h('thrust', 'Thrust s', 'Programmed thrust time')}
+            </tr>
+          </thead>
+          <tbody>
+            ${rows.map(
+              (x) =>
+                html`<tr
+                  data-site=${x.id}
+                  @click=${() => s.focusSite(x.id)}
+                  title=${`${x.name}: show on the map`}
+                >
+                  <td>${x.id}</td>
+                  <td>
+                    ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pinned)</span>` : ''}
+                  </td>
+                  <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`}>${num(x.pHit, 2)}</td>
+                  <td class="num">${formatLength(x.cep_m, u.length, 1)}</td>
+                  <td class=${x.reachable ? 'good' : 'bad'}>${x.reachable ? 'yes' : 'no'}</td>
+                  ${
+                    moving
+                      ? html`<td class="num" data-col="window">
+                          ${x.releaseWindow ? `${num(x.releaseWindow.open_s)}…${num(x.releaseWindow.close_s)}` : 'none'}
+                        </td>`
+                      : html`<td data-col="zone">
+                          ${x.releaseZone ? `r ${formatLength(x.releaseZone.radius_m, u.length, 0)}` : 'none'}
+                        </td>`
+                  }
+                  <td class="num">
+                    ${x.headingTrue_deg === undefined ? '–' : `${num(x.headingTrue_deg, 0)} / ${num(x.headingMag_deg, 0)}`}
+                  </td>
+                  <td class="num">${num(x.thrustTime_s)}</td>
+                </tr>`,
+            )}
+          </tbody>
+        </table>
+      </div>
+    `;
+  }
+}

@@ -1,0 +1,197 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { Site, Variant } from '../core/plan';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-number-field';
+
+/** Next free site id of the form s01, s02, … */
+export function nextSiteId(sites: { id?: unknown }[]): string {
+  const used = new Set(sites.map((s) => String(s.id)));
+  for (let i = sites.length + 1; ; i++) {
+    const id = `s${String(i).padStart(2, '0')}`;
+    if (!used.has(id)) return id;
+  }
+}
+
+/** The sensor sites: id, name, position, ground, tolerance and an optional pinned variant. */
+@customElement('sf-sites-panel')
+export class SfSitesPanel extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      input.id {
+        width: 4.5em;
+      }
+      input.name {
+        width: 8em;
+      }
+      table {
+        min-width: 760px;
+      }
+      .row-actions {
+        margin-top: 6px;
+        display: flex;
+        gap: 6px;
+        align-items: center;
+      }
+      td {
+        white-space: nowrap;
+      }
+      .scroll {
+        overflow-x: auto;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private sites(): Site[] {
+    const l = this.store?.get('sites');
+    return Array.isArray(l) ? (l as Site[]) : [];
+  }
+
+  private add(): void {
+    const s = this.store;
+    if (!s) return;
+    const sites = this.sites();
+    const lat = Number(s.get('release.lat')) || 0;
+    const lon = Number(s.get('release.lon')) || 0;
+    // A new site starts 100 m east of the release point; drag it or type its position.
+    const dLon = 100 / (111320 * Math.cos((lat * Math.PI) / 180) || 1);
+    s.edit('sites', [...sites, { id: nextSiteId(sites), lat, lon: +(lon + dLon).toFixed(6) }]);
+  }
+
+  private removeAt(i: number): void {
+    this.store?.edit(
+      'sites',
+      this.sites().filter((_, j) => j !== i),
+    );
+  }
+
+  render() {
+    const s = this.store;
+    if (!s) return html``;
+    const sites = this.sites();
+    const variants = (s.get('variants') as Variant[] | undefined) ?? [];
+    const u = s.settings.units;
+    const text = (i: number, key: 'id' | 'name', cls: string) => {
+      const path = `sites[${i}].${key}`;
+      const msg = s.messageAt(path);
+      return html`<input
+          class=${cls}
+          aria-label=${`Site ${i + 1} ${key}`}
+          data-path=${path}
+          .value=${String(s.get(path) ?? '')}
+          aria-invalid=${msg ? 'true' : 'false'}
+          @change=${(e: Event) => {
+            const v = (e.target as HTMLInputElement).value;
+            s.edit(path, key === 'name' && v === '' ? undefined : v);
+          }}
+        />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
+    };
+    return html`
+      <h3>Sensor sites (${sites.length})</h3>
+      <div class="scroll">
+        <table>
+          <thead>
+            <tr>
+              <th>Id</th>
+              <th>Name</th>
+              <th>Lat °</th>
+              <th>Lon °</th>
+              <th>Ground (${u.length} MSL)</th>
+              <th>Tolerance (${u.length})</th>
+              <th>Variant</th>
+              <th></th>
+            </tr>
+          </thead>
+          <tbody>
+            ${sites.map((site, i) => {
+              const pinPath = `sites[${i}].variant`;
+              const pinMsg = s.messageAt(pinPath);
+              return html`<tr data-site-row=${String(site.id)}>
+                <td>${text(i, 'id', 'id')}</td>
+                <td>${text(i, 'name', 'name')}</td>
+                <td>
+                  <sf-number-field
+                    compact
+                    .store=${s}
+                    path=${`sites[${i}].lat`}
+                    label=${`Site ${i + 1} latitude`}
+                    unit="°"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <sf-number-field
+                    compact
+                    .store=${s}
+                    path=${`sites[${i}].lon`}
+                    label=${`Site ${i + 1} longitude`}
+                    unit="°"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <sf-number-field
+                    compact
+                    optional
+                    .store=${s}
+                    path=${`sites[${i}].elevation_m`}
+                    label=${`Site ${i + 1} ground elevation`}
+                    kind="length"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <sf-number-field
+                    compact
+                    optional
+                    .store=${s}
+                    path=${`sites[${i}].tolerance_m`}
+                    label=${`Site ${i + 1} tolerance`}
+                    kind="length"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <select
+                    aria-label=${`Site ${i + 1} variant`}
+                    data-path=${pinPath}
+                    @change=${(e: Event) => {
+                      const v = (e.target as HTMLSelectElement).value;
+                      s.edit(pinPath, v === '' ? undefined : v);
+                    }}
+                  >
+                    <option value="" ?selected=${site.variant === undefined}>recommended</option>
+                    ${variants.map((v) => html`<option value=${v.id} ?selected=${site.variant === v.id}>${v.id}</option>`)}
+                  </select>
+                  ${pinMsg ? html`<div class="field-error" role="alert">${pinMsg}</div>` : ''}
+                </td>
+                <td>
+                  <button
+                    aria-label=${`Delete site ${site.id}`}
+                    title="Delete this site"
+                    @click=${() => this.removeAt(i)}
+                  >
+                    ✕
+                  </button>
+                </td>
+              </tr>`;
+            })}
+          </tbody>
+        </table>
+      </div>
+      <div class="row-actions">
+        <button @click=${this.add}>Add site</button>
+        <span class="muted">or switch on “Add sites by clicking” above the map.</span>
+      </div>
+    `;
+  }
+}

@@ -1,0 +1,78 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import { live } from 'lit/directives/live.js';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+
+let nextId = 0;
+
+/** A labelled text input (or a select when `options` is set) bound to one plan path. */
+@customElement('sf-text-field')
+export class SfTextField extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      label {
+        display: grid;
+        grid-template-columns: 1fr 11em;
+        gap: 6px;
+        align-items: center;
+      }
+      input,
+      select {
+        width: 100%;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @property() path = '';
+  @property() label = '';
+  @property() placeholder = '';
+  /** Choices for a select: [value, label] pairs. */
+  @property({ attribute: false }) options?: [string, string][];
+  /** An empty input removes the value so its default applies. */
+  @property({ type: Boolean }) optional = false;
+
+  private readonly inputId = `sf-text-${nextId++}`;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private onChange(e: Event): void {
+    const v = (e.target as HTMLInputElement | HTMLSelectElement).value;
+    this.store?.edit(this.path, this.optional && v === '' ? undefined : v);
+  }
+
+  render() {
+    const s = this.store;
+    const raw = s?.get(this.path);
+    const value = raw === undefined || raw === null ? '' : String(raw);
+    const msg = s?.messageAt(this.path);
+    const control = this.options
+      ? html`<select
+          id=${this.inputId}
+          data-path=${this.path}
+          .value=${live(value)}
+          @change=${this.onChange}
+        >
+          ${this.options.map(([v, l]) => html`<option value=${v} ?selected=${v === value}>${l}</option>`)}
+        </select>`
+      : html`<input
+          id=${this.inputId}
+          data-path=${this.path}
+          .value=${live(value)}
+          placeholder=${this.placeholder}
+          aria-invalid=${msg ? 'true' : 'false'}
+          @change=${this.onChange}
+        />`;
+    return html`<label for=${this.inputId}><span>${this.label}</span>${control}</label>
+      <div class="field-error" role=${msg ? 'alert' : 'none'}>${msg ?? ''}</div>`;
+  }
+}

@@ -1,0 +1,182 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { Variant } from '../core/plan';
+import type { PlanStore } from './plan-store';
+import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-number-field';
+import './sf-text-field';
+
+const GUIDANCE: [string, string][] = [
+  ['passive', 'passive (no steering)'],
+  ['fixed-heading', 'fixed heading (programmed)'],
+  ['homing', 'homing (closed loop)'],
+];
+
+/** The vehicle catalogue of the plan, one card per variant, in recommendation order. */
+@customElement('sf-variants-panel')
+export class SfVariantsPanel extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      .card {
+        border: 1px solid var(--sf-line);
+        border-left: 6px solid var(--c);
+        border-radius: 6px;
+        padding: 6px 8px;
+        margin-bottom: 8px;
+        background: #fff;
+        display: grid;
+        gap: 2px;
+      }
+      .head {
+        display: flex;
+        justify-content: space-between;
+        align-items: center;
+        gap: 6px;
+      }
+      .head input {
+        font-weight: 600;
+        width: 10em;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private variants(): Variant[] {
+    const l = this.store?.get('variants');
+    return Array.isArray(l) ? (l as Variant[]) : [];
+  }
+
+  private add(): void {
+    const v = this.variants();
+    let n = v.length + 1;
+    while (v.some((x) => x.id === `variant-${n}`)) n++;
+    this.store?.edit('variants', [
+      ...v,
+      { id: `variant-${n}`, guidance: 'passive', descentRate_mps: 3, maxWind_mps: 10 },
+    ]);
+  }
+
+  private move(i: number, d: number): void {
+    const v = [...this.variants()];
+    const j = i + d;
+    if (j < 0 || j >= v.length) return;
+    [v[i], v[j]] = [v[j], v[i]];
+    this.store?.edit('variants', v);
+  }
+
+  private removeAt(i: number): void {
+    this.store?.edit(
+      'variants',
+      this.variants().filter((_, j) => j !== i),
+    );
+  }
+
+  render() {
+    const s = this.store;
+    if (!s) return html``;
+    const list = this.variants();
+    const n = (
+      i: number,
+      key: string,
+      label: string,
+      kind: 'length' | 'speed' | 'plain',
+      unit = '',
+      optional = true,
+    ) =>
+      html`<sf-number-field
+        .store=${s}
+        path=${`variants[${i}].${key}`}
+        label=${label}
+        kind=${kind}
+        unit=${unit}
+        ?optional=${optional}
+      ></sf-number-field>`;
+    return html`
+      <h3>Vehicle variants</h3>
+      <p class="muted">
+        Sites get the first variant, in this order, that meets the required P(hit).
+      </p>
+      ${list.map((v, i) => {
+        const idPath = `variants[${i}].id`;
+        const idMsg = s.messageAt(idPath);
+        const steered = v.guidance !== 'passive';
+        return html`<div
+          class="card"
+          style=${`--c:${VARIANT_COLOURS[i % VARIANT_COLOURS.length]}`}
+          data-variant=${String(v.id)}
+        >
+          <div class="head">
+            <input
+              aria-label=${`Variant ${i + 1} id`}
+              data-path=${idPath}
+              .value=${String(v.id ?? '')}
+              @change=${(e: Event) => s.edit(idPath, (e.target as HTMLInputElement).value)}
+            />
+            <span>
+              <button
+                aria-label="Move up"
+                title="Earlier in the catalogue"
+                ?disabled=${i === 0}
+                @click=${() => this.move(i, -1)}
+              >
+                ↑
+              </button>
+              <button
+                aria-label="Move down"
+                title="Later in the catalogue"
+                ?disabled=${i === list.length - 1}
+                @click=${() => this.move(i, 1)}
+              >
+                ↓
+              </button>
+              <button
+                aria-label=${`Delete variant ${v.id}`}
+                title="Delete this variant"
+                @click=${() => this.removeAt(i)}
+              >
+                ✕
+              </button>
+            </span>
+          </div>
+          ${idMsg ? html`<div class="field-error" role="alert">${idMsg}</div>` : ''}
+          <sf-text-field
+            .store=${s}
+            path=${`variants[${i}].name`}
+            label="Name"
+            optional
+          ></sf-text-field>
+          <sf-text-field
+            .store=${s}
+            path=${`variants[${i}].guidance`}
+            label="Guidance"
+            .options=${GUIDANCE}
+          ></sf-text-field>
+          ${n(i, 'descentRate_mps', 'Descent rate at sea level', 'speed', '', false)}
+          ${
+            steered
+              ? html`${n(i, 'glideAngle_deg', 'Glide angle below horizontal', 'plain', '°')}
+                ${n(i, 'controlTime_s', 'Steering (thrust) time', 'plain', 's')}
+                ${n(i, 'entryLoss_m', 'Altitude lost before steering', 'length')}`
+              : ''
+          }
+          ${n(i, 'referenceMass_kg', 'Mass the rate was measured with', 'plain', 'kg')}
+          ${n(i, 'payloadMass_kg', 'Mass flown', 'plain', 'kg')}
+          ${n(i, 'throwTime_s', 'Forward-throw time (blank = w/g)', 'plain', 's')}
+          ${n(i, 'maxWind_mps', 'Largest wind cleared for', 'speed')}
+        </div>`;
+      })}
+      <button @click=${this.add}>Add variant</button>
+    `;
+  }
+}

@@ -1,0 +1,139 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { WindLayer } from '../core/plan';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-number-field';
+import './sf-text-field';
+
+/** The wind layers of the plan: altitude, from-direction (° true) and speed, editable in place. */
+@customElement('sf-wind-panel')
+export class SfWindPanel extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      td.act {
+        width: 1%;
+      }
+      .row-actions {
+        margin-top: 6px;
+        display: flex;
+        gap: 6px;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private layers(): WindLayer[] {
+    const l = this.store?.get('winds.layers');
+    return Array.isArray(l) ? (l as WindLayer[]) : [];
+  }
+
+  private add(): void {
+    const l = this.layers();
+    const last = l[l.length - 1];
+    const next: WindLayer = last
+      ? {
+          altitude_m: (Number(last.altitude_m) || 0) + 100,
+          fromDeg: last.fromDeg,
+          speed_mps: last.speed_mps,
+        }
+      : { altitude_m: 10, fromDeg: 270, speed_mps: 3 };
+    this.store?.edit('winds.layers', [...l, next]);
+  }
+
+  private removeAt(i: number): void {
+    this.store?.edit(
+      'winds.layers',
+      this.layers().filter((_, j) => j !== i),
+    );
+  }
+
+  render() {
+    const s = this.store;
+    if (!s) return html``;
+    const layers = this.layers();
+    const u = s.settings.units;
+    return html`
+      <h3>Winds aloft</h3>
+      <sf-text-field
+        .store=${s}
+        path="winds.reference"
+        label="Layer altitudes measured"
+        .options=${[
+          ['AGL', 'above plan ground (AGL)'],
+          ['MSL', 'above sea level (MSL)'],
+        ]}
+      ></sf-text-field>
+      <table>
+        <thead>
+          <tr>
+            <th>Altitude (${u.length})</th>
+            <th>From (° true)</th>
+            <th>Speed (${u.speed})</th>
+            <th></th>
+          </tr>
+        </thead>
+        <tbody>
+          ${layers.map(
+            (_, i) =>
+              html`<tr data-layer=${i}>
+                <td>
+                  <sf-number-field
+                    compact
+                    .store=${s}
+                    path=${`winds.layers[${i}].altitude_m`}
+                    label=${`Layer ${i + 1} altitude`}
+                    kind="length"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <sf-number-field
+                    compact
+                    .store=${s}
+                    path=${`winds.layers[${i}].fromDeg`}
+                    label=${`Layer ${i + 1} direction from`}
+                    unit="°"
+                  ></sf-number-field>
+                </td>
+                <td>
+                  <sf-number-field
+                    compact
+                    .store=${s}
+                    path=${`winds.layers[${i}].speed_mps`}
+                    label=${`Layer ${i + 1} speed`}
+                    kind="speed"
+                  ></sf-number-field>
+                </td>
+                <td class="act">
+                  <button
+                    title="Delete this layer"
+                    aria-label=${`Delete layer ${i + 1}`}
+                    @click=${() => this.removeAt(i)}
+                  >
+                    ✕
+                  </button>
+                </td>
+              </tr>`,
+          )}
+        </tbody>
+      </table>
+      ${layers.length === 0 ? html`<p class="muted">No layers: the air is calm.</p>` : ''}
+      <div class="row-actions"><button @click=${this.add}>Add layer</button></div>
+      <p class="muted">
+        Components are interpolated linearly between layers; below the lowest layer the speed falls
+        off toward the ground with the exponent set under Atmosphere.
+      </p>
+    `;
+  }
+}

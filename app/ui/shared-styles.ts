@@ -1,0 +1,99 @@
+import { css } from 'lit';
+
+/** Colours and form/table styles shared by the panels. */
+export const sharedStyles = css`
+  :host {
+    --sf-ink: #1c2b27;
+    --sf-muted: #5b6b66;
+    --sf-line: #d3dcd8;
+    --sf-panel: #f6f8f7;
+    --sf-accent: #0f766e;
+    --sf-bad: #b42318;
+    --sf-good: #1a7f37;
+    --sf-warn-bg: #fff4d6;
+    --sf-warn-line: #b7791f;
+    color: var(--sf-ink);
+    font:
+      14px/1.35 system-ui,
+      'DejaVu Sans',
+      sans-serif;
+  }
+  h2 {
+    font-size: 15px;
+    margin: 0.8rem 0 0.4rem;
+  }
+  h3 {
+    font-size: 13px;
+    margin: 0.6rem 0 0.3rem;
+    color: var(--sf-muted);
+    text-transform: uppercase;
+    letter-spacing: 0.04em;
+  }
+  table {
+    border-collapse: collapse;
+    width: 100%;
+  }
+  th,
+  td {
+    padding: 3px 4px;
+    border-bottom: 1px solid var(--sf-line);
+    text-align: left;
+    vertical-align: top;
+  }
+  th {
+    font-weight: 600;
+    font-size: 12px;
+    color: var(--sf-muted);
+  }
+  input,
+  select {
+    font: inherit;
+    padding: 3px 5px;
+    border: 1px solid #aab8b3;
+    border-radius: 4px;
+    background: #fff;
+    color: inherit;
+    min-width: 0;
+  }
+  input:focus-visible,
+  select:focus-visible,
+  button:focus-visible {
+    outline: 2px solid var(--sf-accent);
+    outline-offset: 1px;
+  }
+  input[aria-invalid='true'] {
+    border-color: var(--sf-bad);
+    background: #fff5f4;
+  }
+  button {
+    font: inherit;
+    padding: 4px 10px;
+    border: 1px solid #8fa39c;
+    border-radius: 4px;
+    background: #fff;
+    color: inherit;
+    cursor: pointer;
+  }
+  button:hover:not(:disabled) {
+    background: #eaf2ef;
+  }
+  button:disabled {
+    opacity: 0.45;
+    cursor: default;
+  }
+  .field-error {
+    color: var(--sf-bad);
+    font-size: 12px;
+    margin-top: 2px;
+  }
+  .muted {
+    color: var(--sf-muted);
+  }
+  .num {
+    text-align: right;
+    font-variant-numeric: tabular-nums;
+  }
+`;
+
+/** Our own colours for vehicle variants, in catalogue order (repeats after the last). */
+export const VARIANT_COLOURS = ['#0f766e', '#b45309', '#7c3aed', '#be123c', '#1d4ed8', '#4d7c0f'];

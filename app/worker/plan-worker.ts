@@ -1,0 +1,21 @@
+/// <reference lib="webworker" />
+// Runs the planning core off the main thread: one request at a time, answered in order.
+import { planDrop } from '../core/planner';
+import type { Plan } from '../core/plan';
+import type { WorkerReply, WorkerRequest } from './protocol';
+
+const post = (m: WorkerReply): void =>
+  (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
+
+self.onmessage = (ev: MessageEvent<WorkerRequest>) => {
+  const { id, plan } = ev.data;
+  try {
+    const t0 = performance.now();
+    const result = planDrop(plan as Plan, {
+      onProgress: (done, total) => post({ id, type: 'progress', done, total }),
+    });
+    post({ id, type: 'result', result, elapsed_ms: performance.now() - t0 });
+  } catch (e) {
+    post({ id, type: 'error', message: e instanceof Error ? e.message : String(e) });
+  }
+};

@@ -1,0 +1,14 @@
+import type { Plan } from '../core/plan';
+import type { PlanResult } from '../core/planner';
+
+/** Main thread → worker: plan this (already validated) plan. */
+export interface WorkerRequest {
+  id: number;
+  plan: Plan;
+}
+
+/** Worker → main thread. */
+export type WorkerReply =
+  | { id: number; type: 'progress'; done: number; total: number }
+  | { id: number; type: 'result'; result: PlanResult; elapsed_ms: number }
+  | { id: number; type: 'error'; message: string };
