@@ -73,7 +73,7 @@ export class SeedfallApp extends LitElement {
       }
       main {
         display: grid;
-        grid-template-columns: minmax(0, 1fr) minmax(380px, 47%);
+        grid-template-columns: minmax(0, 1fr) minmax(380px, 48%);
         min-height: 0;
       }
       sf-map {

@@ -14,6 +14,7 @@ import {
   type LayerVisibility,
   type ShapeKind,
 } from '../map/plan-layers';
+import { getAt } from './paths';
 import type { PlanStore } from './plan-store';
 import { nextSiteId } from './sf-sites-panel';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
@@ -221,6 +222,19 @@ export class SfMap extends LitElement {
     this.fitted = true;
   }
 
+  /**
+   * Position at a plan path (`release`, `sites[3]`): the draft's, unless its lat or lon has a
+   * problem (out of range, unreadable), then the last valid plan's so nothing jumps off the map.
+   */
+  private position(path: string): { lat: number; lon: number } | null {
+    const s = this.store!;
+    const bad = s.messageAt(`${path}.lat`) || s.messageAt(`${path}.lon`);
+    const src: unknown = bad ? s.plan : s.draft;
+    const lat = num(getAt(src, `${path}.lat`));
+    const lon = num(getAt(src, `${path}.lon`));
+    return lat === null || lon === null ? null : { lat, lon };
+  }
+
   /** Brings the Leaflet layers in line with the store. */
   private sync(): void {
     const s = this.store;
@@ -254,10 +268,9 @@ export class SfMap extends LitElement {
   private syncRelease(): void {
     const s = this.store!;
     const map = this.map!;
-    const lat = num(s.get('release.lat'));
-    const lon = num(s.get('release.lon'));
-    if (lat === null || lon === null) return;
-    const rp = { lat, lon };
+    const rp = this.position('release');
+    if (!rp) return;
+    const { lat, lon } = rp;
     const trackDeg = num(s.get('carrier.trackDeg')) ?? 0;
     const speed = num(s.get('carrier.groundSpeed_mps')) ?? 0;
     if (!this.releaseMarker) {
@@ -300,10 +313,8 @@ export class SfMap extends LitElement {
   private placeTrack(): void {
     const s = this.store!;
     const map = this.map!;
-    const lat = num(s.get('release.lat'));
-    const lon = num(s.get('release.lon'));
-    if (lat === null || lon === null) return;
-    const rp = { lat, lon };
+    const rp = this.position('release');
+    if (!rp) return;
     const trackDeg = num(s.get('carrier.trackDeg')) ?? 0;
     const speed = num(s.get('carrier.groundSpeed_mps')) ?? 0;
     const len = Math.max(40, speed * HANDLE_SECONDS);
@@ -378,7 +389,8 @@ export class SfMap extends LitElement {
       }
     }
     sites.forEach((site, i) => {
-      if (num(site.lat) === null || num(site.lon) === null) return;
+      const at = this.position(`sites[${i}]`);
+      if (!at) return;
       const r = result?.sites.find((x) => x.id === site.id);
       const bad = r ? !r.meetsRequired : false;
       const label = String(site.id ?? '');
@@ -389,7 +401,7 @@ export class SfMap extends LitElement {
       });
       let m = this.siteMarkers.get(i);
       if (!m) {
-        m = L.marker([site.lat, site.lon], { draggable: true, keyboard: true, icon }).addTo(
+        m = L.marker([at.lat, at.lon], { draggable: true, keyboard: true, icon }).addTo(
           this.siteLayer,
         );
         m.on('dragstart', () => (this.dragging = true));
@@ -405,7 +417,7 @@ export class SfMap extends LitElement {
         m.on('dragend', () => this.endDrag());
         this.siteMarkers.set(i, m);
       } else {
-        m.setLatLng([site.lat, site.lon]);
+        m.setLatLng([at.lat, at.lon]);
         m.setIcon(icon);
       }
       // Site ids and names come from files: set them as text, never as HTML.

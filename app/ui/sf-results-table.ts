@@ -143,7 +143,7 @@ export class SfResultsTable extends LitElement {
                 >
                   <td>${x.id}</td>
                   <td>
-                    ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pinned)</span>` : ''}
+                    ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pin)</span>` : ''}
                   </td>
                   <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`}>${num(x.pHit, 2)}</td>
                   <td class="num">${formatLength(x.cep_m, u.length, 1)}</td>

@@ -1,0 +1,251 @@
+import { writeFileSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
+import { launch, shot, watchErrors } from './browser';
+
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+let errors: string[];
+
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+afterEach(async () => {
+  await context?.close();
+});
+
+/** A fresh browser profile (empty storage) on the app, waiting for the first planning result. */
+async function open(viewport = { width: 1280, height: 800 }): Promise<void> {
+  context = await browser.newContext({ viewport });
+  await context.addInitScript(() => {
+    const w = window as unknown as { longTasks: number[] };
+    w.longTasks = [];
+    new PerformanceObserver((list) => {
+      for (const e of list.getEntries()) w.longTasks.push(e.duration);
+    }).observe({ type: 'longtask', buffered: true });
+  });
+  page = await context.newPage();
+  errors = watchErrors(page);
+  await page.goto(inject('baseUrl'));
+  await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+}
+
+/** Waits until planning has caught up with the last edit. */
+async function settled(): Promise<void> {
+  await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+}
+
+const count = (sel: string) => page.locator(`sf-map ${sel}`).count();
+const rowText = (id: string) => page.locator(`sf-results-table tr[data-site=${id}]`).innerText();
+
+/** Drags an element by (dx, dy) pixels in small steps, as a hand would. */
+async function drag(sel: string, dx: number, dy: number, steps = 20): Promise<void> {
+  const box = await page.locator(sel).first().boundingBox();
+  if (!box) throw new Error(`${sel} is not visible`);
+  const x = box.x + box.width / 2;
+  const y = box.y + box.height / 2;
+  await page.mouse.move(x, y);
+  await page.mouse.down();
+  for (let i = 1; i <= steps; i++) {
+    await page.mouse.move(x + (dx * i) / steps, y + (dy * i) / steps);
+    await page.waitForTimeout(16);
+  }
+  await page.mouse.up();
+}
+
+describe('the map planner in Chromium', () => {
+  it('draws the demo plan: fitted map, sites, release point, track and every result layer', async () => {
+    await open();
+    expect(await count('.sf-site')).toBe(12);
+    expect(await count('.sf-release')).toBe(1);
+    expect(await count('path.sf-track')).toBe(1);
+    // Chosen variant per site: one landing, one 50 % and one 95 % ellipse each; a reach area for
+    // every steered choice (11 of 12 in the demo); a window for each site that meets P(hit).
+    expect(await count('path.sf-ellipse95')).toBe(12);
+    expect(await count('path.sf-ellipse50')).toBe(12);
+    expect(await count('path.sf-landing')).toBe(12);
+    expect(await count('path.sf-reach')).toBe(11);
+    const windows = await count('path.sf-window');
+    expect(windows).toBeGreaterThanOrEqual(8);
+    expect(await page.locator('sf-results-table tbody tr').count()).toBe(12);
+    // Every site marker lies inside the map view (the view is fitted to the plan).
+    const map = await page.locator('sf-map #map').boundingBox();
+    for (const b of await page
+      .locator('sf-map .sf-site')
+      .evaluateAll((els) => els.map((e) => e.getBoundingClientRect().toJSON() as DOMRect))) {
+      expect(b.x).toBeGreaterThan(map!.x);
+      expect(b.x + b.width).toBeLessThan(map!.x + map!.width);
+    }
+    // The grid and scale stand in for tiles.
+    expect(await page.locator('sf-map .leaflet-control-scale').count()).toBe(1);
+    await expect(page.locator('[role=note]').first().innerText()).resolves.toContain(
+      'landowner permission',
+    );
+    // Comparing variants draws one set of shapes per variant.
+    await page.locator('sf-map input[data-kind=chosen-only]').uncheck();
+    expect(await count('path.sf-ellipse95')).toBe(36);
+    await shot(page, 'planner-all-variants');
+    await page.locator('sf-map input[data-kind=chosen-only]').check();
+    await shot(page, 'planner-start');
+    expect(errors).toEqual([]);
+  });
+
+  it('dragging a site changes its results, and the drag never blocks the page over 50 ms', async () => {
+    await open();
+    const before = await rowText('s09');
+    await page.evaluate(() => ((window as unknown as { longTasks: number[] }).longTasks = []));
+    await drag('sf-map .sf-site[data-site=s09]', 60, 45);
+    const longest = await page.evaluate(() =>
+      Math.max(0, ...(window as unknown as { longTasks: number[] }).longTasks),
+    );
+    expect(longest).toBeLessThanOrEqual(50);
+    await settled();
+    await expect.poll(() => rowText('s09'), { timeout: 15_000 }).not.toBe(before);
+    // The drag is one undo step.
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await settled();
+    await expect.poll(() => rowText('s09'), { timeout: 15_000 }).toBe(before);
+    await shot(page, 'planner-after-drag');
+    expect(errors).toEqual([]);
+  });
+
+  it('changing a wind layer moves the reach areas', async () => {
+    await open();
+    const d0 = await page.locator('sf-map path.sf-reach').first().getAttribute('d');
+    await page.locator('[data-tab=winds]').click();
+    const speed = page.locator('sf-wind-panel input[data-path="winds.layers[2].speed_mps"]');
+    await speed.fill('12');
+    await speed.press('Enter');
+    await settled();
+    await expect
+      .poll(() => page.locator('sf-map path.sf-reach').first().getAttribute('d'), {
+        timeout: 15_000,
+      })
+      .not.toBe(d0);
+    await shot(page, 'planner-wind-edit');
+    expect(errors).toEqual([]);
+  });
+
+  it('keeps an edit across a reload (autosave)', async () => {
+    await open();
+    await page.locator('[data-tab=plan]').click();
+    const alt = page.locator('sf-plan-panel input[data-path="release.altitude_m"]');
+    await alt.fill('95');
+    await alt.press('Enter');
+    await page.waitForTimeout(400);
+    await page.reload();
+    await settled();
+    await page.locator('[data-tab=plan]').click();
+    await expect(
+      page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
+    ).resolves.toBe('95');
+    expect(errors).toEqual([]);
+  });
+
+  it('shows a bad number beside its field, keeps it, and keeps the last valid result', async () => {
+    await open();
+    const before = await rowText('s01');
+    await page.locator('[data-tab=plan]').click();
+    const lat = page.locator('sf-plan-panel input[data-path="release.lat"]');
+    await lat.fill('12x');
+    await lat.press('Enter');
+    const field = page.locator('sf-number-field[path="release.lat"]');
+    await expect(field.locator('.field-error').innerText()).resolves.toMatch(
+      /release\.lat: .*number.*between -90 and 90/,
+    );
+    await expect(lat.inputValue()).resolves.toBe('12x');
+    // Out of range: kept, explained with the allowed range, result kept with a notice.
+    await lat.fill('95');
+    await lat.press('Enter');
+    await expect(field.locator('.field-error').innerText()).resolves.toContain(
+      'release.lat must be between -90 and 90',
+    );
+    await expect(page.locator('[data-testid=stale]').innerText()).resolves.toContain(
+      'last valid result',
+    );
+    // The release point stays where it last was valid instead of leaving the map.
+    const mapBox = (await page.locator('sf-map #map').boundingBox())!;
+    const rel = (await page.locator('sf-map .sf-release').boundingBox())!;
+    expect(rel.y).toBeGreaterThan(mapBox.y);
+    expect(rel.y).toBeLessThan(mapBox.y + mapBox.height);
+    await page.locator('[data-tab=results]').click();
+    expect(await rowText('s01')).toBe(before);
+    expect(await count('.sf-site')).toBe(12);
+    await shot(page, 'planner-bad-input');
+    expect(errors).toEqual([]);
+  });
+
+  it('refuses a broken plan file with a clear message and loses nothing', async () => {
+    await open();
+    const dir = mkdtempSync(join(tmpdir(), 'seedfall-'));
+    const notJson = join(dir, 'broken.json');
+    writeFileSync(notJson, '{ "format": "seedfall-plan", ');
+    await page.locator('input[data-testid=open-file]').setInputFiles(notJson);
+    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toMatch(
+      /broken\.json was not opened: it is not JSON.*unchanged/,
+    );
+    const bad = join(dir, 'bad-plan.json');
+    writeFileSync(
+      bad,
+      JSON.stringify({
+        format: 'seedfall-plan',
+        version: 1,
+        release: { lat: 0, lon: 0, altitude_m: 100 },
+        variants: [{ id: 'a', guidance: 'passive', descentRate_mps: -2 }],
+        sites: [],
+      }),
+    );
+    await page.locator('input[data-testid=open-file]').setInputFiles(bad);
+    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toContain(
+      'variants[0].descentRate_mps must be > 0',
+    );
+    expect(await count('.sf-site')).toBe(12);
+    expect(await page.locator('sf-results-table tbody tr').count()).toBe(12);
+    await shot(page, 'planner-broken-file');
+    expect(errors).toEqual([]);
+  });
+
+  it('adds a site by clicking the map, and a results row click shows it', async () => {
+    await open();
+    await page.getByRole('button', { name: 'Add sites by clicking' }).click();
+    const map = await page.locator('sf-map #map').boundingBox();
+    await page.mouse.click(map!.x + map!.width * 0.8, map!.y + map!.height * 0.85);
+    await expect.poll(() => count('.sf-site')).toBe(13);
+    await settled();
+    await expect.poll(() => page.locator('sf-results-table tbody tr').count()).toBe(13);
+    await page.locator('sf-results-table tr[data-site=s13]').click();
+    await expect(page.locator('sf-map .leaflet-tooltip').first().innerText()).resolves.toContain(
+      'Site s13',
+    );
+    expect(errors).toEqual([]);
+  });
+
+  it('shows lengths in feet and speeds in knots when chosen', async () => {
+    await open();
+    await page.locator('[data-tab=settings]').click();
+    await page.locator('select[data-setting=length]').selectOption('ft');
+    await page.locator('select[data-setting=speed]').selectOption('kt');
+    await page.locator('[data-tab=plan]').click();
+    // 110 m = 360.892 ft (international foot, 0.3048 m exactly); 13 m/s = 25.2700 kt (1852 m/h).
+    await expect(
+      page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
+    ).resolves.toBe('360.892');
+    await expect(
+      page.locator('sf-plan-panel input[data-path="carrier.groundSpeed_mps"]').inputValue(),
+    ).resolves.toBe('25.27');
+    expect(errors).toEqual([]);
+  });
+
+  it('is usable on a tablet-sized screen', async () => {
+    await open({ width: 800, height: 1100 });
+    expect(await count('.sf-site')).toBe(12);
+    await shot(page, 'planner-tablet');
+    expect(errors).toEqual([]);
+  });
+});
