@@ -1,3 +1,4 @@
+import { parseCoordinate } from '../core/coords';
 import type { Plan } from '../core/plan';
 import type { PlanResult } from '../core/planner';
 import { DEFAULT_UNITS, type UnitPrefs } from '../core/units';
@@ -130,6 +131,24 @@ export class PlanStore extends EventTarget {
     this.texts.set(path, { text, message: `${path}: ${r.message}${range ? ` (${range})` : ''}` });
     this.saveSoon();
     this.emit();
+  }
+
+  /**
+   * A position typed in any supported form (decimal, DMS, UTM, MGRS) for the object at path
+   * (`release`, `sites[2]`): sets lat and lon together, or keeps the text with the reason.
+   */
+  editPosition(path: string, text: string): void {
+    const key = `${path}.position`;
+    const r = parseCoordinate(text);
+    if (!r.ok) {
+      this.texts.set(key, { text, message: `${key}: ${r.message}` });
+      this.emit();
+      return;
+    }
+    this.texts.delete(key);
+    const cur = this.get(path);
+    const base = cur && typeof cur === 'object' ? (cur as Record<string, unknown>) : {};
+    this.edit(path, { ...base, lat: +r.lat.toFixed(7), lon: +r.lon.toFixed(7) });
   }
 
   /** Replaces the whole plan (open file, load demo) as one undo step. */

@@ -1,9 +1,9 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { formatCoord } from '../core/units';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
+import './sf-coord-field';
 import './sf-number-field';
 import './sf-text-field';
 
@@ -43,12 +43,6 @@ export class SfPlanPanel extends LitElement {
   render() {
     const s = this.store;
     if (!s) return html``;
-    const lat = s.get('release.lat');
-    const lon = s.get('release.lon');
-    const coord =
-      typeof lat === 'number' && typeof lon === 'number'
-        ? formatCoord({ lat, lon }, s.settings.units.coords)
-        : '';
     const n = (
       path: string,
       label: string,
@@ -80,7 +74,7 @@ export class SfPlanPanel extends LitElement {
       <section>
         ${n('release.lat', 'Latitude', 'plain', '°', false)}
         ${n('release.lon', 'Longitude', 'plain', '°', false)}
-        <div class="coord" data-testid="release-coord">${coord}</div>
+        <sf-coord-field .store=${s} path="release" label="Position (any format)"></sf-coord-field>
         ${n('release.altitude_m', 'Release altitude', 'length', '', false)}
         <sf-text-field
           .store=${s}

@@ -4,6 +4,7 @@ import type { Site, Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
+import './sf-coord-field';
 import './sf-number-field';
 
 /** Next free site id of the form s01, s02, … */
@@ -31,7 +32,7 @@ export class SfSitesPanel extends LitElement {
         width: 8em;
       }
       table {
-        min-width: 760px;
+        min-width: 980px;
       }
       .row-actions {
         margin-top: 6px;
@@ -107,6 +108,7 @@ export class SfSitesPanel extends LitElement {
             <tr>
               <th>Id</th>
               <th>Name</th>
+              <th>Position (${u.coords === 'decimal' ? 'lat, lon' : u.coords.toUpperCase()})</th>
               <th>Lat °</th>
               <th>Lon °</th>
               <th>Ground (${u.length} MSL)</th>
@@ -122,6 +124,14 @@ export class SfSitesPanel extends LitElement {
               return html`<tr data-site-row=${String(site.id)}>
                 <td>${text(i, 'id', 'id')}</td>
                 <td>${text(i, 'name', 'name')}</td>
+                <td>
+                  <sf-coord-field
+                    compact
+                    .store=${s}
+                    path=${`sites[${i}]`}
+                    label=${`Site ${i + 1} position`}
+                  ></sf-coord-field>
+                </td>
                 <td>
                   <sf-number-field
                     compact

@@ -1,8 +1,9 @@
-import { writeFileSync, mkdtempSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
+import { validatePlan } from '../../app/core/validate';
 import { launch, shot, watchErrors } from './browser';
 
 let browser: Browser;
@@ -240,6 +241,48 @@ describe('the map planner in Chromium', () => {
       page.locator('sf-plan-panel input[data-path="carrier.groundSpeed_mps"]').inputValue(),
     ).resolves.toBe('25.27');
     expect(errors).toEqual([]);
+  });
+
+  it('takes a site position typed as MGRS and shows it back in the chosen format', async () => {
+    await open();
+    await page.locator('[data-tab=settings]').click();
+    await page.locator('select[data-setting=coords]').selectOption('mgrs');
+    await page.locator('[data-tab=sites]').click();
+    const pos = page.locator('sf-coord-field[path="sites[0]"] input');
+    // MGRS of 47.49300 N, 21.08100 E as the mgrs package (reference library) writes it, 1 m
+    // precision; typed without spaces as a crew member might.
+    await pos.fill('34TET0610159954');
+    await pos.press('Enter');
+    const lat = Number(await page.locator('input[data-path="sites[0].lat"]').inputValue());
+    const lon = Number(await page.locator('input[data-path="sites[0].lon"]').inputValue());
+    expect(Math.abs(lat - 47.493)).toBeLessThan(2e-5);
+    expect(Math.abs(lon - 21.081)).toBeLessThan(2e-5);
+    await expect(pos.inputValue()).resolves.toMatch(/^34T ET 0610\d 5995\d$/);
+    await pos.fill('not a place');
+    await pos.press('Enter');
+    await expect(
+      page.locator('sf-coord-field[path="sites[0]"] .field-error').innerText(),
+    ).resolves.toContain('sites[0].position');
+    await expect(pos.inputValue()).resolves.toBe('not a place');
+    expect(errors).toEqual([]);
+  });
+
+  it('saves the plan as a JSON file that validates and holds the edits', async () => {
+    await open();
+    await page.locator('[data-tab=plan]').click();
+    const alt = page.locator('sf-plan-panel input[data-path="release.altitude_m"]');
+    await alt.fill('101');
+    await alt.press('Enter');
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'Save' }).click(),
+    ]);
+    const path = await download.path();
+    const saved = JSON.parse(readFileSync(path, 'utf8'));
+    expect(saved.format).toBe('seedfall-plan');
+    expect(saved.release.altitude_m).toBe(101);
+    expect(validatePlan(saved).ok).toBe(true);
+    expect(download.suggestedFilename()).toMatch(/\.json$/);
   });
 
   it('is usable on a tablet-sized screen', async () => {

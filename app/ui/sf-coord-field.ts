@@ -1,0 +1,78 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import { live } from 'lit/directives/live.js';
+import { formatCoord } from '../core/units';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+
+let nextId = 0;
+
+/**
+ * A position shown in the user's coordinate format (decimal, DMS, UTM or MGRS) that accepts any
+ * of those forms when typed; bound to the object at `path` (its lat and lon).
+ */
+@customElement('sf-coord-field')
+export class SfCoordField extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      label {
+        display: grid;
+        grid-template-columns: 1fr 14em;
+        gap: 6px;
+        align-items: center;
+      }
+      input {
+        width: 100%;
+      }
+      input.compact {
+        width: 15em;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @property() path = '';
+  @property() label = 'Position';
+  @property({ type: Boolean }) compact = false;
+
+  private readonly inputId = `sf-coord-${nextId++}`;
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private text(): string {
+    const s = this.store;
+    if (!s) return '';
+    const typed = s.texts.get(`${this.path}.position`);
+    if (typed) return typed.text;
+    const lat = s.get(`${this.path}.lat`);
+    const lon = s.get(`${this.path}.lon`);
+    if (typeof lat !== 'number' || typeof lon !== 'number') return '';
+    return formatCoord({ lat, lon }, s.settings.units.coords);
+  }
+
+  render() {
+    const s = this.store;
+    const key = `${this.path}.position`;
+    const msg = s?.messageAt(key);
+    const input = html`<input
+      id=${this.inputId}
+      class=${this.compact ? 'compact' : ''}
+      data-path=${key}
+      aria-label=${this.compact ? this.label : undefined}
+      .value=${live(this.text())}
+      aria-invalid=${msg ? 'true' : 'false'}
+      title="Decimal degrees, DMS (47°29′34″N 21°04′44″E), UTM (34T 657425 5262364) or MGRS"
+      @change=${(e: Event) => s?.editPosition(this.path, (e.target as HTMLInputElement).value)}
+    />`;
+    return html`${this.compact ? input : html`<label for=${this.inputId}><span>${this.label}</span>${input}</label>`}
+    ${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
+  }
+}
