@@ -64,3 +64,11 @@ export { formatPlanText } from './report-text';
 export { Rng, streamSeed } from './rng';
 export { validatePlan, type PlanIssue, type PlanValidation } from './validate';
 export { WindProfile, windComponents, windFromComponents, type WindVector } from './wind';
+export {
+  briefHtml,
+  briefTimes,
+  scheduleOrder,
+  type BriefOptions,
+  type BriefSafety,
+} from './brief-html';
+export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';

@@ -54,6 +54,9 @@ export interface VariantResult {
 export interface SiteResult extends VariantResult {
   id: string;
   name: string;
+  /** The site's position. */
+  lat: number;
+  lon: number;
   /** The recommended variant id (first in catalogue order meeting requiredPHit, else best P(hit)). */
   recommended: string;
   /** True when the site pins its variant. */
@@ -327,6 +330,8 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     return {
       id: s.id,
       name: s.name,
+      lat: s.lat,
+      lon: s.lon,
       ...chosen,
       recommended,
       pinned: s.variant !== undefined,

@@ -1,19 +1,12 @@
 import { mkdirSync } from 'node:fs';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../app/print-pdf';
 
 /** Debian's Chromium, started as the probe on these machines starts it (see DEVELOPERS.md). */
 export async function launch(): Promise<Browser> {
   return chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: [
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-    ],
+    executablePath: CHROMIUM_PATH,
+    args: CHROMIUM_ARGS,
   });
 }
 

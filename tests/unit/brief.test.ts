@@ -1,0 +1,116 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { briefHtml, briefTimes, scheduleOrder } from '../../app/core/brief-html';
+import { planDrop } from '../../app/core/planner';
+import { validatePlan } from '../../app/core/validate';
+import demo from '../../data/demo-plan.json';
+
+function demoPlan(patch: (d: typeof demo) => void = () => {}) {
+  const d = structuredClone(demo);
+  patch(d);
+  d.monteCarlo.samples = 200;
+  const v = validatePlan(d);
+  if (!v.ok) throw new Error(v.errors.map((e) => e.message).join('; '));
+  return { plan: v.plan, result: planDrop(v.plan) };
+}
+
+describe('the drop brief', () => {
+  const { plan, result } = demoPlan();
+  const html = briefHtml(plan, result, { generatedAt: new Date('2026-12-01T07:00:00Z') });
+
+  it('lists every site once in the release schedule, in release-time order on a moving track', () => {
+    for (const s of result.sites) {
+      expect(html.match(new RegExp(`<tr data-site="${s.id}">`, 'g'))?.length).toBe(1);
+    }
+    const order = scheduleOrder(result).map((s) => s.release.time_s);
+    expect(order).toEqual([...order].sort((a, b) => a - b));
+    const positions = scheduleOrder(result).map((s) => html.indexOf(`<tr data-site="${s.id}">`));
+    expect(positions).toEqual([...positions].sort((a, b) => a - b));
+  });
+
+  it('prints the planner’s P(hit) and CEP for each site', () => {
+    for (const s of result.sites) {
+      const row = html.slice(html.indexOf(`<tr data-site="${s.id}">`));
+      expect(row).toContain(`data-col="phit">${s.pHit.toFixed(2)}<`);
+      expect(row).toContain(`data-col="cep">${(Number(s.cep_m.toFixed(1)) || 0).toFixed(1)}<`);
+    }
+  });
+
+  it('carries the caution, the declination with its model, and sign-off lines', () => {
+    expect(html).toContain('airspace authorisation');
+    expect(html).toContain('WMM-2025');
+    expect(html).toContain('Prepared by');
+    expect(html).toContain('Approved by');
+  });
+
+  it('shows plan text as text, never as markup', () => {
+    const { plan: p2, result: r2 } = demoPlan((d) => {
+      d.name = '<script>alert(1)</script> & "co"';
+      d.sites[0].name = '<img src=x onerror=alert(1)>';
+    });
+    const h = briefHtml(p2, r2);
+    expect(h).not.toContain('<script>alert');
+    expect(h).not.toContain('<img src=x');
+    expect(h).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;co&quot;');
+  });
+
+  it('gives the local clock time with its zone and the same instant in UTC', () => {
+    // 09:30 at UTC+01:00 is 08:30 UTC (ISO 8601 offsets).
+    expect(briefTimes('2026-12-01T09:30:00+01:00')).toEqual({
+      date: '2026-12-01',
+      local: '09:30 UTC+01:00',
+      utc: '08:30 UTC 2026-12-01',
+    });
+    expect(briefTimes('2026-06-30T23:15:00-05:00').utc).toBe('04:15 UTC 2026-07-01');
+  });
+
+  it('sets the paper size for the whole brief and landscape for the schedule', () => {
+    const letter = briefHtml(plan, result, { paper: 'Letter' });
+    expect(letter).toContain('@page { size: Letter;');
+    expect(letter).toContain('@page schedule { size: Letter landscape;');
+  });
+});
+
+describe('the brief from the command line', () => {
+  it('writes the same brief to a file and reports bad options', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'seedfall-brief-'));
+    const out = join(dir, 'brief.html');
+    execFileSync(
+      'node_modules/.bin/tsx',
+      ['app/cli.ts', 'brief', 'data/demo-plan.json', '--out', out],
+      {
+        stdio: 'pipe',
+      },
+    );
+    const text = readFileSync(out, 'utf8');
+    expect(text.startsWith('<!doctype html>')).toBe(true);
+    expect(text).toContain('Release schedule');
+    const bad = join(dir, 'bad.json');
+    writeFileSync(bad, '{"format":"seedfall-plan","version":1}');
+    let err = '';
+    try {
+      execFileSync('node_modules/.bin/tsx', ['app/cli.ts', 'brief', bad, '--out', out], {
+        stdio: 'pipe',
+      });
+    } catch (e) {
+      err = String((e as { stderr: Buffer }).stderr);
+    }
+    expect(err).toContain('release is required');
+    let err2 = '';
+    try {
+      execFileSync(
+        'node_modules/.bin/tsx',
+        ['app/cli.ts', 'brief', 'data/demo-plan.json', '--paper', 'A5', '--out', out],
+        {
+          stdio: 'pipe',
+        },
+      );
+    } catch (e) {
+      err2 = String((e as { stderr: Buffer }).stderr);
+    }
+    expect(err2).toContain('--paper must be A4 or Letter');
+  });
+});
