@@ -32,6 +32,8 @@ export interface BriefOptions {
   safety?: BriefSafety;
   /** When the brief was made (default now). */
   generatedAt?: Date;
+  /** Adds a screen-only bar with a Print button (the app's print view). */
+  printBar?: boolean;
 }
 
 const f = (v: number | null | undefined, d = 1): string =>
@@ -221,6 +223,9 @@ tr { break-inside: avoid; }
 .two, section.safety, section.hazard { break-inside: avoid; }
 .coords { font-family: 'DejaVu Sans Mono', monospace; font-size: 8.5pt; }
 .two { display: grid; grid-template-columns: 1fr 1fr; gap: 6mm; align-items: start; }
+.printbar { position: sticky; top: 0; background: #1f3a34; color: #fff; padding: 3mm; display: flex; gap: 4mm; align-items: center; }
+.printbar button { font: inherit; font-weight: 700; padding: 1.5mm 5mm; }
+@media print { .printbar { display: none; } }
 footer { margin-top: 6mm; font-size: 8.5pt; color: #444; }
 `;
 
@@ -239,6 +244,7 @@ export function briefHtml(plan: Plan, result: PlanResult, opts: BriefOptions = {
 <html lang="en"><head><meta charset="utf-8"><title>Drop brief — ${esc(plan.name)}</title>
 <style>${STYLE(paper)}</style></head>
 <body>
+${opts.printBar ? `<div class="printbar"><button onclick="window.print()">Print brief</button><span>${paper} · choose “Save as PDF” in the print dialog for a file.</span></div>` : ''}
 <h1>Drop brief: ${esc(plan.name)}</h1>
 <div class="caution" role="note">CAUTION — ${esc(CAUTION_TEXT)}</div>
 <section class="meta">

@@ -12,6 +12,8 @@ export interface Settings {
   /** Tile URL template for online use ('' = no tiles: grid only). */
   tileUrl: string;
   tileAttribution: string;
+  /** Paper of the printed brief. */
+  paper: 'A4' | 'Letter';
 }
 
 const DRAFT_KEY = 'seedfall.draft.v1';
@@ -310,6 +312,7 @@ export class PlanStore extends EventTarget {
       units: { ...DEFAULT_UNITS, ...(s?.units ?? {}) },
       tileUrl: typeof s?.tileUrl === 'string' ? s.tileUrl : '',
       tileAttribution: typeof s?.tileAttribution === 'string' ? s.tileAttribution : '',
+      paper: s?.paper === 'Letter' ? 'Letter' : 'A4',
     };
   }
 

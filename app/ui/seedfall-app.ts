@@ -1,6 +1,7 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import demo from '../../data/demo-plan.json';
+import { briefHtml } from '../core/brief-html';
 import { CAUTION_TEXT } from '../core/caution';
 import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from '../core/units';
 import { validatePlan } from '../core/validate';
@@ -239,6 +240,20 @@ export class SeedfallApp extends LitElement {
     );
   }
 
+  /** Opens the printable brief of the current result in a new tab. */
+  private openBrief(): void {
+    const s = this.store;
+    if (!s.plan || !s.result) {
+      s.setNotice('error', 'No planning result yet: the brief needs a valid plan.');
+      return;
+    }
+    const html = briefHtml(s.plan, s.result, { paper: s.settings.paper, printBar: true });
+    const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));
+    const w = window.open(url, '_blank');
+    if (!w) s.setNotice('error', 'The brief could not open: allow pop-ups for this page.');
+    setTimeout(() => URL.revokeObjectURL(url), 60_000);
+  }
+
   private setUnits(patch: Partial<UnitPrefs>): void {
     this.store.setSettings({ units: { ...this.store.settings.units, ...patch } });
   }
@@ -272,6 +287,19 @@ export class SeedfallApp extends LitElement {
           @change=${(e: Event) => this.setUnits({ coords: (e.target as HTMLSelectElement).value as UnitPrefs['coords'] })}
         >
           ${COORD_FORMATS.map((u) => html`<option value=${u} ?selected=${u === st.units.coords}>${{ decimal: 'decimal degrees', dms: 'degrees minutes seconds', utm: 'UTM', mgrs: 'MGRS' }[u]}</option>`)}
+        </select></label
+      >
+      <h3>Brief</h3>
+      <label
+        >Paper size
+        <select
+          data-setting="paper"
+          @change=${(e: Event) =>
+            this.store.setSettings({
+              paper: (e.target as HTMLSelectElement).value as 'A4' | 'Letter',
+            })}
+        >
+          ${(['A4', 'Letter'] as const).map((p) => html`<option ?selected=${p === st.paper}>${p}</option>`)}
         </select></label
       >
       <h3>Background map</h3>
@@ -397,6 +425,9 @@ export class SeedfallApp extends LitElement {
           </button></label
         >
         <button @click=${this.save}>Save</button>
+        <button @click=${this.openBrief} title="Printable drop brief for the field crew">
+          Brief
+        </button>
         <button ?disabled=${!s.canUndo} @click=${() => s.undo()} title="Undo (Ctrl+Z)">Undo</button>
         <button ?disabled=${!s.canRedo} @click=${() => s.redo()} title="Redo (Ctrl+Y)">Redo</button>
         <button @click=${() => s.replace(demo as Record<string, unknown>, 'Demo plan loaded.')}>
