@@ -7,9 +7,11 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import {
   briefHtml,
+  briefSafety,
   CAUTION_TEXT,
   formatPlanText,
   planDrop,
+  planSafety,
   validatePlan,
   type Plan,
   type PlanResult,
@@ -149,7 +151,10 @@ async function main(): Promise<void> {
     return;
   }
 
-  const html = briefHtml(plan, result, { paper: args.paper });
+  const html = briefHtml(plan, result, {
+    paper: args.paper,
+    safety: briefSafety(planSafety(plan, result)),
+  });
   if (args.out) write(args.out, html);
   if (args.pdf) {
     const { printPdf, CHROMIUM_PATH } = await import('./print-pdf');

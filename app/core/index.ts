@@ -72,3 +72,103 @@ export {
   type BriefSafety,
 } from './brief-html';
 export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
+// Wind and temperature imports: winds-aloft text, sounding files, surface readings, forecast series.
+export {
+  ForecastSeries,
+  pHitTimeline,
+  windowsFromTimeline,
+  type ClockWindow,
+  type TimedProfile,
+  type TimelineEntry,
+  type TimelineOptions,
+} from './forecast-series';
+export { SoundingAtmosphere, type SoundingAtmosphereOptions } from './sounding-atmosphere';
+export { importSounding, type Sounding, type SoundingProblem } from './sounding-csv';
+export {
+  HELLMANN_NEUTRAL,
+  mergeSurfaceProfile,
+  speedRatio,
+  surfaceProfile,
+  TERRAIN,
+  type SurfaceProfileOptions,
+  type SurfaceReading,
+  type Terrain,
+  type TerrainClass,
+} from './surface-wind';
+export {
+  decodeWindsAloft,
+  stationLayers,
+  type StationLayers,
+  type StationLayersOptions,
+  type WindsAloft,
+  type WindsAloftLayer,
+  type WindsAloftStation,
+} from './winds-aloft';
+// Safety checks, hazard area, readiness and sun (civil twilight).
+export {
+  circumscribed,
+  clearance_m,
+  hazardArea,
+  hazardPieces,
+  type ConvexPiece,
+} from './hazard-area';
+export {
+  DEFAULT_MANUAL_ITEMS,
+  overallReady,
+  readiness,
+  type ManualItem,
+  type Readiness,
+  type ReadinessOverride,
+} from './readiness';
+export {
+  DEFAULT_SAFETY_SETTINGS,
+  IMPACT_CAT2_FT_LBF,
+  IMPACT_CAT3_FT_LBF,
+  J_PER_FT_LBF,
+  impactEnergy_J,
+  safetyChecks,
+  windSpeeds,
+  type CheckResult,
+  type CheckStatus,
+  type SafetyReport,
+  type SafetySettings,
+} from './safety';
+export {
+  civilTwilight,
+  solarCoordinates,
+  sunElevationDeg,
+  type CivilTwilight,
+  type SolarCoordinates,
+} from './sun';
+// Exports to GeoJSON, KML, GPX and CSV; site import from CSV, GeoJSON and KML.
+export {
+  toGeoJSON,
+  toGPX,
+  toKML,
+  toScheduleCSV,
+  toSitesCSV,
+  xmlEscape,
+  type Feature,
+  type FeatureCollection,
+  type GeoJSONOptions,
+  type Geometry,
+  type PolygonGeometry,
+  type PolygonInput,
+  type Position,
+  type ScheduleOptions,
+} from './export-formats';
+export {
+  importSites,
+  type ImportOptions,
+  type ImportProblem,
+  type ImportResult,
+  type XmlParser,
+} from './import-sites';
+export {
+  blockingText,
+  briefSafety,
+  checklistOf,
+  planSafety,
+  safetySettingsOf,
+  type PlanSafety,
+} from './plan-safety';

@@ -111,5 +111,7 @@ export function resolvePlan(file: PlanFile, opts: { now?: Date } = {}): Plan {
       seed: file.monteCarlo?.seed ?? DEFAULTS.monteCarlo.seed,
     },
     requiredPHit: file.requiredPHit ?? DEFAULTS.requiredPHit,
+    // Safety defaults live with the checks (DEFAULT_SAFETY_SETTINGS, DEFAULT_MANUAL_ITEMS).
+    ...(file.safety ? { safety: structuredClone(file.safety) } : {}),
   };
 }

@@ -65,6 +65,33 @@ export interface Uncertainty {
   releaseTiming_s: number;
 }
 
+/** A no-drop zone: GeoJSON Feature with a Polygon geometry ([lon, lat]). */
+export interface NoDropZone {
+  type: 'Feature';
+  properties?: { name?: string };
+  geometry: { type: 'Polygon'; coordinates: number[][][] };
+}
+
+export interface ChecklistItem {
+  id: string;
+  text: string;
+  state: 'open' | 'done' | 'n/a';
+  who?: string;
+  when?: string;
+  note?: string;
+}
+
+/** Safety settings, zones, the crew checklist and the ready sign-off (all optional in a file). */
+export interface SafetySection {
+  ceiling_m?: number;
+  noDropBuffer_m?: number;
+  hazardBuffer_m?: number;
+  thrustMargin_pct?: number;
+  noDropZones?: NoDropZone[];
+  checklist?: ChecklistItem[];
+  signoff?: { who: string; when: string; reason?: string };
+}
+
 export interface PlanFile {
   format: 'seedfall-plan';
   version: 1;
@@ -81,6 +108,7 @@ export interface PlanFile {
   uncertainty?: Partial<Uncertainty>;
   monteCarlo?: { samples?: number; seed?: number };
   requiredPHit?: number;
+  safety?: SafetySection;
 }
 
 /** A plan with every default applied; what the core computes on. */
@@ -99,6 +127,8 @@ export interface Plan {
   uncertainty: Uncertainty;
   monteCarlo: { samples: number; seed: number };
   requiredPHit: number;
+  /** As in the file; defaults are applied by the safety checks (DEFAULT_SAFETY_SETTINGS). */
+  safety?: SafetySection;
 }
 
 export interface ResolvedVariant extends Variant {

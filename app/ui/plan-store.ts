@@ -1,5 +1,6 @@
 import { parseCoordinate } from '../core/coords';
 import type { Plan } from '../core/plan';
+import type { PlanSafety } from '../core/plan-safety';
 import type { PlanResult } from '../core/planner';
 import { DEFAULT_UNITS, type UnitPrefs } from '../core/units';
 import { allowedRange, validatePlan, type PlanIssue } from '../core/validate';
@@ -41,6 +42,8 @@ export class PlanStore extends EventTarget {
   /** The last plan that validated; results belong to it. */
   plan: Plan | null = null;
   result: PlanResult | null = null;
+  /** Safety checks of `result` (computed with it in the worker). */
+  safety: PlanSafety | null = null;
   /** True while the shown result is older than the current (valid) plan. */
   computing = false;
   progress = 0;
@@ -275,8 +278,9 @@ export class PlanStore extends EventTarget {
     this.inFlight = 0;
     if (m.type === 'result') {
       this.result = m.result;
+      this.safety = m.safety;
       this.elapsed_ms = m.elapsed_ms;
-      this.workerError = null;
+      this.workerError = m.safetyError ? `safety checks failed: ${m.safetyError}` : null;
     } else {
       this.workerError = m.message;
     }

@@ -2,6 +2,7 @@ import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import demo from '../../data/demo-plan.json';
 import { briefHtml } from '../core/brief-html';
+import { briefSafety } from '../core/plan-safety';
 import { CAUTION_TEXT } from '../core/caution';
 import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from '../core/units';
 import { validatePlan } from '../core/validate';
@@ -247,7 +248,11 @@ export class SeedfallApp extends LitElement {
       s.setNotice('error', 'No planning result yet: the brief needs a valid plan.');
       return;
     }
-    const html = briefHtml(s.plan, s.result, { paper: s.settings.paper, printBar: true });
+    const html = briefHtml(s.plan, s.result, {
+      paper: s.settings.paper,
+      printBar: true,
+      safety: s.safety ? briefSafety(s.safety) : undefined,
+    });
     const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));
     const w = window.open(url, '_blank');
     if (!w) s.setNotice('error', 'The brief could not open: allow pop-ups for this page.');

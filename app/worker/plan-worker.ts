@@ -1,5 +1,6 @@
 /// <reference lib="webworker" />
 // Runs the planning core off the main thread: one request at a time, answered in order.
+import { planSafety, type PlanSafety } from '../core/plan-safety';
 import { planDrop } from '../core/planner';
 import type { Plan } from '../core/plan';
 import type { WorkerReply, WorkerRequest } from './protocol';
@@ -14,7 +15,14 @@ self.onmessage = (ev: MessageEvent<WorkerRequest>) => {
     const result = planDrop(plan as Plan, {
       onProgress: (done, total) => post({ id, type: 'progress', done, total }),
     });
-    post({ id, type: 'result', result, elapsed_ms: performance.now() - t0 });
+    let safety: PlanSafety | null = null;
+    let safetyError: string | undefined;
+    try {
+      safety = planSafety(plan as Plan, result);
+    } catch (e) {
+      safetyError = e instanceof Error ? e.message : String(e);
+    }
+    post({ id, type: 'result', result, safety, safetyError, elapsed_ms: performance.now() - t0 });
   } catch (e) {
     post({ id, type: 'error', message: e instanceof Error ? e.message : String(e) });
   }

@@ -1,4 +1,5 @@
 import type { Plan } from '../core/plan';
+import type { PlanSafety } from '../core/plan-safety';
 import type { PlanResult } from '../core/planner';
 
 /** Main thread → worker: plan this (already validated) plan. */
@@ -10,5 +11,13 @@ export interface WorkerRequest {
 /** Worker → main thread. */
 export type WorkerReply =
   | { id: number; type: 'progress'; done: number; total: number }
-  | { id: number; type: 'result'; result: PlanResult; elapsed_ms: number }
+  | {
+      id: number;
+      type: 'result';
+      result: PlanResult;
+      /** Safety checks of the result; null with safetyError when they could not be computed. */
+      safety: PlanSafety | null;
+      safetyError?: string;
+      elapsed_ms: number;
+    }
   | { id: number; type: 'error'; message: string };

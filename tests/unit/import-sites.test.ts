@@ -1,0 +1,340 @@
+import { DOMParser } from '@xmldom/xmldom';
+import fc from 'fast-check';
+import * as mgrsModule from 'mgrs';
+import proj4 from 'proj4';
+import { describe, expect, it } from 'vitest';
+import { importSites, type ImportResult } from '../../app/core/import-sites';
+import { expectClose } from './helpers';
+
+// mgrs ships CommonJS to Node (default export only) and ESM to bundlers.
+const mgrs = ('toPoint' in mgrsModule ? mgrsModule : Reflect.get(mgrsModule, 'default')) as {
+  toPoint: (s: string) => [number, number];
+  forward: (p: [number, number], precision?: number) => string;
+};
+
+const lines = (r: ImportResult): (number | undefined)[] => r.problems.map((p) => p.line);
+
+describe('CSV import', () => {
+  it('reads a semicolon file with decimal commas and a quoted name holding the delimiter', () => {
+    const text =
+      'id;name;lat;lon;elevation_m;tolerance_m\n' + 'a1;"Reed; north";47,4929;21,0809;89,4;10\n';
+    const r = importSites(text, 'csv');
+    expect(r.problems).toEqual([]);
+    expect(r.sites).toEqual([
+      {
+        id: 'a1',
+        name: 'Reed; north',
+        lat: 47.4929,
+        lon: 21.0809,
+        elevation_m: 89.4,
+        tolerance_m: 10,
+      },
+    ]);
+  });
+
+  it('reads a headerless semicolon file with decimal commas', () => {
+    const r = importSites('47,49;21,08\r\n-12,5;-45,25\r\n', 'auto');
+    expect(r.problems).toEqual([]);
+    expect(r.sites).toEqual([
+      { id: 's01', lat: 47.49, lon: 21.08 },
+      { id: 's02', lat: -12.5, lon: -45.25 },
+    ]);
+  });
+
+  it('reads tab-separated files', () => {
+    const r = importSites('site\tlatitude\tlongitude\nt1\t47.5\t21.1\nt2\t-33.9\t151.2\n', 'auto');
+    expect(r.problems).toEqual([]);
+    expect(r.sites.map((s) => [s.id, s.lat, s.lon])).toEqual([
+      ['t1', 47.5, 21.1],
+      ['t2', -33.9, 151.2],
+    ]);
+  });
+
+  it('handles a BOM, CRLF, quoted commas, blank lines and a trailing delimiter', () => {
+    // RFC 4180 §2.6: fields containing commas are enclosed in double quotes. // common practice: BOM from spreadsheets
+    const text =
+      '\uFEFFID,Name,Lat,Lon,\r\n' +
+      'b1,"Oxbow, west bank",47.5,21.1,\r\n' +
+      '\r\n' +
+      'b2,"Say ""hi""",47.6,21.2,\r\n' +
+      '   \r\n';
+    const r = importSites(text, 'auto');
+    expect(r.problems).toEqual([]);
+    expect(r.sites).toEqual([
+      { id: 'b1', name: 'Oxbow, west bank', lat: 47.5, lon: 21.1 },
+      { id: 'b2', name: 'Say "hi"', lat: 47.6, lon: 21.2 },
+    ]);
+  });
+
+  it('reads headerless lat,lon and id,lat,lon files, generating ids that avoid existing ones', () => {
+    const a = importSites('47.5,21.1\n47.6,21.2\n', 'csv', { existingIds: ['s01', 's03'] });
+    expect(a.problems).toEqual([]);
+    expect(a.sites.map((s) => s.id)).toEqual(['s02', 's04']);
+    expect(a.sites[1]).toMatchObject({ lat: 47.6, lon: 21.2 });
+    const b = importSites('p1,47.5,21.1\np2,47.6,21.2\n', 'csv');
+    expect(b.problems).toEqual([]);
+    expect(b.sites.map((s) => [s.id, s.lat, s.lon])).toEqual([
+      ['p1', 47.5, 21.1],
+      ['p2', 47.6, 21.2],
+    ]);
+  });
+
+  it('reads degrees-minutes-seconds in the lat and lon columns', () => {
+    const text = 'id,lat,lon\nd1,47°29′34.3″N,21°04′51.3″E\nd2,"33 52 04.2 S","151 12 36.0 E"\n';
+    const r = importSites(text, 'csv');
+    expect(r.problems).toEqual([]);
+    // DMS to decimal: d + m/60 + s/3600, negative in the south and west (common practice).
+    expectClose(r.sites[0].lat, 47 + 29 / 60 + 34.3 / 3600, 1e-12, 'd1 lat');
+    expectClose(r.sites[0].lon, 21 + 4 / 60 + 51.3 / 3600, 1e-12, 'd1 lon');
+    expectClose(r.sites[1].lat, -(33 + 52 / 60 + 4.2 / 3600), 1e-12, 'd2 lat');
+    expectClose(r.sites[1].lon, 151 + 12 / 60 + 36 / 3600, 1e-12, 'd2 lon');
+  });
+
+  it('reads UTM columns (zone with band, or a hemisphere column) as proj4 inverts them', () => {
+    const utm34N = proj4('WGS84', '+proj=utm +zone=34 +ellps=WGS84 +datum=WGS84 +units=m +no_defs');
+    const utm56S = proj4(
+      'WGS84',
+      '+proj=utm +zone=56 +south +ellps=WGS84 +datum=WGS84 +units=m +no_defs',
+    );
+    const text =
+      'id,easting,northing,zone\n' + 'u1,505946,5259953,34T\n' + 'u2,505946,5259953,34S\n';
+    const r = importSites(text, 'csv');
+    // Reference: proj4's UTM inverse, called directly here.
+    const [lon, lat] = utm34N.inverse([505946, 5259953]);
+    expectClose(r.sites[0].lat, lat, 1e-9, 'u1 lat');
+    expectClose(r.sites[0].lon, lon, 1e-9, 'u1 lon');
+    // Band S is 32°N–40°N: the northing contradicts it, so the row is reported, not guessed.
+    expect(r.sites).toHaveLength(1);
+    expect(r.problems).toHaveLength(1);
+    expect(r.problems[0].line).toBe(3);
+    expect(r.problems[0].message).toMatch(/^line 3: UTM band S/);
+
+    const h = importSites('id,easting,northing,zone,hemisphere\nh1,334000,6250000,56,S\n', 'csv');
+    expect(h.problems).toEqual([]);
+    const [lon2, lat2] = utm56S.inverse([334000, 6250000]);
+    expectClose(h.sites[0].lat, lat2, 1e-9, 'h1 lat');
+    expectClose(h.sites[0].lon, lon2, 1e-9, 'h1 lon');
+  });
+
+  it('reads an MGRS column as the mgrs package decodes it', () => {
+    const text = 'id,mgrs\nm1,34TET0594559953\nm2,"34T ET 05968 59961"\n';
+    const r = importSites(text, 'csv');
+    expect(r.problems).toEqual([]);
+    // Reference: mgrs.toPoint (npm mgrs) gives the square's centre as [lon, lat].
+    const [lon, lat] = mgrs.toPoint('34TET0594559953');
+    expectClose(r.sites[0].lat, lat, 1e-12, 'm1 lat');
+    expectClose(r.sites[0].lon, lon, 1e-12, 'm1 lon');
+    const [lon2, lat2] = mgrs.toPoint('34TET0596859961');
+    expectClose(r.sites[1].lat, lat2, 1e-12, 'm2 lat');
+    expectClose(r.sites[1].lon, lon2, 1e-12, 'm2 lon');
+  });
+
+  it('reports each bad row with its line number and the reason, and keeps the good rows', () => {
+    const text = [
+      'id,name,lat,lon,elevation,tolerance', // 1
+      'g1,Good one,47.5,21.1,90,10', // 2
+      'x1,Too far north,95.2,21.1,,', // 3
+      'x2,Text in lat,abc,21.1', // 4
+      '', // 5
+      'x3,Too few', // 6
+      'g2,"Good, two",47.6,21.2', // 7
+      'x4,Bad elevation,47.7,21.3,high', // 8
+      'x5,No coordinates,,', // 9
+      'x6,Lon out,47.1,200.5', // 10
+      'x7,Bad tolerance,47.1,20.5,,-3', // 11
+      'g1,Duplicate id,47.2,21.2', // 12
+    ].join('\n');
+    const r = importSites(text, 'csv');
+    expect(r.sites.map((s) => s.id)).toEqual(['g1', 'g2', 's01']);
+    expect(r.sites[1].name).toBe('Good, two');
+    expect(lines(r)).toEqual([3, 4, 6, 8, 9, 10, 11, 12]);
+    const msg = r.problems.map((p) => p.message);
+    expect(msg[0]).toBe('line 3: latitude "95.2" out of range -90…90; row not imported');
+    expect(msg[1]).toMatch(/^line 4: latitude "abc" is not a number/);
+    expect(msg[2]).toMatch(/^line 6: only 2 field\(s\)/);
+    expect(msg[3]).toMatch(/^line 8: elevation "high" is not a number/);
+    expect(msg[4]).toBe('line 9: no coordinates; row not imported');
+    expect(msg[5]).toMatch(/^line 10: longitude "200.5" out of range -180…180/);
+    expect(msg[6]).toMatch(/^line 11: tolerance -3 m out of range/);
+    expect(msg[7]).toBe('line 12: id "g1" is already taken; imported as "s01"');
+  });
+
+  it('counts lines across quoted line breaks', () => {
+    const r = importSites('id,name,lat,lon\na,"two\nlines",47,21\nb,x,91,21\n', 'csv');
+    expect(r.sites).toHaveLength(1);
+    expect(r.sites[0].name).toBe('two\nlines');
+    expect(lines(r)).toEqual([4]);
+  });
+
+  it('names unused columns and a header without coordinates', () => {
+    const a = importSites('id,lat,lon,colour\na,47,21,red\n', 'csv');
+    expect(a.sites).toHaveLength(1);
+    expect(a.problems).toEqual([
+      {
+        line: 1,
+        message: 'line 1: column(s) "colour" not recognised; their values are not imported',
+      },
+    ]);
+    const b = importSites('id,where\na,somewhere\n', 'csv');
+    expect(b.sites).toEqual([]);
+    expect(b.problems[0].message).toMatch(/^line 1: header has no coordinate columns/);
+  });
+});
+
+describe('GeoJSON import', () => {
+  it('takes Point and MultiPoint features, reports a LineString by index', () => {
+    const text = JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: {
+            id: 'g1',
+            name: 'Point one',
+            elevation_m: 90,
+            tolerance_m: 12,
+            variant: 'vane-steer',
+          },
+          geometry: { type: 'Point', coordinates: [21.1, 47.5] },
+        },
+        {
+          type: 'Feature',
+          properties: { name: 'A line' },
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [21, 47],
+              [21.1, 47.1],
+            ],
+          },
+        },
+        {
+          type: 'Feature',
+          properties: { id: 'm' },
+          geometry: {
+            type: 'MultiPoint',
+            coordinates: [
+              [21.2, 47.2],
+              [21.3, 47.3],
+            ],
+          },
+        },
+        { type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [21, 95] } },
+        { type: 'Feature', properties: { id: 'n' }, geometry: null },
+      ],
+    });
+    const r = importSites(text, 'auto');
+    expect(r.sites).toEqual([
+      {
+        id: 'g1',
+        name: 'Point one',
+        lat: 47.5,
+        lon: 21.1,
+        elevation_m: 90,
+        tolerance_m: 12,
+        variant: 'vane-steer',
+      },
+      { id: 'm-1', lat: 47.2, lon: 21.2 },
+      { id: 'm-2', lat: 47.3, lon: 21.3 },
+    ]);
+    expect(r.problems.map((p) => p.feature)).toEqual([1, 3, 4]);
+    expect(r.problems[0].message).toMatch(/^features\[1\]: a LineString is not a site/);
+    expect(r.problems[1].message).toMatch(/latitude "95" out of range/);
+    expect(r.problems[2].message).toMatch(/has no geometry/);
+  });
+
+  it('accepts a bare geometry and reports JSON syntax errors', () => {
+    expect(importSites('{"type":"Point","coordinates":[8,47]}', 'auto').sites).toEqual([
+      { id: 's01', lat: 47, lon: 8 },
+    ]);
+    const bad = importSites('{\n"type": "FeatureCollection",\n"features": [,]\n}', 'geojson');
+    expect(bad.sites).toEqual([]);
+    expect(bad.problems[0].message).toMatch(/not valid JSON/);
+  });
+});
+
+describe('KML import', () => {
+  it('reads two placemarks (OGC KML 2.2 Point coordinates are lon,lat[,alt])', () => {
+    const text = `<?xml version="1.0" encoding="UTF-8"?>
+<kml xmlns="http://www.opengis.net/kml/2.2"><Document>
+  <Placemark><name>Reed &amp; Sedge</name><Point><coordinates>21.0809,47.4929,0</coordinates></Point></Placemark>
+  <Placemark><name>k2</name>
+    <ExtendedData><Data name="elevation_m"><value>88.5</value></Data><Data name="tolerance_m"><value>15</value></Data></ExtendedData>
+    <Point><coordinates> 21.0811,47.4927 </coordinates></Point></Placemark>
+  <Placemark><name>Path</name><LineString><coordinates>21,47 21.1,47.1</coordinates></LineString></Placemark>
+</Document></kml>`;
+    const r = importSites(text, 'auto');
+    expect(r.sites).toEqual([
+      { id: 'Reed & Sedge', lat: 47.4929, lon: 21.0809 },
+      { id: 'k2', lat: 47.4927, lon: 21.0811, elevation_m: 88.5, tolerance_m: 15 },
+    ]);
+    expect(r.problems).toHaveLength(1);
+    expect(r.problems[0]).toMatchObject({ feature: 2 });
+    expect(r.problems[0].message).toMatch(/LineString is not a site/);
+  });
+
+  it('reports malformed XML with its line and a non-KML root', () => {
+    const bad = importSites('<kml>\n<Document>\n<Placemark></Document>\n</kml>', 'kml');
+    expect(bad.sites).toEqual([]);
+    expect(bad.problems[0].line).toBe(3);
+    expect(bad.problems[0].message).toMatch(/^line 3: XML error/);
+    const gpx = importSites('<gpx version="1.1"></gpx>', 'auto');
+    expect(gpx.problems[0].message).toMatch(/root element <gpx> is not <kml>/);
+  });
+
+  it('uses an injected XML parser', () => {
+    let called = 0;
+    const r = importSites(
+      '<kml><Placemark><name>i</name><Point><coordinates>1,2</coordinates></Point></Placemark></kml>',
+      'kml',
+      {
+        parseXml: (t) => {
+          called++;
+          return new DOMParser().parseFromString(t, 'text/xml') as unknown as Document;
+        },
+      },
+    );
+    expect(called).toBe(1);
+    expect(r.sites).toEqual([{ id: 'i', lat: 2, lon: 1 }]);
+  });
+});
+
+describe('import never throws', () => {
+  // Property: for any text and any kind, importSites returns; every site it returns is in range.
+  it('on arbitrary strings, and every site is within −90…90, −180…180', () => {
+    const kinds = fc.constantFrom(
+      'csv' as const,
+      'geojson' as const,
+      'kml' as const,
+      'auto' as const,
+    );
+    const texty = fc.oneof(
+      fc.string({ unit: 'grapheme', maxLength: 200 }),
+      fc
+        .tuple(
+          fc.array(
+            fc.array(fc.oneof(fc.double(), fc.string(), fc.constantFrom('47,5', '°', '"', 'N')), {
+              maxLength: 5,
+            }),
+            { maxLength: 6 },
+          ),
+          fc.constantFrom(',', ';', '\t'),
+        )
+        .map(([rows, d]) => rows.map((r) => r.join(d)).join('\n')),
+      fc.string({ maxLength: 100 }).map((s) => `<kml>${s}</kml>`),
+      fc.string({ maxLength: 100 }).map((s) => `{"type":"FeatureCollection","features":[${s}]}`),
+    );
+    fc.assert(
+      fc.property(texty, kinds, (text, kind) => {
+        const r = importSites(text, kind);
+        for (const s of r.sites) {
+          expect(Number.isFinite(s.lat) && Math.abs(s.lat) <= 90).toBe(true);
+          expect(Number.isFinite(s.lon) && Math.abs(s.lon) <= 180).toBe(true);
+          expect(s.id.length).toBeGreaterThan(0);
+        }
+        for (const p of r.problems) expect(typeof p.message).toBe('string');
+      }),
+      { numRuns: 400 },
+    );
+  });
+});
