@@ -12,13 +12,15 @@ import { StoreController } from './store-controller';
 import './sf-map';
 import './sf-plan-panel';
 import './sf-results-table';
+import './sf-safety-panel';
 import './sf-sites-panel';
 import './sf-variants-panel';
 import './sf-wind-panel';
 
-type Tab = 'results' | 'plan' | 'winds' | 'sites' | 'variants' | 'settings';
+type Tab = 'results' | 'safety' | 'plan' | 'winds' | 'sites' | 'variants' | 'settings';
 const TABS: [Tab, string][] = [
   ['results', 'Results'],
+  ['safety', 'Safety'],
   ['plan', 'Release & plan'],
   ['winds', 'Winds'],
   ['sites', 'Sites'],
@@ -357,6 +359,8 @@ export class SeedfallApp extends LitElement {
                 </p>`
               : ''
           }`;
+      case 'safety':
+        return html`<sf-safety-panel .store=${s}></sf-safety-panel>`;
       case 'plan':
         return html`<sf-plan-panel .store=${s}></sf-plan-panel>`;
       case 'winds':

@@ -143,6 +143,9 @@ export class SfMap extends LitElement {
   @property({ attribute: false }) store?: PlanStore;
   @state() private vis: LayerVisibility = structuredClone(DEFAULT_VISIBILITY);
   @state() private addMode = false;
+  @state() private drawMode = false;
+  @state() private drawPts: L.LatLng[] = [];
+  @state() private showHazard = true;
 
   private map?: L.Map;
   private resultLayer?: L.LayerGroup;
@@ -158,6 +161,10 @@ export class SfMap extends LitElement {
   private drawnVis = '';
   private drawnUnits = '';
   private fitted = false;
+  private safetyLayer?: L.LayerGroup;
+  private drawnSafety: unknown = null;
+  private drawnZones = '';
+  private drawLine?: L.Polyline;
 
   constructor() {
     super();
@@ -247,6 +254,7 @@ export class SfMap extends LitElement {
       this.syncSites();
     }
     this.syncResults();
+    this.syncSafety();
   }
 
   private syncTiles(): void {
@@ -463,12 +471,113 @@ export class SfMap extends LitElement {
   }
 
   private onMapClick(e: L.LeafletMouseEvent): void {
+    if (this.drawMode) {
+      this.drawPts = [...this.drawPts, e.latlng];
+      return;
+    }
     if (!this.addMode || !this.store) return;
     const sites = (this.store.get('sites') as Site[] | undefined) ?? [];
     this.store.edit('sites', [
       ...sites,
       { id: nextSiteId(sites), lat: +e.latlng.lat.toFixed(7), lon: +e.latlng.lng.toFixed(7) },
     ]);
+  }
+
+  /** No-drop zones (from the plan) and the hazard area (from the safety checks). */
+  private syncSafety(): void {
+    const s = this.store!;
+    const zones = JSON.stringify(s.get('safety.noDropZones') ?? []);
+    const key = `${zones}|${this.showHazard}`;
+    if (s.safety === this.drawnSafety && key === this.drawnZones) {
+      this.placeDrawing();
+      return;
+    }
+    this.drawnSafety = s.safety;
+    this.drawnZones = key;
+    this.safetyLayer?.remove();
+    const group = L.layerGroup();
+    const hz = s.safety?.hazardArea;
+    if (hz && this.showHazard) {
+      const polys =
+        hz.geometry.type === 'Polygon' ? [hz.geometry.coordinates] : hz.geometry.coordinates;
+      for (const p of polys) {
+        L.polygon(
+          p.map((ring) => ring.map(([lon, lat]) => [lat, lon] as L.LatLngTuple)),
+          {
+            color: '#b42318',
+            weight: 2,
+            dashArray: '10 4 2 4',
+            fillOpacity: 0.05,
+            className: 'sf-hazard',
+          },
+        )
+          .bindTooltip(
+            `Hazard area — keep people clear<br>${(s.safety!.hazardArea_m2 / 10000).toFixed(2)} ha, ` +
+              `99 % landing ellipses swept over the windows plus the ground under the releases, ` +
+              `grown by ${s.safety!.settings.hazardBuffer_m} m`,
+            { sticky: true },
+          )
+          .addTo(group);
+      }
+    }
+    for (const z of JSON.parse(zones) as {
+      properties?: { name?: string };
+      geometry: { coordinates: number[][][] };
+    }[]) {
+      const tip = document.createElement('span');
+      tip.textContent = `No-drop zone: ${z.properties?.name || 'unnamed'}`;
+      L.polygon(
+        z.geometry.coordinates.map((ring) => ring.map(([lon, lat]) => [lat, lon] as L.LatLngTuple)),
+        {
+          color: '#1c2b27',
+          weight: 1.5,
+          fillColor: '#1c2b27',
+          fillOpacity: 0.18,
+          className: 'sf-nodrop',
+        },
+      )
+        .bindTooltip(tip, { sticky: true })
+        .addTo(group);
+    }
+    this.safetyLayer = group.addTo(this.map!);
+    this.placeDrawing();
+  }
+
+  /** The zone being drawn, as a dashed outline through the clicked corners. */
+  private placeDrawing(): void {
+    if (!this.drawMode || this.drawPts.length === 0) {
+      this.drawLine?.remove();
+      this.drawLine = undefined;
+      return;
+    }
+    const pts = [...this.drawPts, this.drawPts[0]];
+    if (!this.drawLine) {
+      this.drawLine = L.polyline(pts, {
+        color: '#1c2b27',
+        dashArray: '4 4',
+        weight: 2,
+        className: 'sf-drawing',
+      }).addTo(this.map!);
+    } else this.drawLine.setLatLngs(pts);
+  }
+
+  private finishZone(): void {
+    const s = this.store;
+    if (s && this.drawPts.length >= 3) {
+      const zones = (s.get('safety.noDropZones') as unknown[] | undefined) ?? [];
+      const ring = this.drawPts.map((p) => [+p.lng.toFixed(7), +p.lat.toFixed(7)]);
+      ring.push([...ring[0]]);
+      s.edit('safety.noDropZones', [
+        ...zones,
+        {
+          type: 'Feature',
+          properties: { name: `Zone ${zones.length + 1}` },
+          geometry: { type: 'Polygon', coordinates: [ring] },
+        },
+      ]);
+    }
+    this.drawMode = false;
+    this.drawPts = [];
   }
 
   private toggleKind(k: ShapeKind, on: boolean): void {
@@ -482,10 +591,48 @@ export class SfMap extends LitElement {
         <button
           class=${this.addMode ? 'adding' : ''}
           aria-pressed=${this.addMode ? 'true' : 'false'}
-          @click=${() => (this.addMode = !this.addMode)}
+          @click=${() => {
+            this.addMode = !this.addMode;
+            this.drawMode = false;
+            this.drawPts = [];
+          }}
         >
           ${this.addMode ? 'Adding sites: click the map' : 'Add sites by clicking'}
         </button>
+        <button
+          class=${this.drawMode ? 'adding' : ''}
+          aria-pressed=${this.drawMode ? 'true' : 'false'}
+          @click=${() => {
+            if (this.drawMode) this.finishZone();
+            else {
+              this.drawMode = true;
+              this.addMode = false;
+            }
+          }}
+        >
+          ${
+            this.drawMode
+              ? this.drawPts.length >= 3
+                ? `Finish zone (${this.drawPts.length} corners)`
+                : `Click ${3 - this.drawPts.length} more corner(s)…`
+              : 'Draw no-drop zone'
+          }
+        </button>
+        ${
+          this.drawMode
+            ? html`<button @click=${() => ((this.drawMode = false), (this.drawPts = []))}>
+                Cancel
+              </button>`
+            : ''
+        }
+        <label
+          ><input
+            type="checkbox"
+            data-kind="hazard"
+            .checked=${this.showHazard}
+            @change=${(e: Event) => (this.showHazard = (e.target as HTMLInputElement).checked)}
+          />Hazard area</label
+        >
         ${SHAPE_KINDS.map(
           (k) =>
             html`<label

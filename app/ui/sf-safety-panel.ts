@@ -1,0 +1,455 @@
+import { LitElement, css, html } from 'lit';
+import { customElement, property, state } from 'lit/decorators.js';
+import { CAUTION_TEXT } from '../core/caution';
+import type { ChecklistItem, NoDropZone } from '../core/plan';
+import { blockingText, checklistOf } from '../core/plan-safety';
+import { DEFAULT_MANUAL_ITEMS } from '../core/readiness';
+import type { PlanStore } from './plan-store';
+import { sharedStyles } from './shared-styles';
+import { StoreController } from './store-controller';
+import './sf-number-field';
+
+const STATE_LABEL: Record<string, string> = {
+  pass: 'pass',
+  fail: 'FAIL',
+  warn: 'warn',
+  'n/a': 'n/a',
+};
+
+/**
+ * The safety checklist: automatic checks computed with every plan, the crew's own items with who
+ * and when, no-drop zones, and the ready sign-off (a failing check needs a written reason).
+ */
+@customElement('sf-safety-panel')
+export class SfSafetyPanel extends LitElement {
+  static styles = [
+    sharedStyles,
+    css`
+      :host {
+        display: block;
+      }
+      .state {
+        padding: 8px 10px;
+        border-radius: 6px;
+        font-weight: 700;
+        margin: 6px 0;
+      }
+      .ready {
+        background: #e7f5ec;
+        color: var(--sf-good);
+        border: 1px solid #9fd3b0;
+      }
+      .not-ready {
+        background: #fdecea;
+        color: var(--sf-bad);
+        border: 1px solid #f1b5ae;
+      }
+      .state ul {
+        margin: 4px 0 0 18px;
+        padding: 0;
+        font-weight: 400;
+      }
+      .check {
+        display: grid;
+        grid-template-columns: 3.6em 1fr;
+        gap: 6px;
+        padding: 4px 0;
+        border-bottom: 1px solid var(--sf-line);
+      }
+      .badge {
+        font-weight: 700;
+        font-size: 12px;
+        text-align: center;
+        border-radius: 4px;
+        padding: 1px 0;
+        height: fit-content;
+      }
+      .b-pass {
+        background: #e7f5ec;
+        color: var(--sf-good);
+      }
+      .b-fail {
+        background: #fdecea;
+        color: var(--sf-bad);
+      }
+      .b-warn {
+        background: #fff4d6;
+        color: #8a5a00;
+      }
+      .b-na {
+        background: #eef1f0;
+        color: var(--sf-muted);
+      }
+      details summary {
+        cursor: pointer;
+        font-size: 12px;
+        color: var(--sf-muted);
+      }
+      .nums {
+        font-size: 12px;
+        font-variant-numeric: tabular-nums;
+      }
+      .item {
+        display: grid;
+        grid-template-columns: 6.5em 1fr;
+        gap: 4px 8px;
+        padding: 6px 0;
+        border-bottom: 1px solid var(--sf-line);
+      }
+      .item .meta {
+        grid-column: 2;
+        display: flex;
+        gap: 6px;
+        flex-wrap: wrap;
+      }
+      .item input.text {
+        width: 100%;
+      }
+      .item .meta input {
+        width: 9em;
+      }
+      .caution {
+        background: var(--sf-warn-bg);
+        border-left: 4px solid var(--sf-warn-line);
+        padding: 6px 8px;
+        font-size: 13px;
+      }
+      .signoff {
+        display: grid;
+        gap: 4px;
+        margin-top: 6px;
+      }
+      textarea {
+        font: inherit;
+        width: 100%;
+        min-height: 3em;
+      }
+      .row {
+        display: flex;
+        gap: 6px;
+        flex-wrap: wrap;
+        align-items: center;
+        margin-top: 6px;
+      }
+    `,
+  ];
+
+  @property({ attribute: false }) store?: PlanStore;
+  @state() private signer = '';
+  @state() private reason = '';
+  @state() private signError = '';
+
+  constructor() {
+    super();
+    new StoreController(this, () => this.store);
+  }
+
+  private checklist(): ChecklistItem[] {
+    const s = this.store;
+    const own = s?.get('safety.checklist');
+    if (Array.isArray(own)) return own as ChecklistItem[];
+    return s?.plan ? checklistOf(s.plan) : DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m }));
+  }
+
+  private setChecklist(items: ChecklistItem[]): void {
+    this.store?.edit('safety.checklist', items);
+  }
+
+  private setItem(i: number, patch: Partial<ChecklistItem>): void {
+    const items = this.checklist().map((m, j) => (j === i ? { ...m, ...patch } : m));
+    this.setChecklist(items);
+  }
+
+  private setState(i: number, state: ChecklistItem['state']): void {
+    const cur = this.checklist()[i];
+    const who = cur.who || this.signer || undefined;
+    this.setItem(i, {
+      state,
+      who,
+      when: state === 'open' ? undefined : new Date().toISOString().slice(0, 16),
+    });
+  }
+
+  private addItem(): void {
+    const items = this.checklist();
+    let n = items.length + 1;
+    while (items.some((m) => m.id === `item-${n}`)) n++;
+    this.setChecklist([...items, { id: `item-${n}`, text: 'New item', state: 'open' }]);
+  }
+
+  private signOff(): void {
+    const s = this.store;
+    const safety = s?.safety;
+    if (!s || !safety) return;
+    const who = this.signer.trim();
+    if (!who) {
+      this.signError = 'Enter your name to sign the plan off.';
+      return;
+    }
+    const failing = safety.checks.filter((c) => c.status === 'fail');
+    if (failing.length > 0 && !this.reason.trim()) {
+      this.signError = `${failing.length} automatic check(s) fail: write the reason for going ahead.`;
+      return;
+    }
+    if (safety.checklist.some((m) => m.state === 'open')) {
+      this.signError = 'Every crew item must be done or marked not applicable first.';
+      return;
+    }
+    this.signError = '';
+    s.edit('safety.signoff', {
+      who,
+      when: new Date().toISOString().slice(0, 16),
+      ...(failing.length > 0 ? { reason: this.reason.trim() } : {}),
+    });
+  }
+
+  private renderChecks() {
+    const safety = this.store?.safety;
+    if (!safety) return html`<p class="muted">Checks run with the next planning result…</p>`;
+    return safety.checks.map(
+      (c) =>
+        html`<div class="check" data-check=${c.id} data-status=${c.status}>
+          <span class=${`badge b-${c.status === 'n/a' ? 'na' : c.status}`}
+            >${STATE_LABEL[c.status]}</span
+          >
+          <div>
+            <b>${c.title}</b><br />${c.why}
+            ${
+              Object.keys(c.numbers).length
+                ? html`<details>
+                    <summary>Figures</summary>
+                    <div class="nums">
+                      ${Object.entries(c.numbers).map(([k, v]) => html`<div>${k}: ${String(v)}</div>`)}
+                    </div>
+                  </details>`
+                : ''
+            }
+          </div>
+        </div>`,
+    );
+  }
+
+  private renderState() {
+    const safety = this.store?.safety;
+    if (!safety) return '';
+    if (safety.signedReady) {
+      const so = safety.signoff!;
+      return html`<div class="state ready" data-testid="safety-state">
+        READY — signed off by ${so.who} at ${so.when}
+        ${
+          so.reason
+            ? html`<ul>
+                <li>Going ahead despite failing checks: ${so.reason}</li>
+              </ul>`
+            : ''
+        }
+        <div class="row">
+          <button @click=${() => this.store?.edit('safety.signoff', undefined)}>
+            Withdraw sign-off
+          </button>
+        </div>
+      </div>`;
+    }
+    const blocking = blockingText(safety);
+    return html`<div class="state not-ready" data-testid="safety-state">
+      NOT READY
+      <ul>
+        ${blocking.map((b) => html`<li>${b}</li>`)}
+        ${safety.signoff ? html`<li>sign-off by ${safety.signoff.who} no longer covers the plan</li>` : html`<li>not signed off</li>`}
+      </ul>
+    </div>`;
+  }
+
+  private renderZones() {
+    const s = this.store!;
+    const zones = (s.get('safety.noDropZones') as NoDropZone[] | undefined) ?? [];
+    return html`<h3>No-drop zones (${zones.length})</h3>
+      <p class="muted">
+        Roads, buildings, water, gatherings: nothing may land within the buffer of these. Draw them
+        on the map (“Draw no-drop zone”) or open a GeoJSON file of polygons.
+      </p>
+      ${zones.map(
+        (z, i) =>
+          html`<div class="row" data-zone=${i}>
+            <input
+              aria-label=${`No-drop zone ${i + 1} name`}
+              .value=${z.properties?.name ?? ''}
+              @change=${(e: Event) => s.edit(`safety.noDropZones[${i}].properties`, { name: (e.target as HTMLInputElement).value })}
+            />
+            <span class="muted">${z.geometry.coordinates[0].length - 1} corners</span>
+            <button
+              aria-label=${`Delete no-drop zone ${i + 1}`}
+              @click=${() =>
+                s.edit(
+                  'safety.noDropZones',
+                  zones.filter((_, j) => j !== i),
+                )}
+            >
+              ✕
+            </button>
+          </div>`,
+      )}
+      <div class="row">
+        <label
+          >Open GeoJSON polygons
+          <input
+            type="file"
+            accept=".geojson,.json,application/geo+json"
+            data-testid="zones-file"
+            @change=${this.importZones}
+          />
+        </label>
+      </div>`;
+  }
+
+  private async importZones(e: Event): Promise<void> {
+    const s = this.store!;
+    const input = e.target as HTMLInputElement;
+    const file = input.files?.[0];
+    input.value = '';
+    if (!file) return;
+    let data: unknown;
+    try {
+      data = JSON.parse(await file.text());
+    } catch {
+      s.setNotice('error', `${file.name}: not JSON; no zones added.`);
+      return;
+    }
+    const feats: unknown[] =
+      (data as { type?: string }).type === 'FeatureCollection'
+        ? ((data as { features?: unknown[] }).features ?? [])
+        : [data];
+    const zones: NoDropZone[] = [];
+    const skipped: string[] = [];
+    feats.forEach((f, i) => {
+      const g =
+        (f as { geometry?: { type?: string; coordinates?: number[][][] | number[][][][] } })
+          .geometry ?? (f as never);
+      const name =
+        (f as { properties?: { name?: string } }).properties?.name ?? `${file.name} ${i + 1}`;
+      if (g?.type === 'Polygon')
+        zones.push({
+          type: 'Feature',
+          properties: { name },
+          geometry: { type: 'Polygon', coordinates: g.coordinates as number[][][] },
+        });
+      else if (g?.type === 'MultiPolygon') {
+        (g.coordinates as number[][][][]).forEach((c, k) =>
+          zones.push({
+            type: 'Feature',
+            properties: { name: `${name} ${k + 1}` },
+            geometry: { type: 'Polygon', coordinates: c },
+          }),
+        );
+      } else skipped.push(`features[${i}] (${g?.type ?? 'no geometry'})`);
+    });
+    const cur = (s.get('safety.noDropZones') as NoDropZone[] | undefined) ?? [];
+    s.edit('safety.noDropZones', [...cur, ...zones]);
+    s.setNotice(
+      skipped.length ? 'error' : 'info',
+      `${file.name}: ${zones.length} zone(s) added${skipped.length ? `; not polygons, skipped: ${skipped.join(', ')}` : ''}.`,
+    );
+  }
+
+  render() {
+    const s = this.store;
+    if (!s) return html``;
+    const items = this.checklist();
+    const n = (
+      path: string,
+      label: string,
+      unit: string,
+      def: string,
+      kind: 'length' | 'plain' = 'length',
+    ) =>
+      html`<sf-number-field
+        .store=${s}
+        path=${path}
+        label=${label}
+        kind=${kind}
+        unit=${unit}
+        placeholder=${`${def} (default)`}
+        optional
+      ></sf-number-field>`;
+    return html`
+      <p class="caution" role="note">${CAUTION_TEXT}</p>
+      ${this.renderState()}
+      <h3>Automatic checks</h3>
+      ${this.renderChecks()}
+      <h3>Crew checklist</h3>
+      ${items.map(
+        (m, i) =>
+          html`<div class="item" data-item=${m.id}>
+            <select
+              aria-label=${`State of: ${m.text}`}
+              @change=${(e: Event) => this.setState(i, (e.target as HTMLSelectElement).value as ChecklistItem['state'])}
+            >
+              ${(['open', 'done', 'n/a'] as const).map((st) => html`<option value=${st} ?selected=${m.state === st}>${st}</option>`)}
+            </select>
+            <input
+              class="text"
+              aria-label=${`Checklist item ${i + 1}`}
+              .value=${m.text}
+              @change=${(e: Event) => this.setItem(i, { text: (e.target as HTMLInputElement).value || m.text })}
+            />
+            <div class="meta">
+              <input
+                aria-label=${`Who, item ${i + 1}`}
+                placeholder="who"
+                .value=${m.who ?? ''}
+                @change=${(e: Event) => this.setItem(i, { who: (e.target as HTMLInputElement).value || undefined })}
+              />
+              <span class="muted">${m.when ?? ''}</span>
+              <input
+                aria-label=${`Note, item ${i + 1}`}
+                placeholder="note"
+                .value=${m.note ?? ''}
+                @change=${(e: Event) => this.setItem(i, { note: (e.target as HTMLInputElement).value || undefined })}
+              />
+              <button
+                aria-label=${`Delete item ${i + 1}`}
+                title="Delete this item"
+                @click=${() => this.setChecklist(items.filter((_, j) => j !== i))}
+              >
+                ✕
+              </button>
+            </div>
+          </div>`,
+      )}
+      <div class="row">
+        <button @click=${this.addItem}>Add item</button>
+        <button @click=${() => this.setChecklist(DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m })))}>
+          Reset to template
+        </button>
+      </div>
+      <h3>Sign-off</h3>
+      <div class="signoff">
+        <label
+          >Your name
+          <input
+            data-testid="signer"
+            .value=${this.signer}
+            @input=${(e: Event) => (this.signer = (e.target as HTMLInputElement).value)}
+        /></label>
+        <label
+          >Reason for going ahead despite failing checks (recorded with your name and time)
+          <textarea
+            data-testid="override-reason"
+            .value=${this.reason}
+            @input=${(e: Event) => (this.reason = (e.target as HTMLTextAreaElement).value)}
+          ></textarea>
+        </label>
+        <div class="row">
+          <button @click=${this.signOff}>Mark ready</button>
+          ${this.signError ? html`<span class="field-error" role="alert">${this.signError}</span>` : ''}
+        </div>
+      </div>
+      <h3>Settings (match local rules)</h3>
+      ${n('safety.ceiling_m', 'Release ceiling above ground', '', '120 m')}
+      ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', '', '10 m')}
+      ${n('safety.hazardBuffer_m', 'Margin around the hazard area', '', '20 m')}
+      ${n('safety.thrustMargin_pct', 'Control time kept in reserve', '%', '20', 'plain')}
+      ${this.renderZones()}
+    `;
+  }
+}
