@@ -2,6 +2,7 @@
  * Headless Seedfall: plan file in, results out.
  *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
  *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
+ *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>]
  * Exit codes: 0 done, 1 usage or file error, 2 invalid plan.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
@@ -12,17 +13,22 @@ import {
   formatPlanText,
   planDrop,
   planSafety,
+  toGeoJSON,
+  toGPX,
+  toKML,
+  toScheduleCSV,
   validatePlan,
   type Plan,
   type PlanResult,
 } from './core/index';
 
-type Command = 'plan' | 'brief';
+type Command = 'plan' | 'brief' | 'export';
+type Format = 'json' | 'text' | 'geojson' | 'kml' | 'gpx' | 'csv';
 
 interface Args {
   command: Command;
   file?: string;
-  format: 'json' | 'text';
+  format: Format;
   samples?: number;
   seed?: number;
   out?: string;
@@ -33,11 +39,19 @@ interface Args {
 const USAGE = `usage:
   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
+  npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>]
 `;
 
 const OPTIONS: Record<Command, string[]> = {
   plan: ['--format', '--samples', '--seed'],
   brief: ['--out', '--pdf', '--paper', '--samples', '--seed'],
+  export: ['--format', '--out', '--samples', '--seed'],
+};
+
+const FORMATS: Record<Command, Format[]> = {
+  plan: ['json', 'text'],
+  brief: [],
+  export: ['geojson', 'kml', 'gpx', 'csv'],
 };
 
 function fail(message: string, code: number): never {
@@ -46,9 +60,9 @@ function fail(message: string, code: number): never {
 }
 
 function parseArgs(argv: string[]): Args {
-  const commands: Command[] = ['plan', 'brief'];
+  const commands: Command[] = ['plan', 'brief', 'export'];
   const command = commands.includes(argv[0] as Command) ? (argv.shift() as Command) : 'plan';
-  const args: Args = { command, format: 'text', paper: 'A4' };
+  const args: Args = { command, format: command === 'export' ? 'geojson' : 'text', paper: 'A4' };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     const value = (): string => {
@@ -64,8 +78,10 @@ function parseArgs(argv: string[]): Args {
       fail(`unknown option ${a} for ${command} (known: ${OPTIONS[command].join(', ')})`, 1);
     }
     if (a === '--format') {
-      const f = value();
-      if (f !== 'json' && f !== 'text') fail(`--format must be json or text (got "${f}")`, 1);
+      const f = value() as Format;
+      if (!FORMATS[command].includes(f)) {
+        fail(`--format must be ${FORMATS[command].join(', ')} (got "${f}")`, 1);
+      }
       args.format = f;
     } else if (a === '--samples' || a === '--seed') {
       const n = Number(value());
@@ -148,6 +164,21 @@ async function main(): Promise<void> {
     } else {
       process.stdout.write(formatPlanText(plan, result));
     }
+    return;
+  }
+
+  if (args.command === 'export') {
+    const safety = planSafety(plan, result);
+    const text =
+      args.format === 'geojson'
+        ? `${JSON.stringify(toGeoJSON(plan, result, { hazardArea: safety.hazardArea }), null, 1)}\n`
+        : args.format === 'kml'
+          ? toKML(plan, result)
+          : args.format === 'gpx'
+            ? toGPX(plan, result)
+            : toScheduleCSV(plan, result);
+    if (args.out) write(args.out, text);
+    else process.stdout.write(text);
     return;
   }
 

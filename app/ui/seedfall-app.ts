@@ -2,6 +2,7 @@ import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import demo from '../../data/demo-plan.json';
 import { briefHtml } from '../core/brief-html';
+import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../core/export-formats';
 import { briefSafety } from '../core/plan-safety';
 import { CAUTION_TEXT } from '../core/caution';
 import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from '../core/units';
@@ -27,6 +28,24 @@ const TABS: [Tab, string][] = [
   ['variants', 'Variants'],
   ['settings', 'Units & map'],
 ];
+
+/** A file name from a plan name: letters, digits, dots and dashes only. */
+function fileBase(name: unknown): string {
+  return (
+    String(name ?? 'plan')
+      .replace(/[^\w.-]+/g, '-')
+      .replace(/^-+|-+$/g, '') || 'plan'
+  );
+}
+
+/** Hands text to the browser as a file download. */
+function download(text: string, type: string, name: string): void {
+  const a = document.createElement('a');
+  a.href = URL.createObjectURL(new Blob([text], { type }));
+  a.download = name;
+  a.click();
+  setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+}
 
 /** The application shell: toolbar, map, side panels, status line and the standing caution. */
 @customElement('seedfall-app')
@@ -129,6 +148,13 @@ export class SeedfallApp extends LitElement {
       progress {
         width: 120px;
       }
+      .exports {
+        display: flex;
+        gap: 6px;
+        flex-wrap: wrap;
+        align-items: center;
+        margin: 10px 0;
+      }
       .settings label {
         display: grid;
         grid-template-columns: 1fr 14em;
@@ -223,23 +249,13 @@ export class SeedfallApp extends LitElement {
   }
 
   private save(): void {
-    const name =
-      String(this.store.get('name') ?? 'plan')
-        .replace(/[^\w.-]+/g, '-')
-        .replace(/^-+|-+$/g, '') || 'plan';
-    const blob = new Blob([`${JSON.stringify(this.store.draft, null, 2)}\n`], {
-      type: 'application/json',
-    });
-    const a = document.createElement('a');
-    a.href = URL.createObjectURL(blob);
-    a.download = `${name}.json`;
-    a.click();
-    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    const name = `${fileBase(this.store.get('name'))}.json`;
+    download(`${JSON.stringify(this.store.draft, null, 2)}\n`, 'application/json', name);
     this.store.setNotice(
       this.store.valid ? 'info' : 'error',
       this.store.valid
-        ? `Saved ${a.download}.`
-        : `Saved ${a.download} — it still has problems to fix before it can be planned.`,
+        ? `Saved ${name}.`
+        : `Saved ${name} — it still has problems to fix before it can be planned.`,
     );
   }
 
@@ -259,6 +275,31 @@ export class SeedfallApp extends LitElement {
     const w = window.open(url, '_blank');
     if (!w) s.setNotice('error', 'The brief could not open: allow pop-ups for this page.');
     setTimeout(() => URL.revokeObjectURL(url), 60_000);
+  }
+
+  /** Downloads one of the exchange formats of the current result. */
+  private exportAs(kind: 'geojson' | 'kml' | 'gpx' | 'csv' | 'sites'): void {
+    const s = this.store;
+    if (!s.plan || !s.result) {
+      s.setNotice('error', 'No planning result yet to export.');
+      return;
+    }
+    const base = fileBase(s.plan.name);
+    const hazard = s.safety?.hazardArea;
+    const out: Record<typeof kind, [string, string, string]> = {
+      geojson: [
+        JSON.stringify(toGeoJSON(s.plan, s.result, hazard ? { hazardArea: hazard } : {}), null, 1),
+        'application/geo+json',
+        `${base}.geojson`,
+      ],
+      kml: [toKML(s.plan, s.result), 'application/vnd.google-earth.kml+xml', `${base}.kml`],
+      gpx: [toGPX(s.plan, s.result), 'application/gpx+xml', `${base}.gpx`],
+      csv: [toScheduleCSV(s.plan, s.result), 'text/csv', `${base}-schedule.csv`],
+      sites: [toSitesCSV(s.plan), 'text/csv', `${base}-sites.csv`],
+    };
+    const [text, type, name] = out[kind];
+    download(text, type, name);
+    s.setNotice('info', `Exported ${name}.`);
   }
 
   private setUnits(patch: Partial<UnitPrefs>): void {
@@ -345,6 +386,14 @@ export class SeedfallApp extends LitElement {
               : ''
           }
           <sf-results-table .store=${s}></sf-results-table>
+          <div class="exports" role="group" aria-label="Export">
+            <span class="muted">Export:</span>
+            <button @click=${() => this.exportAs('geojson')}>GeoJSON</button>
+            <button @click=${() => this.exportAs('kml')}>KML</button>
+            <button @click=${() => this.exportAs('gpx')}>GPX</button>
+            <button @click=${() => this.exportAs('csv')}>Schedule CSV</button>
+            <button @click=${() => this.exportAs('sites')}>Sites CSV</button>
+          </div>
           ${s.result?.warnings.map((w) => html`<p class="notice-error">${w}</p>`)}
           ${
             s.result

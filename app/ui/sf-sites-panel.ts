@@ -1,5 +1,6 @@
 import { LitElement, css, html } from 'lit';
-import { customElement, property } from 'lit/decorators.js';
+import { customElement, property, state } from 'lit/decorators.js';
+import { importSites } from '../core/import-sites';
 import type { Site, Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -46,10 +47,14 @@ export class SfSitesPanel extends LitElement {
       .scroll {
         overflow-x: auto;
       }
+      .problems li {
+        color: var(--sf-bad);
+      }
     `,
   ];
 
   @property({ attribute: false }) store?: PlanStore;
+  @state() private problems: string[] = [];
 
   constructor() {
     super();
@@ -70,6 +75,27 @@ export class SfSitesPanel extends LitElement {
     // A new site starts 100 m east of the release point; drag it or type its position.
     const dLon = 100 / (111320 * Math.cos((lat * Math.PI) / 180) || 1);
     s.edit('sites', [...sites, { id: nextSiteId(sites), lat, lon: +(lon + dLon).toFixed(6) }]);
+  }
+
+  /** Adds the sites of a CSV, GeoJSON or KML file; bad rows are listed, good ones kept. */
+  private async importFile(e: Event): Promise<void> {
+    const s = this.store;
+    const input = e.target as HTMLInputElement;
+    const file = input.files?.[0];
+    input.value = '';
+    if (!s || !file) return;
+    const sites = this.sites();
+    const variants = ((s.get('variants') as Variant[] | undefined) ?? []).map((v) => String(v.id));
+    const r = importSites(await file.text(), 'auto', {
+      existingIds: sites.map((x) => String(x.id)),
+      variantIds: variants,
+    });
+    this.problems = r.problems.map((p) => p.message);
+    if (r.sites.length) s.edit('sites', [...sites, ...r.sites]);
+    s.setNotice(
+      r.problems.length ? 'error' : 'info',
+      `${file.name}: ${r.sites.length} site(s) added${r.problems.length ? `, ${r.problems.length} problem(s) listed under Sites` : ''}.`,
+    );
   }
 
   private removeAt(i: number): void {
@@ -202,6 +228,28 @@ export class SfSitesPanel extends LitElement {
         <button @click=${this.add}>Add site</button>
         <span class="muted">or switch on “Add sites by clicking” above the map.</span>
       </div>
+      <div class="row-actions">
+        <label
+          >Import sites (CSV with lat/lon, UTM or MGRS columns; GeoJSON points; KML placemarks)
+          <input
+            type="file"
+            accept=".csv,.txt,.json,.geojson,.kml"
+            data-testid="import-sites"
+            @change=${this.importFile}
+          />
+        </label>
+      </div>
+      ${
+        this.problems.length
+          ? html`<div class="problems" role="alert">
+              <h3>Rows not imported (${this.problems.length})</h3>
+              <ul>
+                ${this.problems.map((p) => html`<li>${p}</li>`)}
+              </ul>
+              <button @click=${() => (this.problems = [])}>Dismiss</button>
+            </div>`
+          : ''
+      }
     `;
   }
 }

@@ -292,3 +292,38 @@ describe('the map planner in Chromium', () => {
     expect(errors).toEqual([]);
   });
 });
+
+describe('exchange formats in the app', () => {
+  it('imports a messy sites CSV, keeping good rows and listing bad ones by line', async () => {
+    await open();
+    await page.locator('[data-tab=sites]').click();
+    const dir = mkdtempSync(join(tmpdir(), 'seedfall-sites-'));
+    const csv = join(dir, 'field-sheet.csv');
+    // Semicolon-separated with decimal commas, a BOM, a quoted name and one bad latitude.
+    writeFileSync(
+      csv,
+      '\ufeffid;name;lat;lon\r\nn1;"Reed bed; north";47,49310;21,08020\r\nn2;Bad row;95,2;21,081\r\n\r\nn3;Levee foot;47,49250;21,08300\r\n',
+    );
+    await page.locator('input[data-testid=import-sites]').setInputFiles(csv);
+    await expect.poll(() => count('.sf-site')).toBe(14);
+    await expect(page.locator('sf-sites-panel .problems').innerText()).resolves.toMatch(/line 3/);
+    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toContain(
+      '2 site(s) added',
+    );
+    expect(errors).toEqual([]);
+  });
+
+  it('exports GeoJSON that holds every site and the hazard area', async () => {
+    await open();
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'GeoJSON' }).click(),
+    ]);
+    const fc = JSON.parse(readFileSync(await download.path(), 'utf8'));
+    expect(fc.type).toBe('FeatureCollection');
+    const kinds = fc.features.map((f: { properties: { kind: string } }) => f.properties.kind);
+    expect(kinds.filter((k: string) => k === 'site').length).toBe(12);
+    expect(kinds).toContain('hazard');
+    expect(download.suggestedFilename()).toMatch(/\.geojson$/);
+  });
+});
