@@ -13,6 +13,8 @@ export interface FallTableInput {
   /** Altitude lost after release before steering can start, m. */
   entryLoss_m: number;
   isaOffset_K: number;
+  /** Air density (kg/m³) at altitude m MSL; default the ISA with isaOffset_K. */
+  density?: (z_m: number) => number;
   wind: WindProfile;
   /** Largest integration cell, m (default 1). */
   cell_m?: number;
@@ -73,8 +75,8 @@ export class FallTable {
     this.top_m = top_m;
     this.bottom_m = bottom_m;
     this.entryEnd_m = Math.max(bottom_m, top_m - Math.max(0, input.entryLoss_m));
-    const rate = (z: number): number =>
-      input.descentRateSL_mps * Math.sqrt(RHO0 / densityAt(z, input.isaOffset_K));
+    const density = input.density ?? ((z: number) => densityAt(z, input.isaOffset_K));
+    const rate = (z: number): number => input.descentRateSL_mps * Math.sqrt(RHO0 / density(z));
     this.wTop_mps = rate(top_m);
 
     // Band boundaries: entry region and control region each split evenly.

@@ -172,3 +172,15 @@ export {
   safetySettingsOf,
   type PlanSafety,
 } from './plan-safety';
+// Wind hodograph and release-altitude sweep (SVG strings for the brief and the UI).
+export {
+  altitudeSweep,
+  hodographSvg,
+  hodographTrace,
+  sweepSvg,
+  type HodographOptions,
+  type HodographPoint,
+  type HodographTrace,
+  type SweepPoint,
+  type SweepSvgOptions,
+} from './wind-plots';

@@ -80,7 +80,10 @@ export function resolvePlan(file: PlanFile, opts: { now?: Date } = {}): Plan {
     name: file.name ?? DEFAULTS.name,
     time: file.time ?? (opts.now ?? new Date()).toISOString(),
     groundElevation_m,
-    atmosphere: { isaOffset_K: file.atmosphere?.isaOffset_K ?? DEFAULTS.atmosphere.isaOffset_K },
+    atmosphere: {
+      isaOffset_K: file.atmosphere?.isaOffset_K ?? DEFAULTS.atmosphere.isaOffset_K,
+      ...(file.atmosphere?.sounding ? { sounding: structuredClone(file.atmosphere.sounding) } : {}),
+    },
     winds: {
       reference: file.winds?.reference ?? DEFAULTS.winds.reference,
       layers,

@@ -65,6 +65,13 @@ export interface Uncertainty {
   releaseTiming_s: number;
 }
 
+/** Temperatures aloft; density then comes from them (hydrostatic) instead of the ISA offset. */
+export interface Sounding {
+  reference?: AltitudeReference;
+  surfacePressure_hPa?: number;
+  levels: { altitude_m: number; temperature_K: number }[];
+}
+
 /** A no-drop zone: GeoJSON Feature with a Polygon geometry ([lon, lat]). */
 export interface NoDropZone {
   type: 'Feature';
@@ -99,7 +106,7 @@ export interface PlanFile {
   /** Planned release time, ISO 8601 with zone. */
   time?: string;
   groundElevation_m?: number;
-  atmosphere?: { isaOffset_K?: number };
+  atmosphere?: { isaOffset_K?: number; sounding?: Sounding };
   winds?: { reference?: AltitudeReference; layers?: WindLayer[]; surfaceExponent?: number };
   release: { lat: number; lon: number; altitude_m: number; reference?: AltitudeReference };
   carrier?: { groundSpeed_mps?: number; trackDeg?: number };
@@ -118,7 +125,7 @@ export interface Plan {
   name: string;
   time: string;
   groundElevation_m: number;
-  atmosphere: { isaOffset_K: number };
+  atmosphere: { isaOffset_K: number; sounding?: Sounding };
   winds: { reference: AltitudeReference; layers: WindLayer[]; surfaceExponent: number };
   release: { lat: number; lon: number; altitude_m: number; reference: AltitudeReference };
   carrier: { groundSpeed_mps: number; trackDeg: number };

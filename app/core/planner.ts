@@ -14,6 +14,7 @@ import { LocalFrame, type LatLon } from './geodesy';
 import type { Plan, ResolvedSite, ResolvedVariant } from './plan';
 import { bestShift, bisectEdge, hitProfile, runAround } from './release-window';
 import { Rng, streamSeed } from './rng';
+import { SoundingAtmosphere } from './sounding-atmosphere';
 import { WindProfile } from './wind';
 
 const DEG = Math.PI / 180;
@@ -95,6 +96,8 @@ interface Context {
   speed: number;
   declination: number | null;
   probeN: number;
+  /** Density from the plan's sounding, when it has one. */
+  density?: (z_m: number) => number;
 }
 
 function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetup {
@@ -106,6 +109,7 @@ function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetu
     descentRateSL_mps: v.descentRate_mps * massFactor,
     entryLoss_m: v.entryLoss_m,
     isaOffset_K: ctx.plan.atmosphere.isaOffset_K,
+    density: ctx.density,
     wind: ctx.wind,
   });
   const w = ctx.wind.at(ctx.top_m);
@@ -290,6 +294,19 @@ function evaluate(
   return result;
 }
 
+/** Density (kg/m³ at m MSL) from the plan's sounding (docs/model.md §1), or undefined for the ISA. */
+function soundingDensity(plan: Plan): ((z_m: number) => number) | undefined {
+  const snd = plan.atmosphere.sounding;
+  if (!snd || snd.levels.length === 0) return undefined;
+  const atm = new SoundingAtmosphere(snd.levels, {
+    reference: snd.reference ?? 'MSL',
+    groundElevation_m: plan.groundElevation_m,
+    surfacePressure_Pa:
+      snd.surfacePressure_hPa === undefined ? undefined : snd.surfacePressure_hPa * 100,
+  });
+  return (z) => atm.densityAt(z);
+}
+
 /** Plans every site with every variant and picks one per site (docs/model.md §10). */
 export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   const warnings: string[] = [];
@@ -318,6 +335,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     speed: plan.carrier.groundSpeed_mps,
     declination,
     probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 256)),
+    density: soundingDensity(plan),
   };
   const sites = plan.sites.map((s, si): SiteResult => {
     const all = plan.variants.map((v, vi) => evaluate(ctx, v, vi, s, si));

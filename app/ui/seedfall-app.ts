@@ -17,6 +17,7 @@ import './sf-safety-panel';
 import './sf-sites-panel';
 import './sf-variants-panel';
 import './sf-wind-panel';
+import './sf-wind-sources';
 
 type Tab = 'results' | 'safety' | 'plan' | 'winds' | 'sites' | 'variants' | 'settings';
 const TABS: [Tab, string][] = [
@@ -413,7 +414,8 @@ export class SeedfallApp extends LitElement {
       case 'plan':
         return html`<sf-plan-panel .store=${s}></sf-plan-panel>`;
       case 'winds':
-        return html`<sf-wind-panel .store=${s}></sf-wind-panel>`;
+        return html`<sf-wind-panel .store=${s}></sf-wind-panel>
+          <sf-wind-sources .store=${s}></sf-wind-sources>`;
       case 'sites':
         return html`<sf-sites-panel .store=${s}></sf-sites-panel>`;
       case 'variants':

@@ -5,7 +5,15 @@ let server: PreviewServer | undefined;
 
 /** Builds the app once and serves it on a free localhost port for every browser test. */
 export async function setup(project: TestProject): Promise<void> {
-  await build({ logLevel: 'warn' });
+  // Vitest sets NODE_ENV=test, which would make vite pick the packages' development builds; the
+  // browser tests must drive the production bundle a user gets from `npm start`.
+  const env = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({ logLevel: 'warn', mode: 'production' });
+  } finally {
+    process.env.NODE_ENV = env;
+  }
   server = await preview({
     preview: { port: 0, host: '127.0.0.1', open: false },
     logLevel: 'warn',
