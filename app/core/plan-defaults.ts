@@ -88,6 +88,7 @@ export function resolvePlan(file: PlanFile, opts: { now?: Date } = {}): Plan {
       reference: file.winds?.reference ?? DEFAULTS.winds.reference,
       layers,
       surfaceExponent: file.winds?.surfaceExponent ?? DEFAULTS.winds.surfaceExponent,
+      ...(file.winds?.forecasts ? { forecasts: structuredClone(file.winds.forecasts) } : {}),
     },
     release: {
       lat: file.release.lat,

@@ -15,6 +15,14 @@ export interface WindLayer {
   speed_mps: number;
 }
 
+/** A wind profile valid at a time (ISO 8601). */
+export interface TimedWinds {
+  time: string;
+  /** Reference of these layers' altitudes (default: winds.reference). */
+  reference?: AltitudeReference;
+  layers: WindLayer[];
+}
+
 export interface Variant {
   id: string;
   name?: string;
@@ -107,7 +115,13 @@ export interface PlanFile {
   time?: string;
   groundElevation_m?: number;
   atmosphere?: { isaOffset_K?: number; sounding?: Sounding };
-  winds?: { reference?: AltitudeReference; layers?: WindLayer[]; surfaceExponent?: number };
+  winds?: {
+    reference?: AltitudeReference;
+    layers?: WindLayer[];
+    surfaceExponent?: number;
+    /** Further profiles with valid times for the release-time timeline. */
+    forecasts?: TimedWinds[];
+  };
   release: { lat: number; lon: number; altitude_m: number; reference?: AltitudeReference };
   carrier?: { groundSpeed_mps?: number; trackDeg?: number };
   variants: Variant[];
@@ -126,7 +140,12 @@ export interface Plan {
   time: string;
   groundElevation_m: number;
   atmosphere: { isaOffset_K: number; sounding?: Sounding };
-  winds: { reference: AltitudeReference; layers: WindLayer[]; surfaceExponent: number };
+  winds: {
+    reference: AltitudeReference;
+    layers: WindLayer[];
+    surfaceExponent: number;
+    forecasts?: TimedWinds[];
+  };
   release: { lat: number; lon: number; altitude_m: number; reference: AltitudeReference };
   carrier: { groundSpeed_mps: number; trackDeg: number };
   variants: ResolvedVariant[];

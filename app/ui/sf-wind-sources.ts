@@ -2,8 +2,10 @@ import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
 import { windPlotSvg } from '../core/brief-svg';
+import type { TimelineEntry } from '../core/forecast-series';
+import { timelineSvg } from '../core/timeline-svg';
 import { hodographSvg, sweepSvg, type SweepPoint } from '../core/wind-plots';
-import type { SweepReply } from '../worker/sweep-worker';
+import type { SweepReply, SweepRequest } from '../worker/sweep-worker';
 import type { WindLayer } from '../core/plan';
 import { importSounding } from '../core/sounding-csv';
 import {
@@ -74,6 +76,8 @@ export class SfWindSources extends LitElement {
   @state() private sweepVariant = '';
   @state() private sweep: { key: string; points: SweepPoint[] } | null = null;
   @state() private sweeping = false;
+  @state() private timeline: TimelineEntry[] | null = null;
+  @state() private forecastTime = '';
   private sweepWorker?: Worker;
   private sweepId = 0;
 
@@ -204,6 +208,24 @@ export class SfWindSources extends LitElement {
     if (!site || !variant) return;
     const agl = r.releaseAltitudeMSL_m - plan.groundElevation_m;
     const altitudes = [0.4, 0.55, 0.7, 0.85, 1, 1.2, 1.4, 1.7, 2].map((k) => Math.round(agl * k));
+    const key = `${site} · ${variant}`;
+    this.ask(
+      {
+        id: 0,
+        kind: 'altitude',
+        plan,
+        siteId: site,
+        variantId: variant,
+        altitudesAGL_m: altitudes,
+      },
+      (reply) => {
+        if ('points' in reply) this.sweep = { key, points: reply.points };
+      },
+    );
+  }
+
+  /** Sends one request to the sweep worker; only the latest request's answer is kept. */
+  private ask(req: SweepRequest, done: (reply: SweepReply) => void): void {
     this.sweepWorker ??= new Worker(new URL('../worker/sweep-worker.ts', import.meta.url), {
       type: 'module',
     });
@@ -213,15 +235,41 @@ export class SfWindSources extends LitElement {
       if (ev.data.id !== this.sweepId) return;
       this.sweeping = false;
       if ('error' in ev.data) this.problems = [ev.data.error];
-      else this.sweep = { key: `${site} · ${variant}`, points: ev.data.points };
+      else done(ev.data);
     };
-    this.sweepWorker.postMessage({
-      id,
-      plan,
-      siteId: site,
-      variantId: variant,
-      altitudesAGL_m: altitudes,
+    this.sweepWorker.postMessage({ ...req, id });
+  }
+
+  /** P(hit) per site over the forecast span (the plan's winds at the plan time plus forecasts). */
+  private runTimeline(): void {
+    const plan = this.store?.plan;
+    if (!plan) return;
+    this.ask({ id: 0, kind: 'timeline', plan, step_s: 900 }, (reply) => {
+      if ('timeline' in reply) this.timeline = reply.timeline;
     });
+  }
+
+  /** Stores the current layers as a forecast valid at the time typed (ISO 8601). */
+  private addForecast(): void {
+    const s = this.store!;
+    const time = this.forecastTime.trim();
+    if (!Number.isFinite(Date.parse(time)) || !/T\d\d:\d\d/.test(time)) {
+      this.problems = [
+        `forecast time "${time}" must be an ISO 8601 date and time, e.g. 2026-12-01T12:00:00Z`,
+      ];
+      return;
+    }
+    const layers = structuredClone((s.get('winds.layers') as WindLayer[] | undefined) ?? []);
+    const list = (
+      (s.get('winds.forecasts') as { time: string; layers: WindLayer[] }[] | undefined) ?? []
+    ).filter((f) => f.time !== time);
+    this.problems = [];
+    s.edit(
+      'winds.forecasts',
+      [...list, { time, reference: String(s.get('winds.reference') ?? 'AGL'), layers }].sort(
+        (a, b) => Date.parse(a.time) - Date.parse(b.time),
+      ),
+    );
   }
 
   private renderPlots() {
@@ -281,6 +329,54 @@ export class SfWindSources extends LitElement {
       <section>
         <h3>Wind profile</h3>
         ${this.renderPlots()}
+      </section>
+      <section>
+        <h3>Forecast times and release-time timeline</h3>
+        <p class="muted">
+          The layers above hold at the plan time. Store them as a forecast valid at another time,
+          then load the next forecast hour into the table and store it too; the timeline shows, per
+          site, the clock times at which a release meets the required P(hit).
+        </p>
+        <ul>
+          ${(
+            (s.get('winds.forecasts') as { time: string; layers: unknown[] }[] | undefined) ?? []
+          ).map(
+            (f, i) =>
+              html`<li data-forecast=${i}>
+                ${f.time} · ${f.layers.length} layer(s)
+                <button
+                  aria-label=${`Delete forecast ${f.time}`}
+                  @click=${() =>
+                    s.edit(
+                      'winds.forecasts',
+                      ((s.get('winds.forecasts') as unknown[]) ?? []).filter((_, j) => j !== i),
+                    )}
+                >
+                  ✕
+                </button>
+              </li>`,
+          )}
+        </ul>
+        <div class="row">
+          <label
+            >Valid at
+            <input
+              data-testid="forecast-time"
+              style="width:15em"
+              placeholder="2026-12-01T12:00:00Z"
+              .value=${this.forecastTime}
+              @input=${(e: Event) => (this.forecastTime = (e.target as HTMLInputElement).value)}
+          /></label>
+          <button @click=${this.addForecast}>Store current layers as forecast</button>
+          <button ?disabled=${this.sweeping} @click=${this.runTimeline}>Timeline</button>
+        </div>
+        ${
+          this.timeline && s.plan
+            ? html`<div class="plot" data-testid="timeline">
+                ${unsafeSVG(timelineSvg(this.timeline, s.plan.requiredPHit))}
+              </div>`
+            : ''
+        }
       </section>
       <section>
         <h3>Sounding or profile file (CSV)</h3>

@@ -56,6 +56,14 @@ describe('wind inputs in Chromium', () => {
     expect(await page.locator('[data-testid=sweep] svg circle').count()).toBeGreaterThanOrEqual(9);
     await page.locator('[data-testid=sweep]').scrollIntoViewIfNeeded();
     await shot(page, 'winds-sweep');
+    // The demo plan holds a second forecast 3.5 h later: the timeline covers both, per site.
+    await page.getByRole('button', { name: 'Timeline' }).click();
+    await page.locator('[data-testid=timeline] svg').waitFor({ timeout: 60_000 });
+    const cells = await page.locator('[data-testid=timeline] svg rect').count();
+    expect(cells).toBeGreaterThanOrEqual(12 * 10);
+    expect(await page.locator('[data-testid=timeline] svg rect.ok').count()).toBeGreaterThan(0);
+    await page.locator('[data-testid=timeline]').scrollIntoViewIfNeeded();
+    await shot(page, 'winds-timeline');
     // One undo brings the previous profile back.
     await page.getByRole('button', { name: 'Undo' }).click();
     await expect.poll(() => page.locator('sf-wind-panel tr[data-layer]').count()).toBe(6);

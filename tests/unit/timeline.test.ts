@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import type { TimelineEntry } from '../../app/core/forecast-series';
+import { timelineSvg } from '../../app/core/timeline-svg';
+
+const entry = (time: string, a: number, b: number): TimelineEntry => ({
+  time,
+  sites: [
+    {
+      id: 'a',
+      pHit: a,
+      variant: 'v',
+      meetsRequired: a >= 0.9,
+      byVariant: [{ variant: 'v', pHit: a }],
+    },
+    {
+      id: 'b<x>',
+      pHit: b,
+      variant: 'v',
+      meetsRequired: b >= 0.9,
+      byVariant: [{ variant: 'v', pHit: b }],
+    },
+  ],
+});
+
+describe('the release-time timeline plot', () => {
+  const tl = [
+    entry('2026-12-01T08:00:00Z', 0.95, 0.2),
+    entry('2026-12-01T08:15:00Z', 0.91, 0.5),
+    entry('2026-12-01T08:30:00Z', 0.4, 0.92),
+  ];
+  const svg = timelineSvg(tl, 0.9);
+
+  it('draws one cell per site and time, green exactly where P(hit) meets the requirement', () => {
+    expect(svg.match(/<rect class="(ok|no)"/g)?.length).toBe(6);
+    // a: 0.95, 0.91 ok, 0.40 not; b: 0.20, 0.50 not, 0.92 ok (threshold 0.9, common practice ≥).
+    expect(svg.match(/<rect class="ok" data-site="a"/g)?.length).toBe(2);
+    expect(svg.match(/<rect class="ok" data-site="b&lt;x&gt;"/g)?.length).toBe(1);
+  });
+
+  it('cells tile the span without gaps or overlaps along each row', () => {
+    const xs = [...svg.matchAll(/data-site="a" x="([\d.]+)" y="[\d.]+" width="([\d.]+)"/g)].map(
+      (m) => [Number(m[1]), Number(m[2])],
+    );
+    for (let i = 1; i < xs.length; i++)
+      expect(xs[i][0]).toBeCloseTo(xs[i - 1][0] + xs[i - 1][1], 0);
+  });
+
+  it('escapes site ids and says when there is nothing to draw', () => {
+    expect(svg).not.toContain('b<x>');
+    expect(timelineSvg([tl[0]], 0.9)).toContain('at least two forecast times');
+  });
+});
