@@ -5,6 +5,7 @@
 import { airAt } from './atmosphere';
 import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
+import { SoundingAtmosphere } from './sounding-atmosphere';
 import { M_PER_FT, MPS_PER_KT } from './constants';
 import { formatDMS, formatUTM, toMGRS } from './coords';
 import { WMM_VALIDITY } from './declination';
@@ -229,6 +230,24 @@ tr { break-inside: avoid; }
 footer { margin-top: 6mm; font-size: 8.5pt; color: #444; }
 `;
 
+/** The atmosphere used: the sounding's hydrostatic air when the plan has one, else the ISA offset. */
+function atmosphereText(plan: Plan, msl: number): string {
+  const snd = plan.atmosphere.sounding;
+  if (snd && snd.levels.length) {
+    const atm = new SoundingAtmosphere(snd.levels, {
+      reference: snd.reference ?? 'MSL',
+      groundElevation_m: plan.groundElevation_m,
+      surfacePressure_Pa:
+        snd.surfacePressure_hPa === undefined ? undefined : snd.surfacePressure_hPa * 100,
+    });
+    const a = atm.airAt(msl);
+    return `<p>From a sounding of ${snd.levels.length} temperature level(s). At release: ${f(a.temperature_K - 273.15)} °C, ${f(a.pressure_Pa / 100)} hPa, density ${f(a.density_kgm3, 3)} kg/m³.</p>`;
+  }
+  const air = airAt(msl, plan.atmosphere.isaOffset_K);
+  const off = plan.atmosphere.isaOffset_K;
+  return `<p>ISA ${off >= 0 ? '+' : '−'}${f(Math.abs(off))} K. At release: ${f(air.temperature_K - 273.15)} °C, ${f(air.pressure_Pa / 100)} hPa, density ${f(air.density_kgm3, 3)} kg/m³.</p>`;
+}
+
 /** The complete brief as an HTML document. */
 export function briefHtml(plan: Plan, result: PlanResult, opts: BriefOptions = {}): string {
   const paper = opts.paper ?? 'A4';
@@ -236,7 +255,6 @@ export function briefHtml(plan: Plan, result: PlanResult, opts: BriefOptions = {
   const rp = result.releasePoint;
   const msl = result.releaseAltitudeMSL_m;
   const agl = msl - plan.groundElevation_m;
-  const air = airAt(msl, plan.atmosphere.isaOffset_K);
   const moving = result.track.groundSpeed_mps > 0;
   const made = (opts.generatedAt ?? new Date()).toISOString().slice(0, 16).replace('T', ' ');
   const u = plan.uncertainty;
@@ -268,7 +286,7 @@ ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 </section>
 <section class="two"><div><h2>Winds</h2><table><thead><tr><th>Altitude m</th><th>From</th><th>m/s</th><th>kt</th></tr></thead><tbody>${windRows(plan)}</tbody></table>
 <p class="small">Below the lowest layer the speed follows a power law with α = ${f(plan.winds.surfaceExponent, 3)}. Wind error σ ${f(u.windSpeed_mps)} m/s per component, correlated over ${f(u.windCorrelation_m, 0)} m.</p></div>
-<div><h2>Atmosphere</h2><p>ISA ${plan.atmosphere.isaOffset_K >= 0 ? '+' : '−'}${f(Math.abs(plan.atmosphere.isaOffset_K))} K. At release: ${f(air.temperature_K - 273.15)} °C, ${f(air.pressure_Pa / 100)} hPa, density ${f(air.density_kgm3, 3)} kg/m³.</p>
+<div><h2>Atmosphere</h2>${atmosphereText(plan, msl)}
 <h2>Uncertainty (1σ)</h2><p>Descent rate ${f(u.descentRate_pct)} %, release position ${f(u.releasePosition_m)} m, heading ${f(u.heading_deg)}°, release timing ${f(u.releaseTiming_s)} s.</p></div></section>
 <section class="figure"><h3>Wind profile</h3>${windPlotSvg(plan, result)}</section>
 ${safetySection(opts.safety)}

@@ -294,7 +294,7 @@ function evaluate(
   return result;
 }
 
-/** Density (kg/m³ at m MSL) from the plan's sounding (docs/model.md §1), or undefined for the ISA. */
+/** Density (kg/m³ at m MSL) from the plan's sounding (docs/model.md §11), or undefined for the ISA. */
 function soundingDensity(plan: Plan): ((z_m: number) => number) | undefined {
   const snd = plan.atmosphere.sounding;
   if (!snd || snd.levels.length === 0) return undefined;

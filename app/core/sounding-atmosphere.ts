@@ -1,6 +1,6 @@
 /**
  * Air density from a measured or forecast temperature profile by hydrostatic integration
- * (docs/model.md §1): dp/dH = −g0·p/(R·T) in geopotential altitude H (USSA 1976 eq. 18 converts
+ * (docs/model.md §11): dp/dH = −g0·p/(R·T) in geopotential altitude H (USSA 1976 eq. 18 converts
  * from geometric), temperature piecewise linear in H between the sounding's levels, so each layer
  * has a closed form: lapse L ≠ 0 → p2 = p1·(T2/T1)^(−g0/(R·L)); L = 0 → p2 = p1·exp(−g0·ΔH/(R·T1)).
  * ρ = p/(R·T). Below the lowest level the temperature follows the USSA 1976 lapse rate; above the

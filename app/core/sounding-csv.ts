@@ -137,7 +137,7 @@ function numberCell(cell: string | undefined, decimalComma: boolean): number | u
 }
 
 const LIMITS: Record<Kind, [number, number, string]> = {
-  altitude: [-500, 50000, 'm'],
+  altitude: [-500, 20000, 'm'], // what a plan's wind layers can hold
   direction: [0, 360, '°'],
   speed: [0, 150, 'm/s'],
   temperature: [150, 350, 'K'],

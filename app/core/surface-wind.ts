@@ -1,6 +1,6 @@
 /**
  * Wind near the ground from one surface reading (an anemometer at a known height), extended up to
- * the lowest forecast layer by the log law or the power law (docs/model.md §2), and merged under a
+ * the lowest forecast layer by the log law or the power law (docs/model.md §12), and merged under a
  * forecast profile. Direction is held constant with height: turning of the wind near the ground
  * (Ekman spiral) is not modelled.
  */

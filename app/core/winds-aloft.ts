@@ -1,7 +1,7 @@
 /**
  * Decoder of the US National Weather Service winds-aloft text forecast ("FB"), an open format:
  * a header line listing levels in feet MSL ("FT  3000    6000 …") and one line per station with
- * a DDff±TT group under each level (docs/model.md §2). Never throws: what cannot be read is
+ * a DDff±TT group under each level (docs/model.md §13). Never throws: what cannot be read is
  * reported in `problems` with its line and reason, and everything else is kept.
  */
 import { M_PER_FT, MPS_PER_KT } from './constants';

@@ -62,7 +62,11 @@ describe('data files', () => {
 
   it('the example in docs/plan-format.md validates with no warnings', () => {
     const doc = readFileSync(new URL('../../docs/plan-format.md', import.meta.url), 'utf8');
-    const example = JSON.parse(/```json\n([\s\S]*?)```/.exec(doc)![1]);
+    // The complete example is the json block that is a whole plan (others show single fields).
+    const blocks = [...doc.matchAll(/```json\n([\s\S]*?)```/g)].map((m) => m[1]);
+    const whole = blocks.filter((b) => b.includes('"format": "seedfall-plan"'));
+    expect(whole.length).toBe(1);
+    const example = JSON.parse(whole[0]);
     const r = validatePlan(example);
     expect(r.ok ? r.warnings : r.errors).toEqual([]);
   });
