@@ -253,11 +253,15 @@ describe('the map planner in Chromium', () => {
     // precision; typed without spaces as a crew member might.
     await pos.fill('34TET0610159954');
     await pos.press('Enter');
-    const lat = Number(await page.locator('input[data-path="sites[0].lat"]').inputValue());
-    const lon = Number(await page.locator('input[data-path="sites[0].lon"]').inputValue());
-    expect(Math.abs(lat - 47.493)).toBeLessThan(2e-5);
-    expect(Math.abs(lon - 21.081)).toBeLessThan(2e-5);
-    await expect(pos.inputValue()).resolves.toMatch(/^34T ET 0610\d 5995\d$/);
+    const latField = page.locator('input[data-path="sites[0].lat"]');
+    const lonField = page.locator('input[data-path="sites[0].lon"]');
+    await expect
+      .poll(async () => Math.abs(Number(await latField.inputValue()) - 47.493))
+      .toBeLessThan(2e-5);
+    await expect
+      .poll(async () => Math.abs(Number(await lonField.inputValue()) - 21.081))
+      .toBeLessThan(2e-5);
+    await expect.poll(() => pos.inputValue()).toMatch(/^34T ET 0610\d 5995\d$/);
     await pos.fill('not a place');
     await pos.press('Enter');
     await expect(
