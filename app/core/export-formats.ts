@@ -3,16 +3,15 @@
  * GPX 1.1 and CSV (RFC 4180), plus a sites-only CSV that `importSites` reads back.
  *
  * Pure: strings and plain objects out, no DOM. Rings and track lines are built here from the
- * core's LocalFrame (the same construction as app/map/geometry.ts, which core may not import),
+ * core's rings.ts (shared with app/map/geometry.ts),
  * so every vertex's distance and azimuth from its centre is geodesic.
  */
 import Papa from 'papaparse';
 import { formatUTM, toMGRS } from './coords';
-import { LocalFrame, destination, type LatLon } from './geodesy';
+import type { LatLon } from './geodesy';
+import { alongTrack, ellipseRingLatLon } from './rings';
 import type { Plan, ResolvedSite } from './plan';
 import type { GeoEllipse, PlanResult, SiteResult } from './planner';
-
-const DEG = Math.PI / 180;
 
 /** A GeoJSON position [lon, lat] in degrees (RFC 7946 §3.1.1). */
 export type Position = [number, number];
@@ -67,20 +66,14 @@ const MIN_AXIS_M = 0.3;
 
 /** Closed ring on an ellipse (semi-axes m, major axis azimuth degrees true), [lon, lat]. */
 function ellipsePositions(c: LatLon, a_m: number, b_m: number, az_deg: number, n = 72): Position[] {
-  const frame = new LocalFrame(c);
-  const s = Math.sin(az_deg * DEG);
-  const k = Math.cos(az_deg * DEG);
-  const a = Math.max(a_m, MIN_AXIS_M);
-  const b = Math.max(b_m, MIN_AXIS_M);
-  const ring: Position[] = [];
-  for (let i = 0; i < n; i++) {
-    const t = (2 * Math.PI * i) / n;
-    const u = a * Math.cos(t);
-    const v = b * Math.sin(t);
-    ring.push(pos(frame.toLatLon(u * s + v * k, u * k - v * s)));
-  }
-  ring.push([ring[0][0], ring[0][1]]);
-  return ccw(ring);
+  const ring = ellipseRingLatLon(
+    c,
+    Math.max(a_m, MIN_AXIS_M),
+    Math.max(b_m, MIN_AXIS_M),
+    az_deg,
+    n,
+  );
+  return ccw(ring.map(pos));
 }
 
 /** Twice the signed planar area of a closed [lon, lat] ring; > 0 when counter-clockwise. */
@@ -105,11 +98,11 @@ function orientPolygon(rings: number[][][]): Position[][] {
 
 /** Point on the carrier track time_s seconds after passing the plan's release point. */
 function trackPoint(result: PlanResult, time_s: number): LatLon {
-  const s = result.track.groundSpeed_mps * time_s;
-  const t = result.track.trackDeg;
-  return s >= 0
-    ? destination(result.releasePoint, t, s)
-    : destination(result.releasePoint, t + 180, -s);
+  return alongTrack(
+    result.releasePoint,
+    result.track.trackDeg,
+    result.track.groundSpeed_mps * time_s,
+  );
 }
 
 /** Track span, s: −60…+60 around the plan's release point, widened to cover every window and release. */

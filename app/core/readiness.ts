@@ -2,19 +2,11 @@
  * Readiness for release: no failing automatic check (or a recorded override) and every item of
  * the crew's manual checklist done or marked not applicable. Warnings never block.
  */
+import type { ChecklistItem } from './plan';
 import type { CheckResult } from './safety';
 
-/** One manual checklist item, ticked by a person. */
-export interface ManualItem {
-  id: string;
-  text: string;
-  state: 'open' | 'done' | 'n/a';
-  /** Who ticked it. */
-  who?: string;
-  /** When it was ticked, ISO 8601. */
-  when?: string;
-  note?: string;
-}
+/** One manual checklist item, ticked by a person (the plan file's `safety.checklist` item). */
+export type ManualItem = ChecklistItem;
 
 /** A decision to go ahead despite failing automatic checks; the reason must be written down. */
 export interface ReadinessOverride {

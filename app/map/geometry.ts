@@ -4,12 +4,11 @@
  * unit tests run it in Node. Also the graticule's interval choice (niceInterval), which lives
  * here because Leaflet cannot be loaded without a window.
  */
-import { LocalFrame, destination, type LatLon } from '../core/geodesy';
+import type { LatLon } from '../core/geodesy';
+import { alongTrack, ellipseRingLatLon } from '../core/rings';
 
 /** A [lat, lon] pair in degrees, Leaflet's order (GeoJSON is the reverse). */
 export type LatLngTuple = [number, number];
-
-const DEG = Math.PI / 180;
 
 /**
  * Closed ring (first vertex repeated last) of n vertices on an ellipse around center (degrees):
@@ -25,20 +24,10 @@ export function ellipseRing(
   azimuth_deg: number,
   n = 72,
 ): LatLngTuple[] {
-  const frame = new LocalFrame(center);
-  const count = Math.max(3, Math.round(n));
-  const s = Math.sin(azimuth_deg * DEG);
-  const c = Math.cos(azimuth_deg * DEG);
-  const ring: LatLngTuple[] = [];
-  for (let k = 0; k < count; k++) {
-    const t = (2 * Math.PI * k) / count;
-    const u = semiMajor_m * Math.cos(t); // along the major axis
-    const v = semiMinor_m * Math.sin(t); // along azimuth + 90°
-    const p = frame.toLatLon(u * s + v * c, u * c - v * s);
-    ring.push([p.lat, p.lon]);
-  }
-  ring.push([ring[0][0], ring[0][1]]);
-  return ring;
+  return ellipseRingLatLon(center, semiMajor_m, semiMinor_m, azimuth_deg, n).map((p) => [
+    p.lat,
+    p.lon,
+  ]);
 }
 
 /** Closed ring of n vertices at geodesic distance radius_m (metres) around center (degrees). */
@@ -74,13 +63,6 @@ export function trackSegment(
 export function bearingHandle(release: LatLon, trackDeg: number, distance_m: number): LatLngTuple {
   const p = alongTrack(release, trackDeg, distance_m);
   return [p.lat, p.lon];
-}
-
-// Signed distance along the track: negative goes back along the same geodesic.
-function alongTrack(release: LatLon, trackDeg: number, s_m: number): LatLon {
-  return s_m >= 0
-    ? destination(release, trackDeg, s_m)
-    : destination(release, trackDeg + 180, -s_m);
 }
 
 // Graticule steps of 10° and more: divisors of 90 so the equator and poles stay on lines.

@@ -4,7 +4,7 @@
  * class `sf-<kind>` (so a person, or a test, can count them) and a tooltip saying what it is.
  */
 import L from 'leaflet';
-import type { PlanResult, SiteResult, VariantResult } from '../core/planner';
+import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../core/planner';
 import { circleRing, ellipseRing, trackSegment } from './geometry';
 
 export type ShapeKind = 'reach' | 'landing' | 'ellipse50' | 'ellipse95' | 'window' | 'zone';
@@ -39,6 +39,19 @@ export interface LayerFormat {
 
 const f1 = (v: number): string => (Number(v.toFixed(1)) || 0).toFixed(1);
 const signed = (t: number): string => `${t >= 0 ? '+' : '−'}${f1(Math.abs(t))} s`;
+
+/** A landing ellipse as a polygon; axes below minAxis_m are drawn at minAxis_m so it stays visible. */
+function ellipseLayer(e: GeoEllipse, minAxis_m: number, style: L.PolylineOptions): L.Polygon {
+  return L.polygon(
+    ellipseRing(
+      e.center,
+      Math.max(e.semiMajor_m, minAxis_m),
+      Math.max(e.semiMinor_m, minAxis_m),
+      e.azimuth_deg,
+    ),
+    style,
+  );
+}
 
 function shownResults(site: SiteResult, vis: LayerVisibility): VariantResult[] {
   if (vis.chosenOnly) return site.byVariant.filter((v) => v.variant === site.variant);
@@ -75,20 +88,7 @@ export function buildResultLayers(
       }
       if (vis.kinds.ellipse95) {
         const e = v.ellipse95;
-        L.polygon(
-          ellipseRing(
-            e.center,
-            Math.max(e.semiMajor_m, 0.3),
-            Math.max(e.semiMinor_m, 0.3),
-            e.azimuth_deg,
-          ),
-          {
-            color: c,
-            weight: 1.5,
-            fillOpacity: 0.1,
-            className: 'sf-ellipse95',
-          },
-        )
+        ellipseLayer(e, 0.3, { color: c, weight: 1.5, fillOpacity: 0.1, className: 'sf-ellipse95' })
           .bindTooltip(
             `95 % landing ellipse · ${who}<br>${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}, ` +
               `major axis ${Math.round(e.azimuth_deg)}°<br>P(hit) ${v.pHit.toFixed(2)} · CEP ${fmt.length(v.cep_m)}`,
@@ -98,20 +98,7 @@ export function buildResultLayers(
       }
       if (vis.kinds.ellipse50) {
         const e = v.ellipse50;
-        L.polygon(
-          ellipseRing(
-            e.center,
-            Math.max(e.semiMajor_m, 0.2),
-            Math.max(e.semiMinor_m, 0.2),
-            e.azimuth_deg,
-          ),
-          {
-            color: c,
-            weight: 1,
-            fillOpacity: 0.3,
-            className: 'sf-ellipse50',
-          },
-        )
+        ellipseLayer(e, 0.2, { color: c, weight: 1, fillOpacity: 0.3, className: 'sf-ellipse50' })
           .bindTooltip(
             `50 % landing ellipse · ${who}<br>${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}`,
             { sticky: true },

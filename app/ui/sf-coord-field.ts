@@ -1,6 +1,5 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { live } from 'lit/directives/live.js';
 import { formatCoord } from '../core/units';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -67,7 +66,7 @@ export class SfCoordField extends LitElement {
       class=${this.compact ? 'compact' : ''}
       data-path=${key}
       aria-label=${this.compact ? this.label : undefined}
-      .value=${live(this.text())}
+      .value=${this.text()}
       aria-invalid=${msg ? 'true' : 'false'}
       title="Decimal degrees, DMS (47°29′34″N 21°04′44″E), UTM (34T 657425 5262364) or MGRS"
       @change=${(e: Event) => s?.editPosition(this.path, (e.target as HTMLInputElement).value)}

@@ -1,6 +1,5 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { live } from 'lit/directives/live.js';
 import {
   fromDisplayLength,
   fromDisplaySpeed,
@@ -95,6 +94,8 @@ export class SfNumberField extends LitElement {
     return v;
   }
 
+  // The input's value is bound without lit's live(): lit then writes it only when the value to
+  // show changes, so a planning result arriving while someone types never overwrites their text.
   private text(): string {
     const s = this.store;
     if (!s) return '';
@@ -127,7 +128,7 @@ export class SfNumberField extends LitElement {
           class="compact"
           aria-label=${`${this.label} (${this.unitLabel()})`}
           inputmode="decimal"
-          .value=${live(this.text())}
+          .value=${this.text()}
           aria-invalid=${msg ? 'true' : 'false'}
           title=${msg ?? ''}
           data-path=${this.path}
@@ -140,7 +141,7 @@ export class SfNumberField extends LitElement {
           <input
             id=${this.inputId}
             inputmode="decimal"
-            .value=${live(this.text())}
+            .value=${this.text()}
             placeholder=${this.placeholder}
             aria-invalid=${msg ? 'true' : 'false'}
             aria-describedby=${`${this.inputId}-err`}

@@ -1,6 +1,5 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { live } from 'lit/directives/live.js';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
@@ -59,7 +58,7 @@ export class SfTextField extends LitElement {
       ? html`<select
           id=${this.inputId}
           data-path=${this.path}
-          .value=${live(value)}
+          .value=${value}
           @change=${this.onChange}
         >
           ${this.options.map(([v, l]) => html`<option value=${v} ?selected=${v === value}>${l}</option>`)}
@@ -67,7 +66,7 @@ export class SfTextField extends LitElement {
       : html`<input
           id=${this.inputId}
           data-path=${this.path}
-          .value=${live(value)}
+          .value=${value}
           placeholder=${this.placeholder}
           aria-invalid=${msg ? 'true' : 'false'}
           @change=${this.onChange}

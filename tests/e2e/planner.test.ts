@@ -182,6 +182,24 @@ describe('the map planner in Chromium', () => {
     expect(errors).toEqual([]);
   });
 
+  it('keeps text being typed when a planning result arrives meanwhile', async () => {
+    await open();
+    await page.locator('[data-tab=plan]').click();
+    const alt = page.locator('sf-plan-panel input[data-path="release.altitude_m"]');
+    await alt.fill('7'); // typing, not yet committed with Enter or Tab
+    // Another edit elsewhere makes the store change and the worker answer while the field is dirty.
+    await page.evaluate(() => {
+      const app = document.querySelector('seedfall-app') as unknown as {
+        store: { edit: (p: string, v: unknown) => void };
+      };
+      app.store.edit('requiredPHit', 0.85);
+    });
+    await settled();
+    await page.waitForTimeout(300);
+    await expect(alt.inputValue()).resolves.toBe('7');
+    expect(errors).toEqual([]);
+  });
+
   it('refuses a broken plan file with a clear message and loses nothing', async () => {
     await open();
     const dir = mkdtempSync(join(tmpdir(), 'seedfall-'));
@@ -203,9 +221,9 @@ describe('the map planner in Chromium', () => {
       }),
     );
     await page.locator('input[data-testid=open-file]').setInputFiles(bad);
-    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toContain(
-      'variants[0].descentRate_mps must be > 0',
-    );
+    await expect
+      .poll(() => page.locator('[data-testid=notice]').innerText())
+      .toContain('variants[0].descentRate_mps must be > 0');
     expect(await count('.sf-site')).toBe(12);
     expect(await page.locator('sf-results-table tbody tr').count()).toBe(12);
     await shot(page, 'planner-broken-file');
