@@ -81,7 +81,7 @@ export interface PlanResult {
 }
 
 export interface PlanOptions {
-  /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 256)). */
+  /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 128)). */
   probeSamples?: number;
   /** Called after each site with the number of sites done and the total. */
   onProgress?: (done: number, total: number) => void;
@@ -142,7 +142,7 @@ function fly(
   release: Vec,
   site: Vec,
   n: number,
-  seed: number,
+  seed: number | Rng,
   prog?: Programme,
 ) {
   const xs = new Float64Array(n);
@@ -151,7 +151,7 @@ function fly(
     su,
     {
       n,
-      rng: new Rng(seed),
+      rng: typeof seed === 'number' ? new Rng(seed) : seed,
       uncertainty: ctx.plan.uncertainty,
       release,
       trackUnit: ctx.unit,
@@ -205,9 +205,20 @@ function evaluate(
   let shift: Vec = { x: 0, y: 0 };
   let releaseWindow: VariantResult['releaseWindow'] = null;
   let releaseZone: VariantResult['releaseZone'] = null;
+  // Sequential probe (docs/model.md §9): the first half of the samples settles the clear cases
+  // (share 3 binomial standard errors above or below the requirement); only probes near the edge
+  // fly the second half. One generator for both halves, so the result equals one full run's.
+  const probeSeed = seed ^ 0x2545f491;
   const probe = (r: Vec): number => {
-    const p = fly(ctx, su, r, site, ctx.probeN, seed ^ 0x2545f491, programmeAt(r));
-    return hitShare(p.xs, p.ys, site, tol);
+    const prog = programmeAt(r);
+    const rng = new Rng(probeSeed);
+    const n1 = Math.max(1, Math.floor(ctx.probeN / 2));
+    const a = fly(ctx, su, r, site, n1, rng, prog);
+    const h1 = hitShare(a.xs, a.ys, site, tol);
+    const se = Math.sqrt((req * (1 - req)) / n1);
+    if (n1 === ctx.probeN || Math.abs(h1 - req) > 3 * se) return h1;
+    const b = fly(ctx, su, r, site, ctx.probeN - n1, rng, prog);
+    return (h1 * n1 + hitShare(b.xs, b.ys, site, tol) * (ctx.probeN - n1)) / ctx.probeN;
   };
 
   if (moving && v.guidance !== 'homing') {
@@ -334,7 +345,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
     speed: plan.carrier.groundSpeed_mps,
     declination,
-    probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 256)),
+    probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 128)),
     density: soundingDensity(plan),
   };
   const sites = plan.sites.map((s, si): SiteResult => {
