@@ -168,6 +168,7 @@ export {
   blockingText,
   briefSafety,
   checklistOf,
+  planFingerprint,
   planSafety,
   safetySettingsOf,
   type PlanSafety,

@@ -4,7 +4,7 @@
  * CLI.
  */
 import type { BriefSafety } from './brief-html';
-import type { Plan } from './plan';
+import type { Plan, Signoff } from './plan';
 import type { PlanResult } from './planner';
 import { DEFAULT_MANUAL_ITEMS, readiness, type ManualItem, type Readiness } from './readiness';
 import {
@@ -41,11 +41,31 @@ export function checklistOf(plan: Plan): ManualItem[] {
 export interface PlanSafety extends SafetyReport {
   settings: SafetySettings;
   checklist: ManualItem[];
-  /** Readiness now, with the recorded sign-off's reason (if any) as the override. */
+  /** Readiness now; failing checks the sign-off's reason covers count as overridden. */
   readiness: Readiness;
-  signoff: { who: string; when: string; reason?: string } | null;
-  /** Ready and signed off. */
+  signoff: Signoff | null;
+  /** The sign-off was made for exactly this plan (same fingerprint). */
+  signoffCurrent: boolean;
+  /** Ready and signed off for this plan. */
   signedReady: boolean;
+}
+
+/**
+ * Fingerprint of a plan without its sign-off (FNV-1a, 32 bit, hex): any edit after signing — a
+ * site, a wind, a checklist tick — changes it and so voids the sign-off.
+ */
+export function planFingerprint(plan: Plan): string {
+  const copy: Plan = {
+    ...plan,
+    safety: plan.safety ? { ...plan.safety, signoff: undefined } : undefined,
+  };
+  const text = JSON.stringify(copy);
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h.toString(16).padStart(8, '0');
 }
 
 /** Runs the automatic checks and combines them with the checklist and sign-off. */
@@ -54,8 +74,13 @@ export function planSafety(plan: Plan, result: PlanResult): PlanSafety {
   const report = safetyChecks(plan, result, settings);
   const checklist = checklistOf(plan);
   const signoff = plan.safety?.signoff ?? null;
+  const signoffCurrent = signoff !== null && signoff.planHash === planFingerprint(plan);
+  // The reason overrides only the checks that were failing when it was written.
+  const covers = new Set(signoffCurrent && signoff?.reason?.trim() ? (signoff.covers ?? []) : []);
+  const failing = report.checks.filter((c) => c.status === 'fail');
+  const uncovered = failing.filter((c) => !covers.has(c.id));
   const override =
-    signoff?.reason && signoff.reason.trim()
+    failing.length > 0 && uncovered.length === 0 && signoff?.reason
       ? { reason: signoff.reason, who: signoff.who, when: signoff.when }
       : undefined;
   const r = readiness(report.checks, checklist, override);
@@ -65,7 +90,8 @@ export function planSafety(plan: Plan, result: PlanResult): PlanSafety {
     checklist,
     readiness: r,
     signoff,
-    signedReady: r.ready && signoff !== null,
+    signoffCurrent,
+    signedReady: r.ready && signoffCurrent,
   };
 }
 
@@ -98,7 +124,9 @@ export function briefSafety(s: PlanSafety): BriefSafety {
         ...(s.checklist.some((m) => m.state === 'open')
           ? [`${s.checklist.filter((m) => m.state === 'open').length} crew item(s) open`]
           : []),
-        ...(s.signoff ? [] : ['not signed off']),
+        ...(s.signoffCurrent
+          ? []
+          : [s.signoff ? 'the sign-off was for an earlier version of the plan' : 'not signed off']),
       ],
     },
   };

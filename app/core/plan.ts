@@ -104,7 +104,18 @@ export interface SafetySection {
   thrustMargin_pct?: number;
   noDropZones?: NoDropZone[];
   checklist?: ChecklistItem[];
-  signoff?: { who: string; when: string; reason?: string };
+  signoff?: Signoff;
+}
+
+/** Who marked the plan ready, for which plan, and why failing checks were accepted. */
+export interface Signoff {
+  who: string;
+  when: string;
+  reason?: string;
+  /** Fingerprint of the plan when signed (planFingerprint); a changed plan voids the sign-off. */
+  planHash?: string;
+  /** Failing automatic checks the reason covers; a check failing later is not covered. */
+  covers?: string[];
 }
 
 export interface PlanFile {

@@ -13,7 +13,7 @@ import {
 import { LocalFrame, type LatLon } from './geodesy';
 import type { Plan, ResolvedSite, ResolvedVariant } from './plan';
 import { bestShift, bisectEdge, hitProfile, runAround } from './release-window';
-import { Rng, streamSeed } from './rng';
+import { hashLabel, Rng, streamSeed } from './rng';
 import { SoundingAtmosphere } from './sounding-atmosphere';
 import { WindProfile } from './wind';
 
@@ -172,18 +172,13 @@ function hitShare(xs: Float64Array, ys: Float64Array, site: Vec, tol: number): n
   return h / xs.length;
 }
 
-function evaluate(
-  ctx: Context,
-  v: ResolvedVariant,
-  vi: number,
-  s: ResolvedSite,
-  si: number,
-): VariantResult {
+function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantResult {
   const { plan, frame, unit, speed } = ctx;
   const su = setupFor(ctx, v, s);
   const site = frame.toLocal(s);
   const off = passiveOffset(su);
-  const seed = streamSeed(plan.monteCarlo.seed, si, vi);
+  // Streams follow the ids, so adding, removing or reordering sites leaves the others' numbers alone.
+  const seed = streamSeed(plan.monteCarlo.seed, hashLabel(s.id), hashLabel(v.id));
   const n = plan.monteCarlo.samples;
   const req = plan.requiredPHit;
   const tol = s.tolerance_m;
@@ -349,7 +344,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     density: soundingDensity(plan),
   };
   const sites = plan.sites.map((s, si): SiteResult => {
-    const all = plan.variants.map((v, vi) => evaluate(ctx, v, vi, s, si));
+    const all = plan.variants.map((v) => evaluate(ctx, v, s));
     opts.onProgress?.(si + 1, plan.sites.length);
     const meeting = all.find((r) => r.pHit >= plan.requiredPHit);
     const top = all.reduce((a, b) => (b.pHit > a.pHit ? b : a));

@@ -113,3 +113,13 @@ export function streamSeed(seed: number, ...labels: number[]): number {
   }
   return h >>> 0;
 }
+
+/** 32-bit FNV-1a hash of a string, for stream labels that stay put when lists are reordered. */
+export function hashLabel(text: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h;
+}

@@ -42,6 +42,8 @@ export class PlanStore extends EventTarget {
   /** The last plan that validated; results belong to it. */
   plan: Plan | null = null;
   result: PlanResult | null = null;
+  /** The plan `result` was computed from (exports and the brief use this pair). */
+  resultPlan: Plan | null = null;
   /** Safety checks of `result` (computed with it in the worker). */
   safety: PlanSafety | null = null;
   /** True while the shown result is older than the current (valid) plan. */
@@ -59,6 +61,7 @@ export class PlanStore extends EventTarget {
   private nextId = 1;
   private inFlight = 0;
   private pending: Plan | null = null;
+  private sentPlan: Plan | null = null;
   private computeTimer: ReturnType<typeof setTimeout> | undefined;
   private saveTimer: ReturnType<typeof setTimeout> | undefined;
   private committed: string;
@@ -103,6 +106,11 @@ export class PlanStore extends EventTarget {
   get canRedo(): boolean {
     return this.future.length > 0;
   }
+  /** A result exists and belongs to the current plan (nothing is being recomputed). */
+  get current(): boolean {
+    return this.result !== null && !this.computing && this.resultPlan === this.plan;
+  }
+
   /** The plan is valid and has no unreadable field text. */
   get valid(): boolean {
     return this.issues.length === 0 && this.texts.size === 0;
@@ -115,7 +123,11 @@ export class PlanStore extends EventTarget {
    * no undo step until commit().
    */
   edit(path: string, value: unknown, opts: { transient?: boolean } = {}): void {
-    this.texts.delete(path);
+    // Text typed under this path (a row of a list, a field of an object) no longer applies.
+    for (const key of [...this.texts.keys()]) {
+      if (key === path || key.startsWith(`${path}.`) || key.startsWith(`${path}[`))
+        this.texts.delete(key);
+    }
     this.draft = setAt(this.draft, path, value);
     if (!opts.transient) this.commit();
     this.changed(opts.transient ? 120 : 40);
@@ -216,7 +228,10 @@ export class PlanStore extends EventTarget {
     this.worker = worker;
     worker.onmessage = (ev: MessageEvent<WorkerReply>) => this.onReply(ev.data);
     worker.onerror = (ev) => {
+      // Forget the lost request so the next edit is planned again.
       this.workerError = ev.message || 'the planning worker stopped';
+      this.inFlight = 0;
+      this.pending = null;
       this.computing = false;
       this.emit();
     };
@@ -265,6 +280,7 @@ export class PlanStore extends EventTarget {
     }
     this.inFlight = this.nextId++;
     this.progress = 0;
+    this.sentPlan = this.plan;
     this.worker.postMessage({ id: this.inFlight, plan: this.plan });
   }
 
@@ -278,6 +294,7 @@ export class PlanStore extends EventTarget {
     this.inFlight = 0;
     if (m.type === 'result') {
       this.result = m.result;
+      this.resultPlan = this.sentPlan;
       this.safety = m.safety;
       this.elapsed_ms = m.elapsed_ms;
       this.workerError = m.safetyError ? `safety checks failed: ${m.safetyError}` : null;

@@ -6,6 +6,8 @@ import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../core/expo
 import { briefSafety } from '../core/plan-safety';
 import { CAUTION_TEXT } from '../core/caution';
 import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from '../core/units';
+import type { Plan } from '../core/plan';
+import type { PlanResult } from '../core/planner';
 import { validatePlan } from '../core/validate';
 import { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -260,14 +262,35 @@ export class SeedfallApp extends LitElement {
     );
   }
 
+  /**
+   * The plan and the result computed from it, for the brief and exports; null (with a notice)
+   * while planning is still running, so a file never mixes an edited plan with an older result.
+   */
+  private computedPair(what: string): { plan: Plan; result: PlanResult } | null {
+    const s = this.store;
+    if (s.computing) {
+      s.setNotice(
+        'error',
+        `Planning is still running for your latest edits; the ${what} waits for it — try again in a moment.`,
+      );
+      return null;
+    }
+    if (!s.resultPlan || !s.result) {
+      s.setNotice('error', `No planning result yet: the ${what} needs a valid plan.`);
+      return null;
+    }
+    if (s.resultPlan !== s.plan || !s.valid) {
+      s.setNotice('error', `The plan has problems to fix; the ${what} shows the last valid plan.`);
+    }
+    return { plan: s.resultPlan, result: s.result };
+  }
+
   /** Opens the printable brief of the current result in a new tab. */
   private openBrief(): void {
     const s = this.store;
-    if (!s.plan || !s.result) {
-      s.setNotice('error', 'No planning result yet: the brief needs a valid plan.');
-      return;
-    }
-    const html = briefHtml(s.plan, s.result, {
+    const pair = this.computedPair('brief');
+    if (!pair) return;
+    const html = briefHtml(pair.plan, pair.result, {
       paper: s.settings.paper,
       printBar: true,
       safety: s.safety ? briefSafety(s.safety) : undefined,
@@ -281,22 +304,21 @@ export class SeedfallApp extends LitElement {
   /** Downloads one of the exchange formats of the current result. */
   private exportAs(kind: 'geojson' | 'kml' | 'gpx' | 'csv' | 'sites'): void {
     const s = this.store;
-    if (!s.plan || !s.result) {
-      s.setNotice('error', 'No planning result yet to export.');
-      return;
-    }
-    const base = fileBase(s.plan.name);
+    const pair = this.computedPair('export');
+    if (!pair) return;
+    const { plan, result } = pair;
+    const base = fileBase(plan.name);
     const hazard = s.safety?.hazardArea;
     const out: Record<typeof kind, [string, string, string]> = {
       geojson: [
-        JSON.stringify(toGeoJSON(s.plan, s.result, hazard ? { hazardArea: hazard } : {}), null, 1),
+        JSON.stringify(toGeoJSON(plan, result, hazard ? { hazardArea: hazard } : {}), null, 1),
         'application/geo+json',
         `${base}.geojson`,
       ],
-      kml: [toKML(s.plan, s.result), 'application/vnd.google-earth.kml+xml', `${base}.kml`],
-      gpx: [toGPX(s.plan, s.result), 'application/gpx+xml', `${base}.gpx`],
-      csv: [toScheduleCSV(s.plan, s.result), 'text/csv', `${base}-schedule.csv`],
-      sites: [toSitesCSV(s.plan), 'text/csv', `${base}-sites.csv`],
+      kml: [toKML(plan, result), 'application/vnd.google-earth.kml+xml', `${base}.kml`],
+      gpx: [toGPX(plan, result), 'application/gpx+xml', `${base}.gpx`],
+      csv: [toScheduleCSV(plan, result), 'text/csv', `${base}-schedule.csv`],
+      sites: [toSitesCSV(plan), 'text/csv', `${base}-sites.csv`],
     };
     const [text, type, name] = out[kind];
     download(text, type, name);

@@ -2,7 +2,7 @@ import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { CAUTION_TEXT } from '../core/caution';
 import type { ChecklistItem, NoDropZone } from '../core/plan';
-import { blockingText, checklistOf } from '../core/plan-safety';
+import { blockingText, checklistOf, planFingerprint } from '../core/plan-safety';
 import { DEFAULT_MANUAL_ITEMS } from '../core/readiness';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -180,7 +180,12 @@ export class SfSafetyPanel extends LitElement {
   private signOff(): void {
     const s = this.store;
     const safety = s?.safety;
-    if (!s || !safety) return;
+    if (!s || !safety || !s.plan) return;
+    if (!s.current) {
+      this.signError =
+        'Planning is still running for the latest edits: sign off once the checks are up to date.';
+      return;
+    }
     const who = this.signer.trim();
     if (!who) {
       this.signError = 'Enter your name to sign the plan off.';
@@ -199,7 +204,10 @@ export class SfSafetyPanel extends LitElement {
     s.edit('safety.signoff', {
       who,
       when: new Date().toISOString().slice(0, 16),
-      ...(failing.length > 0 ? { reason: this.reason.trim() } : {}),
+      planHash: planFingerprint(s.plan),
+      ...(failing.length > 0
+        ? { reason: this.reason.trim(), covers: failing.map((c) => c.id) }
+        : {}),
     });
   }
 
@@ -255,7 +263,15 @@ export class SfSafetyPanel extends LitElement {
       NOT READY
       <ul>
         ${blocking.map((b) => html`<li>${b}</li>`)}
-        ${safety.signoff ? html`<li>sign-off by ${safety.signoff.who} no longer covers the plan</li>` : html`<li>not signed off</li>`}
+        ${
+          safety.signoff && !safety.signoffCurrent
+            ? html`<li>
+                the sign-off by ${safety.signoff.who} was for an earlier version of the plan
+              </li>`
+            : safety.signoff
+              ? ''
+              : html`<li>not signed off</li>`
+        }
       </ul>
     </div>`;
   }

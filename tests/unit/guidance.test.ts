@@ -196,3 +196,19 @@ describe('planDrop on the demo plan', () => {
     }
   });
 });
+
+describe('random streams', () => {
+  // common practice: results for one site must not depend on which other sites are in the plan.
+  it('removing one site leaves every other site’s numbers unchanged', () => {
+    const base = structuredClone(demo) as unknown as PlanFile;
+    base.monteCarlo = { samples: 200, seed: 3 };
+    const fewer = structuredClone(base);
+    fewer.sites = fewer.sites.slice(1);
+    const v1 = validatePlan(base);
+    const v2 = validatePlan(fewer);
+    if (!v1.ok || !v2.ok) throw new Error('demo plan invalid');
+    const a = planDrop(v1.plan).sites.slice(1);
+    const b = planDrop(v2.plan).sites;
+    expect(b.map((s) => [s.id, s.pHit, s.cep_m])).toEqual(a.map((s) => [s.id, s.pHit, s.cep_m]));
+  });
+});
