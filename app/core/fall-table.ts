@@ -69,6 +69,11 @@ export class FallTable {
 
   constructor(input: FallTableInput) {
     const { top_m, bottom_m, wind } = input;
+    if (!(top_m > bottom_m)) {
+      throw new RangeError(
+        `release altitude ${top_m} m MSL must be above the ground ${bottom_m} m MSL`,
+      );
+    }
     const cell = input.cell_m ?? 1;
     const height = top_m - bottom_m;
     const bandH = input.band_m ?? Math.max(2, height / 24);

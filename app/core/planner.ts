@@ -301,7 +301,7 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
 }
 
 /** Density (kg/m³ at m MSL) from the plan's sounding (docs/model.md §11), or undefined for the ISA. */
-function soundingDensity(plan: Plan): ((z_m: number) => number) | undefined {
+export function soundingDensity(plan: Plan): ((z_m: number) => number) | undefined {
   const snd = plan.atmosphere.sounding;
   if (!snd || snd.levels.length === 0) return undefined;
   const atm = new SoundingAtmosphere(snd.levels, {

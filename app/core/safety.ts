@@ -10,7 +10,7 @@ import { WMM_VALIDITY } from './declination';
 import { LocalFrame } from './geodesy';
 import { circumscribed, clearance_m, ellipsePiece, hazardArea } from './hazard-area';
 import type { Plan, ResolvedVariant } from './plan';
-import type { PlanResult } from './planner';
+import { soundingDensity, type PlanResult } from './planner';
 import { civilTwilight, sunElevationDeg } from './sun';
 import { WindProfile } from './wind';
 
@@ -218,6 +218,9 @@ export function impactEnergy_J(mass_kg: number, w_mps: number, u_mps: number): n
 }
 
 function energyCheck(plan: Plan, result: PlanResult): CheckResult {
+  // The same air the planner used: the plan's sounding when it has one, else the ISA offset.
+  const density =
+    soundingDensity(plan) ?? ((z: number) => densityAt(z, plan.atmosphere.isaOffset_K));
   const used = usedVariants(plan, result);
   const surface = windSpeeds(plan, result).surface_mps;
   const cat2 = IMPACT_CAT2_FT_LBF * J_PER_FT_LBF;
@@ -233,10 +236,7 @@ function energyCheck(plan: Plan, result: PlanResult): CheckResult {
         .filter((s) => s.variant === v.id)
         .map((s) => plan.sites.find((p) => p.id === s.id)?.elevation_m ?? plan.groundElevation_m),
     );
-    const w =
-      v.descentRate_mps *
-      massFactor *
-      Math.sqrt(RHO0 / densityAt(elev, plan.atmosphere.isaOffset_K));
+    const w = v.descentRate_mps * massFactor * Math.sqrt(RHO0 / density(elev));
     // Steered vehicles may still glide at full authority at touchdown: add w·cot γ to the wind.
     const steer = v.guidance === 'passive' ? 0 : w / Math.tan(v.glideAngle_deg * DEG);
     const u = surface + steer;

@@ -160,6 +160,7 @@ export interface SweepPoint {
  * P(hit), CEP (m) and reachability of one site with one variant at each release altitude
  * (m above plan ground). Every altitude uses the same Monte Carlo stream (the reduced plan has
  * one site and one variant), so the curve's steps come from the altitude, not from resampling.
+ * Altitudes at or below the site's ground are left out (nothing falls there).
  * Throws when the site or variant id is not in the plan.
  */
 export function altitudeSweep(
@@ -174,7 +175,8 @@ export function altitudeSweep(
   if (!site) throw new Error(`altitudeSweep: no site "${siteId}" in the plan`);
   if (!variant) throw new Error(`altitudeSweep: no variant "${variantId}" in the plan`);
   const samples = Math.max(1, Math.round(opts.samples ?? Math.min(plan.monteCarlo.samples, 400)));
-  return altitudesAGL_m.map((altitude_m) => {
+  const aboveSite = altitudesAGL_m.filter((h) => plan.groundElevation_m + h > site.elevation_m);
+  return aboveSite.map((altitude_m) => {
     const one: Plan = {
       ...plan,
       release: { ...plan.release, altitude_m, reference: 'AGL' },

@@ -22,6 +22,8 @@ import { StoreController } from './store-controller';
 
 /** The track handle sits where the carrier will be this many seconds after the release point. */
 const HANDLE_SECONDS = 10;
+/** Handle movement toward or away from the release point (m) that still counts as turning only. */
+const HANDLE_SLACK_M = 10;
 const KIND_LABEL: Record<ShapeKind, string> = {
   reach: 'Reach areas',
   landing: 'Uncontrolled landings',
@@ -354,16 +356,32 @@ export class SfMap extends LitElement {
         }),
         zIndexOffset: 900,
       }).addTo(map);
-      this.handleMarker.on('dragstart', () => (this.dragging = true));
+      let startDist = 0;
+      const releaseNow = () => ({
+        lat: num(this.store!.get('release.lat')) ?? 0,
+        lon: num(this.store!.get('release.lon')) ?? 0,
+      });
+      this.handleMarker.on('dragstart', () => {
+        this.dragging = true;
+        const p = this.handleMarker!.getLatLng();
+        startDist = distance_m(releaseNow(), { lat: p.lat, lon: p.lng });
+      });
       this.handleMarker.on('drag', () => {
         const st = this.store!;
-        const r = { lat: num(st.get('release.lat')) ?? 0, lon: num(st.get('release.lon')) ?? 0 };
+        const r = releaseNow();
         const p = this.handleMarker!.getLatLng();
         const h = { lat: p.lat, lon: p.lng };
         const d = distance_m(r, h);
         const carrier = (st.get('carrier') as Record<string, unknown>) ?? {};
-        // Closer than 20 m to the release point means hover.
-        const speed_mps = d < 20 ? 0 : Math.round((d / HANDLE_SECONDS) * 10) / 10;
+        // Turning the handle sets the track only; pulling it in or out by more than HANDLE_SLACK_M
+        // also sets the speed (distance = HANDLE_SECONDS of flight; under 20 m means hover).
+        const oldSpeed = num(carrier.groundSpeed_mps) ?? 0;
+        const speed_mps =
+          Math.abs(d - startDist) <= HANDLE_SLACK_M
+            ? oldSpeed
+            : d < 20
+              ? 0
+              : Math.round((d / HANDLE_SECONDS) * 10) / 10;
         st.edit(
           'carrier',
           {
@@ -373,8 +391,7 @@ export class SfMap extends LitElement {
           },
           { transient: true },
         );
-        const rp2 = r;
-        this.trackLine?.setLatLngs(trackSegment(rp2, bearingDeg(r, h), 1, -400, 400));
+        this.trackLine?.setLatLngs(trackSegment(r, bearingDeg(r, h), 1, -400, 400));
       });
       this.handleMarker.on('dragend', () => this.endDrag());
     } else if (!this.dragging) this.handleMarker.setLatLng(hp);

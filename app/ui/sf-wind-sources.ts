@@ -101,9 +101,13 @@ export class SfWindSources extends LitElement {
     if (temperatures.length) {
       next.atmosphere = { ...atmosphere, sounding: { reference, levels: temperatures } };
     }
+    const keptSounding = !temperatures.length && (atmosphere as { sounding?: unknown }).sounding;
     s.replace(
       next,
-      `${what}: ${layers.length} wind layer(s)${temperatures.length ? ` and ${temperatures.length} temperature(s)` : ''} in use.`,
+      `${what}: ${layers.length} wind layer(s)${temperatures.length ? ` and ${temperatures.length} temperature(s)` : ''} in use.` +
+        (keptSounding
+          ? ' The earlier sounding’s temperatures still set the air density (remove them with “Use the ISA offset instead”).'
+          : ''),
     );
   }
 

@@ -116,6 +116,30 @@ describe('the map planner in Chromium', () => {
     expect(errors).toEqual([]);
   });
 
+  it('turning the track handle changes the track and keeps the speed', async () => {
+    await open();
+    const rel = (await page.locator('sf-map .sf-release').boundingBox())!;
+    const hd = (await page.locator('sf-map .sf-track-handle').boundingBox())!;
+    const cx = rel.x + rel.width / 2;
+    const cy = rel.y + rel.height / 2;
+    const hx = hd.x + hd.width / 2;
+    const hy = hd.y + hd.height / 2;
+    // Rotate the handle 20° about the release point at the same distance.
+    const a = (20 * Math.PI) / 180;
+    const dx = (hx - cx) * Math.cos(a) - (hy - cy) * Math.sin(a) + cx - hx;
+    const dy = (hx - cx) * Math.sin(a) + (hy - cy) * Math.cos(a) + cy - hy;
+    await drag('sf-map .sf-track-handle', dx, dy);
+    await page.locator('[data-tab=plan]').click();
+    const track = Number(
+      await page.locator('sf-plan-panel input[data-path="carrier.trackDeg"]').inputValue(),
+    );
+    expect(Math.abs(track - 270)).toBeLessThan(3); // 250° turned 20° clockwise on screen
+    await expect(
+      page.locator('sf-plan-panel input[data-path="carrier.groundSpeed_mps"]').inputValue(),
+    ).resolves.toBe('13');
+    expect(errors).toEqual([]);
+  });
+
   it('changing a wind layer moves the reach areas', async () => {
     await open();
     const d0 = await page.locator('sf-map path.sf-reach').first().getAttribute('d');

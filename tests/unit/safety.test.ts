@@ -30,7 +30,7 @@ import {
 } from '../../app/core/safety';
 import { validatePlan } from '../../app/core/validate';
 import { ellipseRing, trackSegment } from '../../app/map/geometry';
-import { NOW, RELEASE, expectClose, offsetLatLng } from './helpers';
+import { NOW, RELEASE, expectClose, makePlan, offsetLatLng } from './helpers';
 
 const PASSIVE: Variant = { id: 'drifter', guidance: 'passive', descentRate_mps: 3 };
 const STEERED: Variant = {
@@ -456,5 +456,43 @@ describe('readiness', () => {
     });
     expect(r.ready).toBe(false);
     expect(r.blocking).toEqual([`manual:${manual[3].id}`]);
+  });
+});
+
+describe('impact energy with a sounding', () => {
+  it('uses the sounding’s air: warmer, thinner air gives a faster touchdown and more energy', () => {
+    // Momentum theory (Leishman ch. 12, via REFERENCES.md): w ∝ ρ^−½, so E = ½m(w² + u²) grows
+    // when the sounding is warmer than the ISA at the same pressure.
+    const base = {
+      release: { ...RELEASE, altitude_m: 100, reference: 'AGL' as const },
+      variants: [
+        {
+          id: 'p',
+          guidance: 'passive' as const,
+          descentRate_mps: 4,
+          payloadMass_kg: 0.2,
+          referenceMass_kg: 0.2,
+        },
+      ],
+      sites: [{ id: 's', ...RELEASE }],
+      monteCarlo: { samples: 20, seed: 1 },
+    };
+    const energy = (extra: object) => {
+      const plan = makePlan({ ...base, ...extra });
+      const c = safetyChecks(plan, planDrop(plan)).checks.find((x) => x.id === 'impact-energy')!;
+      return Number(c.numbers.worst_J);
+    };
+    const isa = energy({});
+    const warm = energy({
+      atmosphere: {
+        sounding: {
+          levels: [0, 1000].map((z) => ({
+            altitude_m: z,
+            temperature_K: airAt(z).temperature_K + 40,
+          })),
+        },
+      },
+    });
+    expect(warm).toBeGreaterThan(isa);
   });
 });

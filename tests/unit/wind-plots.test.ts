@@ -3,7 +3,11 @@ import { describe, expect, it } from 'vitest';
 import type { Plan, PlanFile } from '../../app/core/plan';
 import { planDrop } from '../../app/core/planner';
 import { altitudeSweep, hodographSvg, sweepSvg } from '../../app/core/wind-plots';
+import { validatePlan } from '../../app/core/validate';
+import demoJson from '../../data/demo-plan.json';
 import { expectClose, makePlan, offsetLatLng, RELEASE } from './helpers';
+
+const demoFile = demoJson as unknown as PlanFile;
 
 type Layers = NonNullable<PlanFile['winds']>['layers'];
 
@@ -233,5 +237,18 @@ describe('the sweep plot', () => {
     const empty = sweepSvg([]);
     expect(XMLValidator.validate(empty)).toBe(true);
     expect(empty).toContain('no altitudes');
+  });
+});
+
+describe('altitude sweep below the site', () => {
+  it('leaves out release heights at or below the site’s ground instead of reporting hits', () => {
+    // common practice: nothing released below a site can fall onto it.
+    const d = structuredClone(demoFile);
+    d.monteCarlo = { samples: 50, seed: 1 };
+    d.sites[0].elevation_m = (d.groundElevation_m ?? 0) + 60;
+    const v = validatePlan(d);
+    if (!v.ok) throw new Error(v.errors.map((e) => e.message).join('; '));
+    const pts = altitudeSweep(v.plan, d.sites[0].id, v.plan.variants[0].id, [40, 60, 80, 110]);
+    expect(pts.map((p) => p.altitude_m)).toEqual([80, 110]);
   });
 });
