@@ -90,15 +90,20 @@ export function toRing(frame: LocalFrame, pts: readonly XY[]): Position[] {
   return ring;
 }
 
+/** One piece of the hazard area: where a site's vehicles may land, or where they are released. */
+export interface HazardPiece {
+  label: string;
+  site: string;
+  kind: 'landing' | 'release';
+  piece: ConvexPiece;
+}
+
 /** The pieces the hazard area is the union of, before the buffer, with a label each. */
-export function hazardPieces(
-  result: PlanResult,
-  frame: LocalFrame,
-): { label: string; piece: ConvexPiece }[] {
+export function hazardPieces(result: PlanResult, frame: LocalFrame): HazardPiece[] {
   const { unit, groundSpeed_mps: v } = result.track;
   const moving = v > 0;
   const at = (t_s: number): XY => ({ x: unit.x * v * t_s, y: unit.y * v * t_s });
-  const out: { label: string; piece: ConvexPiece }[] = [];
+  const out: HazardPiece[] = [];
   for (const s of result.sites) {
     const rel = frame.toLocal(s.release);
     const ell = ellipsePiece(frame, s.ellipse99);
@@ -111,25 +116,38 @@ export function hazardPieces(
       const b = at(w.close_s - s.release.time_s);
       out.push({
         label: `${s.id}: 99 % landing ellipse over the window`,
+        site: s.id,
+        kind: 'landing',
         piece: { ...ell, sweep: [a, b] },
       });
       out.push({
         label: `${s.id}: track under the release window`,
+        site: s.id,
+        kind: 'release',
         piece: { center: { x: 0, y: 0 }, sweep: [at(w.open_s), at(w.close_s)] },
       });
     } else if (!moving && z) {
       const zc = frame.toLocal(z.center);
       out.push({
         label: `${s.id}: 99 % landing ellipse over the zone`,
+        site: s.id,
+        kind: 'landing',
         piece: { ...ell, radius_m: z.radius_m },
       });
       out.push({
         label: `${s.id}: hover release zone`,
+        site: s.id,
+        kind: 'release',
         piece: { center: zc, radius_m: z.radius_m },
       });
     } else {
-      out.push({ label: `${s.id}: 99 % landing ellipse`, piece: ell });
-      out.push({ label: `${s.id}: release point`, piece: { center: rel } });
+      out.push({ label: `${s.id}: 99 % landing ellipse`, site: s.id, kind: 'landing', piece: ell });
+      out.push({
+        label: `${s.id}: release point`,
+        site: s.id,
+        kind: 'release',
+        piece: { center: rel },
+      });
     }
   }
   return out;

@@ -8,7 +8,7 @@ import { densityAt } from './atmosphere';
 import { RHO0 } from './constants';
 import { WMM_VALIDITY } from './declination';
 import { LocalFrame } from './geodesy';
-import { circumscribed, clearance_m, ellipsePiece, hazardArea } from './hazard-area';
+import { circumscribed, clearance_m, hazardPieces, hazardArea } from './hazard-area';
 import type { Plan, ResolvedVariant } from './plan';
 import { soundingDensity, type PlanResult } from './planner';
 import { civilTwilight, sunElevationDeg } from './sun';
@@ -190,13 +190,15 @@ function noDropCheck(result: PlanResult, st: SafetySettings): CheckResult {
   const frame = new LocalFrame(result.releasePoint);
   const items: Record<string, number | string>[] = [];
   let least = Infinity;
-  for (const s of result.sites) {
-    const ring = circumscribed(ellipsePiece(frame, s.ellipse99));
+  // Every landing the plan allows: each 99 % ellipse swept over its release window (or widened by
+  // its hover zone), the same pieces the hazard area is built from.
+  for (const hp of hazardPieces(result, frame).filter((p) => p.kind === 'landing')) {
+    const ring = circumscribed(hp.piece);
     zones.forEach((z, i) => {
       const name = String(z.properties?.name ?? `zone ${i + 1}`);
       const c = clearance_m(frame, ring, z.geometry);
       least = Math.min(least, c);
-      if (c < st.noDropBuffer_m) items.push({ site: s.id, zone: name, clearance_m: r1(c) });
+      if (c < st.noDropBuffer_m) items.push({ site: hp.site, zone: name, clearance_m: r1(c) });
     });
   }
   const ok = items.length === 0;
@@ -205,7 +207,7 @@ function noDropCheck(result: PlanResult, st: SafetySettings): CheckResult {
     title: 'Landing ellipses clear of no-drop zones',
     status: ok ? 'pass' : 'fail',
     why: ok
-      ? `Every 99 % landing ellipse is at least ${st.noDropBuffer_m} m from every no-drop zone.`
+      ? `Every 99 % landing ellipse, over its whole release window, is at least ${st.noDropBuffer_m} m from every no-drop zone.`
       : `${items.length} site–zone pair(s) closer than ${st.noDropBuffer_m} m (0 m = overlapping).`,
     numbers: { zones: zones.length, buffer_m: st.noDropBuffer_m, leastClearance_m: r1(least) },
     items,

@@ -496,3 +496,61 @@ describe('impact energy with a sounding', () => {
     expect(warm).toBeGreaterThan(isa);
   });
 });
+
+describe('no-drop zones over the whole release window', () => {
+  it('fails when a release inside the window lands in a zone even if the best release does not', () => {
+    // Calm air, no error, carrier north at 10 m/s, tolerance 20 m: a passive release lands on
+    // the site at the best time and anywhere within ±20 m along the track inside the window
+    // (the chord of the tolerance circle). A 2 m square 14 m north of the site is 13 m from the
+    // best landing (clear of a 5 m buffer) but under the window's landings.
+    const site = offsetLatLng(RELEASE, 0, 60);
+    const plan = makePlan({
+      carrier: { groundSpeed_mps: 10, trackDeg: 0 },
+      sites: [{ id: 's', ...site, tolerance_m: 20 }],
+    });
+    const result = planDrop(plan);
+    expect(result.sites[0].releaseWindow).not.toBeNull();
+    const c = offsetLatLng(site, 0, 14);
+    const sq = [
+      [-1, -1],
+      [1, -1],
+      [1, 1],
+      [-1, 1],
+      [-1, -1],
+    ].map(([e, n]) => {
+      const p = offsetLatLng(c, e, n);
+      return [p.lon, p.lat];
+    });
+    const zone: Feature<Polygon> = {
+      type: 'Feature',
+      properties: { name: 'culvert' },
+      geometry: { type: 'Polygon', coordinates: [sq] },
+    };
+    const settings: SafetySettings = {
+      ...DEFAULT_SAFETY_SETTINGS,
+      noDropZones: [zone],
+      noDropBuffer_m: 5,
+    };
+    const check = safetyChecks(plan, result, settings).checks.find(
+      (x) => x.id === 'no-drop-zones',
+    )!;
+    expect(check.status).toBe('fail');
+    // Moved 30 m north, beyond the window's reach (20 m + 5 m buffer), the zone is clear.
+    const far = {
+      ...zone,
+      geometry: {
+        type: 'Polygon' as const,
+        coordinates: [
+          sq.map(([lon, lat]) => {
+            const p = offsetLatLng({ lat, lon }, 0, 16);
+            return [p.lon, p.lat];
+          }),
+        ],
+      },
+    };
+    const ok = safetyChecks(plan, result, { ...settings, noDropZones: [far] }).checks.find(
+      (x) => x.id === 'no-drop-zones',
+    )!;
+    expect(ok.status).toBe('pass');
+  });
+});
