@@ -48,6 +48,41 @@ export function covarianceEllipse(mean: Vec, cov: readonly number[], p: number):
   };
 }
 
+/** Median of values (reorders the array): Hoare's quickselect, O(n) on average. */
+export function median(a: Float64Array): number {
+  const n = a.length;
+  const kth = (k: number): number => {
+    let lo = 0;
+    let hi = n - 1;
+    while (lo < hi) {
+      const pivot = a[(lo + hi) >> 1];
+      let i = lo;
+      let j = hi;
+      while (i <= j) {
+        while (a[i] < pivot) i++;
+        while (a[j] > pivot) j--;
+        if (i <= j) {
+          const t = a[i];
+          a[i] = a[j];
+          a[j] = t;
+          i++;
+          j--;
+        }
+      }
+      if (k <= j) hi = j;
+      else if (k >= i) lo = i;
+      else return a[k];
+    }
+    return a[k];
+  };
+  if (n % 2 === 1) return kth((n - 1) / 2);
+  const upper = kth(n / 2);
+  // After selecting n/2, everything before it is ≤ it: the lower middle is their maximum.
+  let lower = -Infinity;
+  for (let i = 0; i < n / 2; i++) if (a[i] > lower) lower = a[i];
+  return (lower + upper) / 2;
+}
+
 /**
  * Statistics of n landing points (xs, ys) shifted by `shift`, about `site` with hit radius
  * tol_m: mean, covariance, 50/95/99 % ellipses, CEP (median miss) and P(hit).
@@ -90,8 +125,7 @@ export function summarize(
   }
   const dof = n > 1 ? n - 1 : 1;
   const cov: [number, number, number] = [sxx / dof, sxy / dof, syy / dof];
-  miss.sort();
-  const cep = n % 2 === 1 ? miss[(n - 1) / 2] : (miss[n / 2 - 1] + miss[n / 2]) / 2;
+  const cep = median(miss);
   const mean = { x: mx, y: my };
   return {
     mean,

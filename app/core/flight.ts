@@ -80,7 +80,20 @@ interface WindFunctional {
   arScale: Float64Array;
 }
 
+// One functional per fall table and correlation height: probes reuse it.
+const functionalCache = new WeakMap<FallTable, Map<number, WindFunctional>>();
+
 function windFunctional(table: FallTable, corr_m: number): WindFunctional {
+  let byCorr = functionalCache.get(table);
+  if (!byCorr) functionalCache.set(table, (byCorr = new Map()));
+  const hit = byCorr.get(corr_m);
+  if (hit) return hit;
+  const wf = computeWindFunctional(table, corr_m);
+  byCorr.set(corr_m, wf);
+  return wf;
+}
+
+function computeWindFunctional(table: FallTable, corr_m: number): WindFunctional {
   const k = table.bandCount;
   const dt = table.bandDt;
   const z = table.bandMid;

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { covarianceEllipse, ellipseScale } from '../../app/core/dispersion';
+import { covarianceEllipse, ellipseScale, median } from '../../app/core/dispersion';
 import { FallTable } from '../../app/core/fall-table';
 import {
   fixedHeadingProgramme,
@@ -306,5 +306,22 @@ describe('seeded Monte Carlo', () => {
     const b = planDrop(plan(43)).sites[0];
     expect(a.cep_m).not.toBe(b.cep_m);
     expect(a.ellipse95.semiMajor_m).not.toBe(b.ellipse95.semiMajor_m);
+  });
+});
+
+describe('median by quickselect', () => {
+  it('equals the middle of the sorted values (definition), for odd and even counts', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 60 }),
+        (xs) => {
+          const sorted = [...xs].sort((a, b) => a - b);
+          const n = xs.length;
+          const want = n % 2 ? sorted[(n - 1) / 2] : (sorted[n / 2 - 1] + sorted[n / 2]) / 2;
+          expect(median(Float64Array.from(xs))).toBe(want);
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
