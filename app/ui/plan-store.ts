@@ -85,6 +85,12 @@ export class PlanStore extends EventTarget {
     return getAt(this.draft, path);
   }
 
+  /** The array at a plan path, or [] when it is missing or not an array. */
+  list<T>(path: string): T[] {
+    const v = getAt(this.draft, path);
+    return Array.isArray(v) ? (v as T[]) : [];
+  }
+
   /** The problem to show beside the field at path (unreadable text first, then validation). */
   messageAt(path: string): string | undefined {
     const t = this.texts.get(path);

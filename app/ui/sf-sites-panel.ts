@@ -62,8 +62,7 @@ export class SfSitesPanel extends LitElement {
   }
 
   private sites(): Site[] {
-    const l = this.store?.get('sites');
-    return Array.isArray(l) ? (l as Site[]) : [];
+    return this.store?.list<Site>('sites') ?? [];
   }
 
   private add(): void {
@@ -126,6 +125,25 @@ export class SfSitesPanel extends LitElement {
           }}
         />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
     };
+    const cell = (
+      i: number,
+      key: string,
+      what: string,
+      kind: 'plain' | 'length',
+      unit: string,
+      optional = false,
+    ) =>
+      html`<td>
+        <sf-number-field
+          compact
+          ?optional=${optional}
+          .store=${s}
+          path=${`sites[${i}].${key}`}
+          label=${`Site ${i + 1} ${what}`}
+          kind=${kind}
+          unit=${unit}
+        ></sf-number-field>
+      </td>`;
     return html`
       <h3>Sensor sites (${sites.length})</h3>
       <div class="scroll">
@@ -158,44 +176,10 @@ export class SfSitesPanel extends LitElement {
                     label=${`Site ${i + 1} position`}
                   ></sf-coord-field>
                 </td>
-                <td>
-                  <sf-number-field
-                    compact
-                    .store=${s}
-                    path=${`sites[${i}].lat`}
-                    label=${`Site ${i + 1} latitude`}
-                    unit="°"
-                  ></sf-number-field>
-                </td>
-                <td>
-                  <sf-number-field
-                    compact
-                    .store=${s}
-                    path=${`sites[${i}].lon`}
-                    label=${`Site ${i + 1} longitude`}
-                    unit="°"
-                  ></sf-number-field>
-                </td>
-                <td>
-                  <sf-number-field
-                    compact
-                    optional
-                    .store=${s}
-                    path=${`sites[${i}].elevation_m`}
-                    label=${`Site ${i + 1} ground elevation`}
-                    kind="length"
-                  ></sf-number-field>
-                </td>
-                <td>
-                  <sf-number-field
-                    compact
-                    optional
-                    .store=${s}
-                    path=${`sites[${i}].tolerance_m`}
-                    label=${`Site ${i + 1} tolerance`}
-                    kind="length"
-                  ></sf-number-field>
-                </td>
+                ${cell(i, 'lat', 'latitude', 'plain', '°')}
+                ${cell(i, 'lon', 'longitude', 'plain', '°')}
+                ${cell(i, 'elevation_m', 'ground elevation', 'length', '', true)}
+                ${cell(i, 'tolerance_m', 'tolerance', 'length', '', true)}
                 <td>
                   <select
                     aria-label=${`Site ${i + 1} variant`}

@@ -53,8 +53,7 @@ export class SfVariantsPanel extends LitElement {
   }
 
   private variants(): Variant[] {
-    const l = this.store?.get('variants');
-    return Array.isArray(l) ? (l as Variant[]) : [];
+    return this.store?.list<Variant>('variants') ?? [];
   }
 
   private add(): void {

@@ -35,8 +35,7 @@ export class SfWindPanel extends LitElement {
   }
 
   private layers(): WindLayer[] {
-    const l = this.store?.get('winds.layers');
-    return Array.isArray(l) ? (l as WindLayer[]) : [];
+    return this.store?.list<WindLayer>('winds.layers') ?? [];
   }
 
   private add(): void {
