@@ -6,6 +6,7 @@ import { airAt } from './atmosphere';
 import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
 import { SoundingAtmosphere } from './sounding-atmosphere';
+import { hodographSvg } from './wind-plots';
 import { M_PER_FT, MPS_PER_KT } from './constants';
 import { formatDMS, formatUTM, toMGRS } from './coords';
 import { WMM_VALIDITY } from './declination';
@@ -288,7 +289,8 @@ ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 <p class="small">Below the lowest layer the speed follows a power law with α = ${f(plan.winds.surfaceExponent, 3)}. Wind error σ ${f(u.windSpeed_mps)} m/s per component, correlated over ${f(u.windCorrelation_m, 0)} m.</p></div>
 <div><h2>Atmosphere</h2>${atmosphereText(plan, msl)}
 <h2>Uncertainty (1σ)</h2><p>Descent rate ${f(u.descentRate_pct)} %, release position ${f(u.releasePosition_m)} m, heading ${f(u.heading_deg)}°, release timing ${f(u.releaseTiming_s)} s.</p></div></section>
-<section class="figure"><h3>Wind profile</h3>${windPlotSvg(plan, result)}</section>
+<section class="figure"><h3>Wind profile</h3>${windPlotSvg(plan, result)}
+<h3>Hodograph</h3>${hodographSvg(plan, { releaseAltitudeMSL_m: result.releaseAltitudeMSL_m, width_px: 400, height_px: 380 })}</section>
 ${safetySection(opts.safety)}
 ${hazardSection(opts.safety)}
 <div class="caution">CAUTION — ${esc(CAUTION_TEXT)}</div>

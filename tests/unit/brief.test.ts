@@ -39,6 +39,11 @@ describe('the drop brief', () => {
     }
   });
 
+  it('draws the wind profile and the hodograph', () => {
+    expect(html).toContain('aria-label="Wind profile"');
+    expect(html).toContain('aria-label="Hodograph"');
+  });
+
   it('carries the caution, the declination with its model, and sign-off lines', () => {
     expect(html).toContain('airspace authorisation');
     expect(html).toContain('WMM-2025');
