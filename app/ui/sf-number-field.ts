@@ -1,4 +1,4 @@
-import { LitElement, css, html } from 'lit';
+import { LitElement, css, html, type TemplateResult } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import {
   fromDisplayLength,
@@ -154,4 +154,32 @@ export class SfNumberField extends LitElement {
         ${msg ?? ''}
       </div>`;
   }
+}
+
+/** Options of numberField(). */
+export interface NumberFieldOptions {
+  kind?: FieldKind;
+  unit?: string;
+  optional?: boolean;
+  placeholder?: string;
+  compact?: boolean;
+}
+
+/** An <sf-number-field> bound to a plan path: the one way the panels place number inputs. */
+export function numberField(
+  store: PlanStore,
+  path: string,
+  label: string,
+  o: NumberFieldOptions = {},
+): TemplateResult {
+  return html`<sf-number-field
+    .store=${store}
+    path=${path}
+    label=${label}
+    kind=${o.kind ?? 'plain'}
+    unit=${o.unit ?? ''}
+    placeholder=${o.placeholder ?? ''}
+    ?optional=${o.optional ?? false}
+    ?compact=${o.compact ?? false}
+  ></sf-number-field>`;
 }

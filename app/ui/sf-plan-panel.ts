@@ -4,7 +4,7 @@ import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
 import './sf-coord-field';
-import './sf-number-field';
+import { numberField } from './sf-number-field';
 import './sf-text-field';
 
 const REF: [string, string][] = [
@@ -49,15 +49,7 @@ export class SfPlanPanel extends LitElement {
       kind: 'length' | 'speed' | 'plain' = 'plain',
       unit = '',
       optional = true,
-    ) =>
-      html`<sf-number-field
-        .store=${s}
-        path=${path}
-        label=${label}
-        kind=${kind}
-        unit=${unit}
-        ?optional=${optional}
-      ></sf-number-field>`;
+    ) => numberField(s, path, label, { kind, unit, optional });
     return html`
       <h3>Plan</h3>
       <section>

@@ -7,7 +7,7 @@ import { DEFAULT_MANUAL_ITEMS } from '../core/readiness';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
-import './sf-number-field';
+import { numberField } from './sf-number-field';
 
 const STATE_LABEL: Record<string, string> = {
   pass: 'pass',
@@ -378,15 +378,7 @@ export class SfSafetyPanel extends LitElement {
       def: string,
       kind: 'length' | 'plain' = 'length',
     ) =>
-      html`<sf-number-field
-        .store=${s}
-        path=${path}
-        label=${label}
-        kind=${kind}
-        unit=${unit}
-        placeholder=${`${def} (default)`}
-        optional
-      ></sf-number-field>`;
+      numberField(s, path, label, { kind, unit, optional: true, placeholder: `${def} (default)` });
     return html`
       <p class="caution" role="note">${CAUTION_TEXT}</p>
       ${this.renderState()}

@@ -6,7 +6,7 @@ import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
 import './sf-coord-field';
-import './sf-number-field';
+import { numberField } from './sf-number-field';
 
 /** Next free site id of the form s01, s02, … */
 export function nextSiteId(sites: { id?: unknown }[]): string {
@@ -134,15 +134,7 @@ export class SfSitesPanel extends LitElement {
       optional = false,
     ) =>
       html`<td>
-        <sf-number-field
-          compact
-          ?optional=${optional}
-          .store=${s}
-          path=${`sites[${i}].${key}`}
-          label=${`Site ${i + 1} ${what}`}
-          kind=${kind}
-          unit=${unit}
-        ></sf-number-field>
+        ${numberField(s, `sites[${i}].${key}`, `Site ${i + 1} ${what}`, { kind, unit, optional, compact: true })}
       </td>`;
     return html`
       <h3>Sensor sites (${sites.length})</h3>

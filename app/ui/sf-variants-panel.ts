@@ -4,7 +4,7 @@ import type { Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { StoreController } from './store-controller';
-import './sf-number-field';
+import { numberField } from './sf-number-field';
 import './sf-text-field';
 
 const GUIDANCE: [string, string][] = [
@@ -92,15 +92,7 @@ export class SfVariantsPanel extends LitElement {
       kind: 'length' | 'speed' | 'plain',
       unit = '',
       optional = true,
-    ) =>
-      html`<sf-number-field
-        .store=${s}
-        path=${`variants[${i}].${key}`}
-        label=${label}
-        kind=${kind}
-        unit=${unit}
-        ?optional=${optional}
-      ></sf-number-field>`;
+    ) => numberField(s, `variants[${i}].${key}`, label, { kind, unit, optional });
     return html`
       <h3>Vehicle variants</h3>
       <p class="muted">

@@ -4,7 +4,7 @@ import type { WindLayer } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
-import './sf-number-field';
+import { numberField } from './sf-number-field';
 import './sf-text-field';
 
 /** The wind layers of the plan: altitude, from-direction (° true) and speed, editable in place. */
@@ -88,31 +88,22 @@ export class SfWindPanel extends LitElement {
             (_, i) =>
               html`<tr data-layer=${i}>
                 <td>
-                  <sf-number-field
-                    compact
-                    .store=${s}
-                    path=${`winds.layers[${i}].altitude_m`}
-                    label=${`Layer ${i + 1} altitude`}
-                    kind="length"
-                  ></sf-number-field>
+                  ${numberField(s, `winds.layers[${i}].altitude_m`, `Layer ${i + 1} altitude`, {
+                    kind: 'length',
+                    compact: true,
+                  })}
                 </td>
                 <td>
-                  <sf-number-field
-                    compact
-                    .store=${s}
-                    path=${`winds.layers[${i}].fromDeg`}
-                    label=${`Layer ${i + 1} direction from`}
-                    unit="°"
-                  ></sf-number-field>
+                  ${numberField(s, `winds.layers[${i}].fromDeg`, `Layer ${i + 1} direction from`, {
+                    unit: '°',
+                    compact: true,
+                  })}
                 </td>
                 <td>
-                  <sf-number-field
-                    compact
-                    .store=${s}
-                    path=${`winds.layers[${i}].speed_mps`}
-                    label=${`Layer ${i + 1} speed`}
-                    kind="speed"
-                  ></sf-number-field>
+                  ${numberField(s, `winds.layers[${i}].speed_mps`, `Layer ${i + 1} speed`, {
+                    kind: 'speed',
+                    compact: true,
+                  })}
                 </td>
                 <td class="act">
                   <button

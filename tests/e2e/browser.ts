@@ -1,5 +1,5 @@
 import { mkdirSync } from 'node:fs';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../app/print-pdf';
 
 /** Debian's Chromium, started as the probe on these machines starts it (see DEVELOPERS.md). */
@@ -24,4 +24,28 @@ export function watchErrors(page: Page): string[] {
 export async function shot(page: Page, name: string): Promise<void> {
   mkdirSync('test-output', { recursive: true });
   await page.screenshot({ path: `test-output/${name}.png` });
+}
+
+/**
+ * A fresh browser profile (empty storage) on the app, with long tasks recorded in
+ * `window.longTasks`, once the first planning result is shown.
+ */
+export async function openApp(
+  browser: Browser,
+  baseUrl: string,
+  viewport = { width: 1280, height: 800 },
+): Promise<{ context: BrowserContext; page: Page; errors: string[] }> {
+  const context = await browser.newContext({ viewport });
+  await context.addInitScript(() => {
+    const w = window as unknown as { longTasks: number[] };
+    w.longTasks = [];
+    new PerformanceObserver((list) => {
+      for (const e of list.getEntries()) w.longTasks.push(e.duration);
+    }).observe({ type: 'longtask', buffered: true });
+  });
+  const page = await context.newPage();
+  const errors = watchErrors(page);
+  await page.goto(baseUrl);
+  await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+  return { context, page, errors };
 }

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { validatePlan } from '../../app/core/validate';
-import { launch, shot, watchErrors } from './browser';
+import { launch, openApp, shot } from './browser';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -21,20 +21,9 @@ afterEach(async () => {
   await context?.close();
 });
 
-/** A fresh browser profile (empty storage) on the app, waiting for the first planning result. */
+/** A fresh browser profile on the app, waiting for the first planning result. */
 async function open(viewport = { width: 1280, height: 800 }): Promise<void> {
-  context = await browser.newContext({ viewport });
-  await context.addInitScript(() => {
-    const w = window as unknown as { longTasks: number[] };
-    w.longTasks = [];
-    new PerformanceObserver((list) => {
-      for (const e of list.getEntries()) w.longTasks.push(e.duration);
-    }).observe({ type: 'longtask', buffered: true });
-  });
-  page = await context.newPage();
-  errors = watchErrors(page);
-  await page.goto(inject('baseUrl'));
-  await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+  ({ context, page, errors } = await openApp(browser, inject('baseUrl'), viewport));
 }
 
 /** Waits until planning has caught up with the last edit. */

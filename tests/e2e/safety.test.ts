@@ -1,6 +1,6 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launch, shot, watchErrors } from './browser';
+import { launch, openApp, shot } from './browser';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -18,11 +18,7 @@ afterEach(async () => {
 });
 
 async function open(): Promise<void> {
-  context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
-  page = await context.newPage();
-  errors = watchErrors(page);
-  await page.goto(inject('baseUrl'));
-  await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+  ({ context, page, errors } = await openApp(browser, inject('baseUrl')));
   await page.locator('[data-tab=safety]').click();
   await page.locator('sf-safety-panel [data-check]').first().waitFor();
 }
