@@ -7,6 +7,8 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import {
+  altitudeSweep,
+  sweepHeightsAGL,
   briefHtml,
   briefSafety,
   CAUTION_TEXT,
@@ -20,6 +22,7 @@ import {
   validatePlan,
   type Plan,
   type PlanResult,
+  type SweepPoint,
 } from './core/index';
 
 type Command = 'plan' | 'brief' | 'export';
@@ -34,17 +37,20 @@ interface Args {
   out?: string;
   pdf?: string;
   paper: 'A4' | 'Letter';
+  /** SITE or SITE:VARIANT for the brief's P(hit)-against-altitude plot. */
+  sweep?: string;
 }
 
 const USAGE = `usage:
   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
+                             [--sweep SITE[:VARIANT]]
   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>]
 `;
 
 const OPTIONS: Record<Command, string[]> = {
   plan: ['--format', '--samples', '--seed'],
-  brief: ['--out', '--pdf', '--paper', '--samples', '--seed'],
+  brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep'],
   export: ['--format', '--out', '--samples', '--seed'],
 };
 
@@ -95,6 +101,8 @@ function parseArgs(argv: string[]): Args {
       }
       if (a === '--samples') args.samples = n;
       else args.seed = n;
+    } else if (a === '--sweep') {
+      args.sweep = value();
     } else if (a === '--out') {
       args.out = value();
     } else if (a === '--pdf') {
@@ -182,7 +190,27 @@ async function main(): Promise<void> {
     return;
   }
 
+  let sweep: { title: string; points: SweepPoint[] } | undefined;
+  if (args.sweep) {
+    const [siteId, variantArg] = args.sweep.split(':');
+    const site = result.sites.find((x) => x.id === siteId);
+    if (!site)
+      fail(`--sweep: no site "${siteId}" (known: ${result.sites.map((x) => x.id).join(', ')})`, 1);
+    const variantId = variantArg ?? site.variant;
+    if (!plan.variants.some((v) => v.id === variantId)) {
+      fail(
+        `--sweep: no variant "${variantId}" (known: ${plan.variants.map((v) => v.id).join(', ')})`,
+        1,
+      );
+    }
+    const heights = sweepHeightsAGL(plan, result.releaseAltitudeMSL_m);
+    sweep = {
+      title: `${siteId} · ${variantId}`,
+      points: altitudeSweep(plan, siteId, variantId, heights),
+    };
+  }
   const html = briefHtml(plan, result, {
+    sweep,
     paper: args.paper,
     safety: briefSafety(planSafety(plan, result)),
   });

@@ -6,7 +6,7 @@ import { airAt } from './atmosphere';
 import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
 import { SoundingAtmosphere } from './sounding-atmosphere';
-import { hodographSvg } from './wind-plots';
+import { hodographSvg, sweepSvg, type SweepPoint } from './wind-plots';
 import { M_PER_FT, MPS_PER_KT } from './constants';
 import { formatDMS, formatUTM, toMGRS } from './coords';
 import { WMM_VALIDITY } from './declination';
@@ -36,6 +36,8 @@ export interface BriefOptions {
   generatedAt?: Date;
   /** Adds a screen-only bar with a Print button (the app's print view). */
   printBar?: boolean;
+  /** P(hit) and CEP against release altitude for one site and variant (wind-plots.altitudeSweep). */
+  sweep?: { title: string; points: SweepPoint[] };
 }
 
 const f = (v: number | null | undefined, d = 1): string =>
@@ -290,6 +292,7 @@ ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 <div><h2>Atmosphere</h2>${atmosphereText(plan, msl)}
 <h2>Uncertainty (1σ)</h2><p>Descent rate ${f(u.descentRate_pct)} %, release position ${f(u.releasePosition_m)} m, heading ${f(u.heading_deg)}°, release timing ${f(u.releaseTiming_s)} s.</p></div></section>
 <section class="figure"><h3>Wind profile</h3>${windPlotSvg(plan, result)}
+${opts.sweep ? `<h3>P(hit) and CEP against release altitude</h3>${sweepSvg(opts.sweep.points, { requiredPHit: plan.requiredPHit, title: opts.sweep.title })}` : ''}
 <h3>Hodograph</h3>${hodographSvg(plan, { releaseAltitudeMSL_m: result.releaseAltitudeMSL_m, width_px: 400, height_px: 380 })}</section>
 ${safetySection(opts.safety)}
 ${hazardSection(opts.safety)}

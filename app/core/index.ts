@@ -176,6 +176,7 @@ export {
 // Wind hodograph and release-altitude sweep (SVG strings for the brief and the UI).
 export {
   altitudeSweep,
+  sweepHeightsAGL,
   hodographSvg,
   hodographTrace,
   sweepSvg,

@@ -189,6 +189,12 @@ export function altitudeSweep(
   });
 }
 
+/** Release heights above plan ground for a sweep: 0.4 to 2 times the planned one. */
+export function sweepHeightsAGL(plan: Plan, releaseAltitudeMSL_m: number): number[] {
+  const agl = releaseAltitudeMSL_m - plan.groundElevation_m;
+  return [0.4, 0.55, 0.7, 0.85, 1, 1.2, 1.4, 1.7, 2].map((k) => Math.round(agl * k));
+}
+
 export interface SweepSvgOptions {
   width_px?: number;
   height_px?: number;

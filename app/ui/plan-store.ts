@@ -2,6 +2,7 @@ import { parseCoordinate } from '../core/coords';
 import type { Plan } from '../core/plan';
 import type { PlanSafety } from '../core/plan-safety';
 import type { PlanResult } from '../core/planner';
+import type { SweepPoint } from '../core/wind-plots';
 import { DEFAULT_UNITS, type UnitPrefs } from '../core/units';
 import { allowedRange, validatePlan, type PlanIssue } from '../core/validate';
 import type { WorkerReply } from '../worker/protocol';
@@ -42,6 +43,8 @@ export class PlanStore extends EventTarget {
   /** The last plan that validated; results belong to it. */
   plan: Plan | null = null;
   result: PlanResult | null = null;
+  /** The last altitude sweep and the plan it was computed for (printed in the brief). */
+  sweep: { title: string; points: SweepPoint[]; plan: Plan } | null = null;
   /** The plan `result` was computed from (exports and the brief use this pair). */
   resultPlan: Plan | null = null;
   /** Safety checks of `result` (computed with it in the worker). */

@@ -294,6 +294,7 @@ export class SeedfallApp extends LitElement {
       paper: s.settings.paper,
       printBar: true,
       safety: s.safety ? briefSafety(s.safety) : undefined,
+      sweep: s.sweep && s.sweep.plan === pair.plan ? s.sweep : undefined,
     });
     const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));
     const w = window.open(url, '_blank');

@@ -4,7 +4,7 @@ import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
 import { windPlotSvg } from '../core/brief-svg';
 import type { TimelineEntry } from '../core/forecast-series';
 import { timelineSvg } from '../core/timeline-svg';
-import { hodographSvg, sweepSvg, type SweepPoint } from '../core/wind-plots';
+import { hodographSvg, sweepHeightsAGL, sweepSvg, type SweepPoint } from '../core/wind-plots';
 import type { SweepReply, SweepRequest } from '../worker/sweep-worker';
 import type { WindLayer } from '../core/plan';
 import { importSounding } from '../core/sounding-csv';
@@ -210,8 +210,7 @@ export class SfWindSources extends LitElement {
     const variant =
       this.sweepVariant || r.sites.find((x) => x.id === site)?.variant || plan.variants[0]?.id;
     if (!site || !variant) return;
-    const agl = r.releaseAltitudeMSL_m - plan.groundElevation_m;
-    const altitudes = [0.4, 0.55, 0.7, 0.85, 1, 1.2, 1.4, 1.7, 2].map((k) => Math.round(agl * k));
+    const altitudes = sweepHeightsAGL(plan, r.releaseAltitudeMSL_m);
     const key = `${site} · ${variant}`;
     this.ask(
       {
@@ -223,7 +222,11 @@ export class SfWindSources extends LitElement {
         altitudesAGL_m: altitudes,
       },
       (reply) => {
-        if ('points' in reply) this.sweep = { key, points: reply.points };
+        if ('points' in reply) {
+          this.sweep = { key, points: reply.points };
+          // The brief prints this plot while the plan stays as it was swept.
+          s.sweep = { title: key, points: reply.points, plan };
+        }
       },
     );
   }

@@ -93,6 +93,26 @@ describe('the brief from the command line', () => {
     const text = readFileSync(out, 'utf8');
     expect(text.startsWith('<!doctype html>')).toBe(true);
     expect(text).toContain('Release schedule');
+    expect(text).not.toContain('against release altitude');
+    // With --sweep the brief adds the P(hit)/CEP-against-altitude plot for that site.
+    execFileSync(
+      'node_modules/.bin/tsx',
+      [
+        'app/cli.ts',
+        'brief',
+        'data/demo-plan.json',
+        '--out',
+        out,
+        '--samples',
+        '200',
+        '--sweep',
+        's02',
+      ],
+      { stdio: 'pipe' },
+    );
+    const withSweep = readFileSync(out, 'utf8');
+    expect(withSweep).toContain('P(hit) and CEP against release altitude');
+    expect(withSweep).toContain('s02 · plain-drifter');
     const bad = join(dir, 'bad.json');
     writeFileSync(bad, '{"format":"seedfall-plan","version":1}');
     let err = '';
