@@ -181,7 +181,7 @@ async function main(): Promise<void> {
       args.format === 'geojson'
         ? `${JSON.stringify(toGeoJSON(plan, result, { hazardArea: safety.hazardArea }), null, 1)}\n`
         : args.format === 'kml'
-          ? toKML(plan, result)
+          ? toKML(plan, result, { hazardArea: safety.hazardArea })
           : args.format === 'gpx'
             ? toGPX(plan, result)
             : toScheduleCSV(plan, result);

@@ -319,6 +319,7 @@ const STYLES: Record<string, string> = {
   'sf-window': `<LineStyle><color>${kmlColor('#c2410c', 0.8)}</color><width>6</width></LineStyle>`,
   'sf-zone': `<LineStyle><color>${kmlColor('#c2410c')}</color><width>2</width></LineStyle><PolyStyle><color>${kmlColor('#c2410c', 0.08)}</color></PolyStyle>`,
   'sf-track': `<LineStyle><color>${kmlColor('#334155')}</color><width>2</width></LineStyle>`,
+  'sf-hazard': `<LineStyle><color>${kmlColor('#b42318')}</color><width>2.5</width></LineStyle><PolyStyle><color>${kmlColor('#b42318', 0.08)}</color></PolyStyle>`,
 };
 
 const kmlCoords = (ps: Position[]): string => ps.map((p) => `${p[0]},${p[1]}`).join(' ');
@@ -362,6 +363,7 @@ const FOLDERS: [string, string[]][] = [
   ['Reach areas', ['reach']],
   ['Release windows', ['window', 'zone']],
   ['Track', ['track']],
+  ['Hazard area', ['hazard']],
 ];
 
 const KIND_TITLE: Record<string, string> = {
@@ -374,8 +376,8 @@ const KIND_TITLE: Record<string, string> = {
 };
 
 /** KML 2.2 document with one Folder per layer; numbers in ExtendedData and descriptions. */
-export function toKML(plan: Plan, result: PlanResult): string {
-  const fc = toGeoJSON(plan, result);
+export function toKML(plan: Plan, result: PlanResult, opts: GeoJSONOptions = {}): string {
+  const fc = toGeoJSON(plan, result, opts);
   const byId = new Map(result.sites.map((s) => [s.id, s]));
   const body = FOLDERS.map(([title, kinds]) => {
     const marks = fc.features
@@ -390,6 +392,15 @@ export function toKML(plan: Plan, result: PlanResult): string {
         }
         if (kind === 'release' && r)
           return placemark(`R-${r.id}`, releaseText(r), 'sf-release', p, f.geometry);
+        if (kind === 'hazard') {
+          return placemark(
+            'Hazard area — keep people clear',
+            'hazard area of the plan',
+            'sf-hazard',
+            p,
+            f.geometry,
+          );
+        }
         if (kind === 'track') {
           const text = `carrier track ${String(p.trackDeg)}° true at ${String(p.groundSpeed_mps)} m/s, ${signed(Number(p.from_s))} to ${signed(Number(p.to_s))} about the plan's release point`;
           return placemark('Carrier track', text, 'sf-track', p, f.geometry);

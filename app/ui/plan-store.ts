@@ -31,6 +31,17 @@ export interface FieldText {
 type Draft = Record<string, unknown>;
 
 /**
+ * A plan opened without a release time gets the current time written into it, so the time (and
+ * with it declination, daylight and the sign-off fingerprint) stays put until the user changes it.
+ */
+function withTime(d: Draft): Draft {
+  if (d.time !== undefined) return d;
+  const now = new Date();
+  now.setSeconds(0, 0);
+  return { ...d, time: now.toISOString().replace('.000Z', 'Z') };
+}
+
+/**
  * The one place the app's state lives: the plan being edited (possibly invalid), text that could
  * not be read yet, validation issues, undo/redo history, autosave, and the latest planning result
  * from the worker. Components listen to its 'change' event.
@@ -76,7 +87,9 @@ export class PlanStore extends EventTarget {
     super();
     this.settings = this.loadSettings();
     const saved = this.read(DRAFT_KEY);
-    this.draft = saved && typeof saved === 'object' ? (saved as Draft) : structuredClone(fallback);
+    this.draft = withTime(
+      saved && typeof saved === 'object' ? (saved as Draft) : structuredClone(fallback),
+    );
     this.committed = JSON.stringify(this.draft);
     this.revalidate();
   }
@@ -180,7 +193,7 @@ export class PlanStore extends EventTarget {
   /** Replaces the whole plan (open file, load demo) as one undo step. */
   replace(draft: Draft, notice?: string): void {
     this.texts.clear();
-    this.draft = structuredClone(draft);
+    this.draft = withTime(structuredClone(draft));
     this.commit();
     if (notice) this.notice = { kind: 'info', text: notice };
     this.changed(0);

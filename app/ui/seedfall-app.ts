@@ -316,7 +316,11 @@ export class SeedfallApp extends LitElement {
         'application/geo+json',
         `${base}.geojson`,
       ],
-      kml: [toKML(plan, result), 'application/vnd.google-earth.kml+xml', `${base}.kml`],
+      kml: [
+        toKML(plan, result, hazard ? { hazardArea: hazard } : {}),
+        'application/vnd.google-earth.kml+xml',
+        `${base}.kml`,
+      ],
       gpx: [toGPX(plan, result), 'application/gpx+xml', `${base}.gpx`],
       csv: [toScheduleCSV(plan, result), 'text/csv', `${base}-schedule.csv`],
       sites: [toSitesCSV(plan), 'text/csv', `${base}-sites.csv`],

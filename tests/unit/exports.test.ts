@@ -198,6 +198,7 @@ describe('KML export', () => {
       'Reach areas',
       'Release windows',
       'Track',
+      'Hazard area',
     ]);
     const sites = back.features.filter((f) => f.properties?.kind === 'site');
     expect(sites).toHaveLength(plan.sites.length);
@@ -208,6 +209,14 @@ describe('KML export', () => {
     });
     // Text from the plan is escaped and comes back unchanged.
     expect(sites[0].properties?.name).toBe('Reed, "North" margin & <edge>');
+  });
+
+  it('carries the hazard area as a polygon placemark when given', () => {
+    const doc = xml(toKML(plan, result, { hazardArea: hazardArea(result, 20).feature }));
+    const back = kmlToGeoJSON(doc);
+    const hz = back.features.filter((f) => f.properties?.kind === 'hazard');
+    expect(hz).toHaveLength(1);
+    expect(['Polygon', 'MultiPolygon', 'GeometryCollection']).toContain(hz[0].geometry?.type);
   });
 
   it('uses aabbggrr colours on its own styles (KML 2.2 kml:color)', () => {

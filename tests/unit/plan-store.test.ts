@@ -88,3 +88,18 @@ describe('the plan store', () => {
     expect(w.sent.length).toBe(2);
   });
 });
+
+describe('a plan opened without a release time', () => {
+  it('gets the current time written in once, so later validations keep the same time', () => {
+    const d = structuredClone(demo) as Record<string, unknown>;
+    delete d.time;
+    const s = new PlanStore(d, memoryStorage());
+    const t = s.get('time');
+    expect(typeof t).toBe('string');
+    // Within a minute of now (the time is written to the whole minute).
+    expect(Math.abs(Date.parse(t as string) - Date.now())).toBeLessThan(61_000);
+    s.edit('name', 'later edit');
+    expect(s.get('time')).toBe(t);
+    expect(s.plan?.time).toBe(t);
+  });
+});
