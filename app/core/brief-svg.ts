@@ -5,7 +5,7 @@
 import { LocalFrame, type LatLon } from './geodesy';
 import type { Plan } from './plan';
 import type { PlanResult } from './planner';
-import { WindProfile, windFromComponents } from './wind';
+import { planWindProfile, windFromComponents } from './wind';
 
 /** Escapes text for HTML and SVG. */
 export function esc(text: unknown): string {
@@ -215,11 +215,7 @@ export function windPlotSvg(
   height_px = 260,
 ): string {
   const ground = plan.groundElevation_m;
-  const wind = new WindProfile(plan.winds.layers, {
-    reference: plan.winds.reference,
-    groundElevation_m: ground,
-    surfaceExponent: plan.winds.surfaceExponent,
-  });
+  const wind = planWindProfile(plan);
   const relAgl = result.releaseAltitudeMSL_m - ground;
   const layerAgl = plan.winds.layers.map((l) =>
     plan.winds.reference === 'AGL' ? l.altitude_m : l.altitude_m - ground,

@@ -63,7 +63,14 @@ export {
 export { formatPlanText } from './report-text';
 export { Rng, streamSeed } from './rng';
 export { validatePlan, type PlanIssue, type PlanValidation } from './validate';
-export { WindProfile, windComponents, windFromComponents, type WindVector } from './wind';
+export {
+  planWindOptions,
+  planWindProfile,
+  WindProfile,
+  windComponents,
+  windFromComponents,
+  type WindVector,
+} from './wind';
 export {
   briefHtml,
   briefTimes,

@@ -15,7 +15,7 @@ import type { Plan, ResolvedSite, ResolvedVariant } from './plan';
 import { bestShift, bisectEdge, hitProfile, runAround } from './release-window';
 import { hashLabel, Rng, streamSeed } from './rng';
 import { SoundingAtmosphere } from './sounding-atmosphere';
-import { WindProfile } from './wind';
+import { planWindProfile, type WindProfile } from './wind';
 
 const DEG = Math.PI / 180;
 
@@ -331,11 +331,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   const ctx: Context = {
     plan,
     frame: new LocalFrame(plan.release),
-    wind: new WindProfile(plan.winds.layers, {
-      reference: plan.winds.reference,
-      groundElevation_m: ground,
-      surfaceExponent: plan.winds.surfaceExponent,
-    }),
+    wind: planWindProfile(plan),
     top_m,
     unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
     speed: plan.carrier.groundSpeed_mps,

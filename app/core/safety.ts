@@ -12,7 +12,7 @@ import { circumscribed, clearance_m, hazardPieces, hazardArea } from './hazard-a
 import type { Plan, ResolvedVariant } from './plan';
 import { soundingDensity, type PlanResult } from './planner';
 import { civilTwilight, sunElevationDeg } from './sun';
-import { WindProfile } from './wind';
+import { planWindProfile } from './wind';
 
 const DEG = Math.PI / 180;
 
@@ -83,20 +83,12 @@ function usedVariants(plan: Plan, result: PlanResult): ResolvedVariant[] {
   return plan.variants.filter((v) => ids.has(v.id));
 }
 
-function windProfile(plan: Plan): WindProfile {
-  return new WindProfile(plan.winds.layers, {
-    reference: plan.winds.reference,
-    groundElevation_m: plan.groundElevation_m,
-    surfaceExponent: plan.winds.surfaceExponent,
-  });
-}
-
 /** Wind speeds (m/s) at release, at the surface, and the strongest between them. */
 export function windSpeeds(
   plan: Plan,
   result: PlanResult,
 ): { release_mps: number; surface_mps: number; surfaceHeight_m: number; max_mps: number } {
-  const wind = windProfile(plan);
+  const wind = planWindProfile(plan);
   const ground = plan.groundElevation_m;
   const top = result.releaseAltitudeMSL_m;
   const speed = (z: number): number => Math.hypot(wind.at(z).east_mps, wind.at(z).north_mps);

@@ -5,7 +5,7 @@
 import { esc, niceStep } from './brief-svg';
 import type { Plan } from './plan';
 import { planDrop } from './planner';
-import { WindProfile } from './wind';
+import { planWindProfile } from './wind';
 
 const r1 = (v: number): string => (Math.round(v * 10) / 10).toString();
 const r3 = (v: number): string => (Math.round(v * 1000) / 1000).toString();
@@ -37,11 +37,7 @@ export function hodographTrace(
   opts: { releaseAltitudeMSL_m?: number } = {},
 ): HodographTrace {
   const ground = plan.groundElevation_m;
-  const wind = new WindProfile(plan.winds.layers, {
-    reference: plan.winds.reference,
-    groundElevation_m: ground,
-    surfaceExponent: plan.winds.surfaceExponent,
-  });
+  const wind = planWindProfile(plan);
   const relMSL =
     opts.releaseAltitudeMSL_m ??
     plan.release.altitude_m + (plan.release.reference === 'AGL' ? ground : 0);

@@ -1,5 +1,5 @@
 import { DEFAULT_SURFACE_EXPONENT } from './constants';
-import type { AltitudeReference, WindLayer } from './plan';
+import type { AltitudeReference, Plan, WindLayer } from './plan';
 
 const DEG = Math.PI / 180;
 
@@ -102,4 +102,18 @@ export class WindProfile {
   breakpoints(): number[] {
     return Array.from(this.z);
   }
+}
+
+/** Options that read a plan's wind layers: its reference, ground elevation and surface exponent. */
+export function planWindOptions(plan: Plan): WindProfileOptions {
+  return {
+    reference: plan.winds.reference,
+    groundElevation_m: plan.groundElevation_m,
+    surfaceExponent: plan.winds.surfaceExponent,
+  };
+}
+
+/** The wind profile a plan's layers describe (docs/model.md §2). */
+export function planWindProfile(plan: Plan): WindProfile {
+  return new WindProfile(plan.winds.layers, planWindOptions(plan));
 }

@@ -2,6 +2,7 @@
 // Runs altitude sweeps and forecast timelines (many small plans) off the main thread.
 import type { Plan } from '../core/plan';
 import { ForecastSeries, pHitTimeline, type TimelineEntry } from '../core/forecast-series';
+import { planWindOptions } from '../core/wind';
 import { altitudeSweep, type SweepPoint } from '../core/wind-plots';
 
 export type SweepRequest =
@@ -41,11 +42,10 @@ self.onmessage = (ev: MessageEvent<SweepRequest>) => {
         time: f.time,
         layers: f.layers.map((l) => ({ ...l, altitude_m: l.altitude_m + shift(f.reference) })),
       }));
-      const series = new ForecastSeries([{ time: req.plan.time, layers: w.layers }, ...forecasts], {
-        reference: w.reference,
-        groundElevation_m: req.plan.groundElevation_m,
-        surfaceExponent: w.surfaceExponent,
-      });
+      const series = new ForecastSeries(
+        [{ time: req.plan.time, layers: w.layers }, ...forecasts],
+        planWindOptions(req.plan),
+      );
       post({ id, timeline: pHitTimeline(req.plan, series, { step_s: req.step_s }) });
     }
   } catch (e) {

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { airAt, densityAt } from '../../app/core/atmosphere';
 import { SoundingAtmosphere } from '../../app/core/sounding-atmosphere';
 import { expectClose } from './helpers';
+import ussa from '../fixtures/atmosphere/ussa1976.json';
 
 // U.S. Standard Atmosphere 1976: g0 = 9.80665 m/s², R = 287.05287 J/(kg·K), effective Earth radius
 // r0 = 6356766 m for geopotential altitude H = r0·z/(r0 + z) (eq. 18), so z = r0·H/(r0 − H).
@@ -12,15 +13,8 @@ const R0 = 6356766;
 const geometric = (H: number) => (R0 * H) / (R0 - H);
 const geopotential = (z: number) => (R0 * z) / (R0 + z);
 
-// U.S. Standard Atmosphere 1976 table (REFERENCES.md), geopotential altitude H.
-const USSA = [
-  { H: 0, T: 288.15, p: 101325.0, rho: 1.225 },
-  { H: 500, T: 284.9, p: 95460.8, rho: 1.16727 },
-  { H: 1000, T: 281.65, p: 89874.6, rho: 1.11164 },
-  { H: 2000, T: 275.15, p: 79495.2, rho: 1.00649 },
-  { H: 3000, T: 268.65, p: 70108.5, rho: 0.90912 },
-  { H: 5000, T: 255.65, p: 54019.9, rho: 0.73612 },
-];
+// U.S. Standard Atmosphere 1976 table (REFERENCES.md), geopotential altitude H: the fixture.
+const USSA = ussa.rows;
 
 describe('hydrostatic density from a sounding', () => {
   // A standard sounding: T = 288.15 − 0.0065·H K every 1000 geopotential m (USSA 1976 troposphere),
