@@ -1,7 +1,12 @@
 import type { TestProject } from 'vitest/node';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { build, preview, type PreviewServer } from 'vite';
 
 let server: PreviewServer | undefined;
+// Each run builds into its own folder, so two runs side by side never serve each other's bundle.
+let outDir: string | undefined;
 
 /** Builds the app once and serves it on a free localhost port for every browser test. */
 export async function setup(project: TestProject): Promise<void> {
@@ -10,12 +15,14 @@ export async function setup(project: TestProject): Promise<void> {
   const env = process.env.NODE_ENV;
   process.env.NODE_ENV = 'production';
   try {
-    await build({ logLevel: 'warn', mode: 'production' });
+    outDir = mkdtempSync(join(tmpdir(), 'seedfall-e2e-'));
+    await build({ logLevel: 'warn', mode: 'production', build: { outDir, emptyOutDir: true } });
   } finally {
     process.env.NODE_ENV = env;
   }
   server = await preview({
     preview: { port: 0, host: '127.0.0.1', open: false },
+    build: { outDir },
     logLevel: 'warn',
   });
   const url = server.resolvedUrls?.local[0];
@@ -25,6 +32,7 @@ export async function setup(project: TestProject): Promise<void> {
 
 export async function teardown(): Promise<void> {
   await server?.close();
+  if (outDir) rmSync(outDir, { recursive: true, force: true });
 }
 
 declare module 'vitest' {
