@@ -2,10 +2,12 @@
  * Planning results as Leaflet layers: reach areas, nominal landings, 50 % and 95 % landing
  * ellipses, release windows on the carrier track and hover release zones. Every shape carries a
  * class `sf-<kind>` (so a person, or a test, can count them) and a tooltip saying what it is.
+ * Tooltips hold site and variant ids from files, so they are built from text nodes (tooltip.ts).
  */
 import L from 'leaflet';
 import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../core/planner';
 import { circleRing, ellipseRing, trackSegment } from './geometry';
+import { lazyTip } from './tooltip';
 
 export type ShapeKind = 'reach' | 'landing' | 'ellipse50' | 'ellipse95' | 'window' | 'zone';
 
@@ -80,8 +82,11 @@ export function buildResultLayers(
           className: 'sf-reach',
         })
           .bindTooltip(
-            `Reach area · ${who}<br>radius ${fmt.length(v.reachRadius_m)} about the uncontrolled landing` +
-              `<br>site ${v.reachable ? 'reachable' : 'NOT reachable'} (miss ${fmt.length(v.nominalMiss_m)})`,
+            lazyTip(
+              `Reach area · ${who}`,
+              `radius ${fmt.length(v.reachRadius_m)} about the uncontrolled landing`,
+              `site ${v.reachable ? 'reachable' : 'NOT reachable'} (miss ${fmt.length(v.nominalMiss_m)})`,
+            ),
             { sticky: true },
           )
           .addTo(group);
@@ -90,8 +95,11 @@ export function buildResultLayers(
         const e = v.ellipse95;
         ellipseLayer(e, 0.3, { color: c, weight: 1.5, fillOpacity: 0.1, className: 'sf-ellipse95' })
           .bindTooltip(
-            `95 % landing ellipse · ${who}<br>${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}, ` +
-              `major axis ${Math.round(e.azimuth_deg)}°<br>P(hit) ${v.pHit.toFixed(2)} · CEP ${fmt.length(v.cep_m)}`,
+            lazyTip(
+              `95 % landing ellipse · ${who}`,
+              `${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}, major axis ${Math.round(e.azimuth_deg)}°`,
+              `P(hit) ${v.pHit.toFixed(2)} · CEP ${fmt.length(v.cep_m)}`,
+            ),
             { sticky: true },
           )
           .addTo(group);
@@ -100,7 +108,10 @@ export function buildResultLayers(
         const e = v.ellipse50;
         ellipseLayer(e, 0.2, { color: c, weight: 1, fillOpacity: 0.3, className: 'sf-ellipse50' })
           .bindTooltip(
-            `50 % landing ellipse · ${who}<br>${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}`,
+            lazyTip(
+              `50 % landing ellipse · ${who}`,
+              `${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}`,
+            ),
             { sticky: true },
           )
           .addTo(group);
@@ -115,7 +126,10 @@ export function buildResultLayers(
           className: 'sf-landing',
         })
           .bindTooltip(
-            `Uncontrolled landing · ${who}<br>fall ${f1(v.fallTime_s)} s · release ${signed(release(v).time_s)}`,
+            lazyTip(
+              `Uncontrolled landing · ${who}`,
+              `fall ${f1(v.fallTime_s)} s · release ${signed(release(v).time_s)}`,
+            ),
           )
           .addTo(group);
       }
@@ -129,9 +143,11 @@ export function buildResultLayers(
           w.open_s,
           w.close_s,
         );
-        const tip =
-          `Release window · ${who}<br>opens ${signed(w.open_s)}, closes ${signed(w.close_s)} ` +
-          `(relative to passing the release point)<br>best ${signed(w.best_s)} · P(hit) ${v.pHit.toFixed(2)}`;
+        const tip = lazyTip(
+          `Release window · ${who}`,
+          `opens ${signed(w.open_s)}, closes ${signed(w.close_s)} (relative to passing the release point)`,
+          `best ${signed(w.best_s)} · P(hit) ${v.pHit.toFixed(2)}`,
+        );
         L.polyline(line, {
           color: c,
           weight: 7,
@@ -153,7 +169,7 @@ export function buildResultLayers(
             fillOpacity: 1,
             className: 'sf-window-mark',
           })
-            .bindTooltip(`${who}: ${label}`)
+            .bindTooltip(lazyTip(`${who}: ${label}`))
             .addTo(group);
         }
       }
@@ -167,7 +183,10 @@ export function buildResultLayers(
           className: 'sf-zone',
         })
           .bindTooltip(
-            `Hover release zone · ${who}<br>hold within ${fmt.length(z.radius_m)} of the centre for P(hit) ≥ required`,
+            lazyTip(
+              `Hover release zone · ${who}`,
+              `hold within ${fmt.length(z.radius_m)} of the centre for P(hit) ≥ required`,
+            ),
             { sticky: true },
           )
           .addTo(group);

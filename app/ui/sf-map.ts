@@ -2,6 +2,7 @@ import L from 'leaflet';
 import leafletCss from 'leaflet/dist/leaflet.css?inline';
 import { LitElement, css, html, unsafeCSS } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
+import { styleMap } from 'lit/directives/style-map.js';
 import { bearingDeg, distance_m } from '../core/geodesy';
 import type { Site, Variant } from '../core/plan';
 import { formatCoord, formatLength } from '../core/units';
@@ -14,6 +15,7 @@ import {
   type LayerVisibility,
   type ShapeKind,
 } from '../map/plan-layers';
+import { escapeHtml, tipNode } from '../map/tooltip';
 import { getAt } from './paths';
 import type { PlanStore } from './plan-store';
 import { nextSiteId } from './sf-sites-panel';
@@ -153,6 +155,7 @@ export class SfMap extends LitElement {
   private resultLayer?: L.LayerGroup;
   private tileLayer?: L.TileLayer;
   private tileUrl = '';
+  private tileAttribution = '';
   private releaseMarker?: L.Marker;
   private handleMarker?: L.Marker;
   private trackLine?: L.Polyline;
@@ -261,13 +264,15 @@ export class SfMap extends LitElement {
 
   private syncTiles(): void {
     const { tileUrl, tileAttribution } = this.store!.settings;
-    if (tileUrl === this.tileUrl) return;
+    if (tileUrl === this.tileUrl && tileAttribution === this.tileAttribution) return;
     this.tileUrl = tileUrl;
+    this.tileAttribution = tileAttribution;
     this.tileLayer?.remove();
     this.tileLayer = undefined;
     if (tileUrl) {
+      // Leaflet's attribution control inserts HTML; the typed attribution is shown as text.
       this.tileLayer = L.tileLayer(tileUrl, {
-        attribution: tileAttribution,
+        attribution: escapeHtml(tileAttribution),
         maxZoom: 22,
         maxNativeZoom: 19,
       });
@@ -313,8 +318,12 @@ export class SfMap extends LitElement {
     this.releaseMarker
       .unbindTooltip()
       .bindTooltip(
-        `Release point · ${formatCoord(rp, s.settings.units.coords)}<br>` +
-          `${speed > 0 ? `carrier ${speed.toFixed(1)} m/s on ${Math.round(trackDeg)}° true` : 'carrier hovering'}`,
+        tipNode([
+          `Release point · ${formatCoord(rp, s.settings.units.coords)}`,
+          speed > 0
+            ? `carrier ${speed.toFixed(1)} m/s on ${Math.round(trackDeg)}° true`
+            : 'carrier hovering',
+        ]),
       );
     this.placeTrack();
   }
@@ -419,11 +428,15 @@ export class SfMap extends LitElement {
       const r = result?.sites.find((x) => x.id === site.id);
       const bad = r ? !r.meetsRequired : false;
       const label = String(site.id ?? '');
-      const icon = L.divIcon({
-        className: `sf-site-icon sf-site`,
-        html: `<div class="site-dot${bad ? ' bad' : ''}"></div><span class="site-label"></span>`,
-        iconSize: [14, 14],
-      });
+      // Site ids come from files: the label is a text node, never HTML. It sits inside the dot,
+      // which is not positioned, so it is still placed against the icon box.
+      const dot = document.createElement('div');
+      dot.className = bad ? 'site-dot bad' : 'site-dot';
+      const text = document.createElement('span');
+      text.className = 'site-label';
+      text.textContent = label;
+      dot.append(text);
+      const icon = L.divIcon({ className: `sf-site-icon sf-site`, html: dot, iconSize: [14, 14] });
       let m = this.siteMarkers.get(i);
       if (!m) {
         m = L.marker([at.lat, at.lon], { draggable: true, keyboard: true, icon }).addTo(
@@ -445,16 +458,14 @@ export class SfMap extends LitElement {
         m.setLatLng([at.lat, at.lon]);
         m.setIcon(icon);
       }
-      // Site ids and names come from files: set them as text, never as HTML.
-      const el = m.getElement()?.querySelector('.site-label');
-      if (el) el.textContent = label;
       m.getElement()?.setAttribute('data-site', label);
       m.getElement()?.setAttribute('aria-label', `Site ${label}`);
-      const tip = document.createElement('div');
       const u = s.settings.units;
-      tip.textContent = r
-        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
-        : `Site ${label}`;
+      const tip = tipNode([
+        r
+          ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
+          : `Site ${label}`,
+      ]);
       m.unbindTooltip().bindTooltip(tip, { direction: 'top', offset: [0, -8] });
     });
   }
@@ -529,9 +540,12 @@ export class SfMap extends LitElement {
           },
         )
           .bindTooltip(
-            `Hazard area — keep people clear<br>${(s.safety!.hazardArea_m2 / 10000).toFixed(2)} ha, ` +
-              `99 % landing ellipses swept over the windows plus the ground under the releases, ` +
-              `grown by ${s.safety!.settings.hazardBuffer_m} m`,
+            tipNode([
+              'Hazard area — keep people clear',
+              `${(s.safety!.hazardArea_m2 / 10000).toFixed(2)} ha, ` +
+                `99 % landing ellipses swept over the windows plus the ground under the releases, ` +
+                `grown by ${s.safety!.settings.hazardBuffer_m} m`,
+            ]),
             { sticky: true },
           )
           .addTo(group);
@@ -541,8 +555,7 @@ export class SfMap extends LitElement {
       properties?: { name?: string };
       geometry: { coordinates: number[][][] };
     }[]) {
-      const tip = document.createElement('span');
-      tip.textContent = `No-drop zone: ${z.properties?.name || 'unnamed'}`;
+      const tip = tipNode([`No-drop zone: ${z.properties?.name || 'unnamed'}`]);
       L.polygon(
         z.geometry.coordinates.map((ring) => ring.map(([lon, lat]) => [lat, lon] as L.LatLngTuple)),
         {
@@ -688,7 +701,7 @@ export class SfMap extends LitElement {
                   })}
               /><span
                 class="swatch"
-                style=${`background:${VARIANT_COLOURS[i % VARIANT_COLOURS.length]}`}
+                style=${styleMap({ background: VARIANT_COLOURS[i % VARIANT_COLOURS.length] })}
               ></span
               >${v.id}</label
             >`,
