@@ -1,8 +1,10 @@
-import Ajv, { type ErrorObject, type ValidateFunction } from 'ajv';
-import addFormats from 'ajv-formats';
+import type { ErrorObject } from 'ajv';
 import type { Plan, PlanFile } from './plan';
 import { resolvePlan } from './plan-defaults';
 import schema from './plan.schema.json';
+// Precompiled by `npm run gen:validator` (ajv standalone, options allErrors + verbose): no code
+// is compiled at run time, so the page's Content-Security-Policy can forbid eval.
+import checkSchema from './plan-validator.generated';
 
 /** One problem in a plan file; `message` is a sentence that starts with `path` ('' = the plan). */
 export interface PlanIssue {
@@ -21,17 +23,7 @@ const PATTERN_HINTS: Record<string, string> = {
   [schema.definitions.id.pattern]: 'must be printable characters with no leading or trailing space',
 };
 
-let compiled: ValidateFunction | undefined;
-
-/** Compiled once, on first use, so importing this module stays cheap. */
-function schemaValidator(): ValidateFunction {
-  if (!compiled) {
-    const ajv = new Ajv({ allErrors: true, verbose: true });
-    addFormats(ajv, ['date-time']);
-    compiled = ajv.compile(schema);
-  }
-  return compiled;
-}
+const schemaValidator = () => checkSchema;
 
 const isRecord = (x: unknown): x is Json =>
   typeof x === 'object' && x !== null && !Array.isArray(x);
