@@ -262,10 +262,12 @@ export function briefHtml(plan: Plan, result: PlanResult, opts: BriefOptions = {
   const made = (opts.generatedAt ?? new Date()).toISOString().slice(0, 16).replace('T', ' ');
   const u = plan.uncertainty;
   return `<!doctype html>
-<html lang="en"><head><meta charset="utf-8"><title>Drop brief — ${esc(plan.name)}</title>
+<html lang="en"><head><meta charset="utf-8">
+<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:; base-uri 'none'; form-action 'none'">
+<title>Drop brief — ${esc(plan.name)}</title>
 <style>${STYLE(paper)}</style></head>
 <body>
-${opts.printBar ? `<div class="printbar"><button onclick="window.print()">Print brief</button><span>${paper} · choose “Save as PDF” in the print dialog for a file.</span></div>` : ''}
+${opts.printBar ? `<div class="printbar"><button type="button" data-action="print">Print brief</button><span>${paper} · choose “Save as PDF” in the print dialog for a file.</span></div>` : ''}
 <h1>Drop brief: ${esc(plan.name)}</h1>
 <div class="caution" role="note">CAUTION — ${esc(CAUTION_TEXT)}</div>
 <section class="meta">

@@ -50,6 +50,21 @@ function download(text: string, type: string, name: string): void {
   setTimeout(() => URL.revokeObjectURL(a.href), 1000);
 }
 
+/**
+ * The brief may run no script of its own (its Content-Security-Policy), so the app wires the
+ * brief's print button once the tab (same origin: a blob URL of this page) has loaded it.
+ */
+function wirePrintButton(w: Window, triesLeft = 100): void {
+  let button: Element | null | undefined;
+  try {
+    button = w.document?.querySelector('[data-action=print]');
+  } catch {
+    return; // the tab went elsewhere
+  }
+  if (button) button.addEventListener('click', () => w.print());
+  else if (triesLeft > 0 && !w.closed) setTimeout(() => wirePrintButton(w, triesLeft - 1), 100);
+}
+
 /** The application shell: toolbar, map, side panels, status line and the standing caution. */
 @customElement('seedfall-app')
 export class SeedfallApp extends LitElement {
@@ -299,6 +314,7 @@ export class SeedfallApp extends LitElement {
     const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));
     const w = window.open(url, '_blank');
     if (!w) s.setNotice('error', 'The brief could not open: allow pop-ups for this page.');
+    else wirePrintButton(w);
     setTimeout(() => URL.revokeObjectURL(url), 60_000);
   }
 
