@@ -5,12 +5,26 @@
  *
  * KML needs an XML parser: `opts.parseXml` when given, else the platform's DOMParser (browser
  * main thread), else @xmldom/xmldom (Node, Web Workers).
+ *
+ * Limits follow the importers' one rule (import-limits.ts): reading stops once the plan's site
+ * limit is reached ("only the first N sites were read"), a value outside the schema's range keeps
+ * its site out with the field and range named, and files over MAX_IMPORT_BYTES are refused.
  */
-import { kml } from '@tmcw/togeojson';
+import { kmlGen } from '@tmcw/togeojson';
 import { DOMParser as XmldomParser } from '@xmldom/xmldom';
 import Papa from 'papaparse';
 import { fromUTM, parseCoordinate } from './coords';
+import {
+  fmt,
+  MAX_IMPORT_BYTES,
+  onlyFirstMessage,
+  ProblemList,
+  rangeProblem,
+  schemaMaxItems,
+  schemaMaxLength,
+} from './import-limits';
 import type { Site } from './plan';
+import schema from './plan.schema.json';
 
 export interface ImportProblem {
   /** 1-based line of the text (CSV rows, XML and JSON syntax errors). */
@@ -39,8 +53,22 @@ export interface ImportOptions {
   parseXml?: XmlParser;
 }
 
-type Problems = ImportProblem[];
+type Problems = ProblemList<ImportProblem>;
 type Where = { line?: number; feature?: number };
+
+/** Where read sites go: at most `room` of them (the plan's limit less the sites it has). */
+class Sink {
+  readonly sites: Site[] = [];
+  /** Set when more sites followed after the sink was full: reading stopped there. */
+  cut = false;
+  constructor(readonly room: number) {}
+  /** False (and `cut` set) when the plan has no room for another site. */
+  accepts(): boolean {
+    if (this.sites.length < this.room) return true;
+    this.cut = true;
+    return false;
+  }
+}
 
 /** Reads sites from text: kind 'auto' picks KML for '<…', GeoJSON for '{…' or '[…', else CSV. */
 export function importSites(
@@ -48,11 +76,19 @@ export function importSites(
   kind: 'csv' | 'geojson' | 'kml' | 'auto',
   opts: ImportOptions = {},
 ): ImportResult {
-  const problems: Problems = [];
+  const problems: Problems = new ProblemList();
   const ids = new IdPool(opts, problems);
-  const sites: Site[] = [];
+  const max = schemaMaxItems('sites');
+  const sink = new Sink(Math.max(0, max - ids.existing));
+  const raw = String(text ?? '');
+  if (raw.length > MAX_IMPORT_BYTES) {
+    problems.push({
+      message: `the file is larger than ${fmt(MAX_IMPORT_BYTES / 1048576)} MB, the most an import reads; nothing was read`,
+    });
+    return { sites: [], problems: problems.items };
+  }
   try {
-    const body = String(text ?? '').replace(/^\uFEFF/, '');
+    const body = raw.replace(/^\uFEFF/, '');
     const head = body.trimStart()[0];
     const k =
       kind !== 'auto'
@@ -62,31 +98,49 @@ export function importSites(
           : head === '{' || head === '['
             ? 'geojson'
             : 'csv';
-    if (k === 'csv') readCSV(body, opts, ids, sites, problems);
-    else if (k === 'geojson') readGeoJSON(body, ids, sites, problems);
-    else readKML(body, opts, ids, sites, problems);
+    if (k === 'csv') readCSV(body, opts, ids, sink, problems);
+    else if (k === 'geojson') readGeoJSON(body, ids, sink, problems);
+    else readKML(body, opts, ids, sink, problems);
   } catch (e) {
     problems.push({ message: `the file could not be read: ${(e as Error)?.message ?? String(e)}` });
   }
-  if (sites.length === 0 && problems.length === 0)
-    problems.push({ message: 'the file holds no sites' });
-  return { sites, problems };
+  const sites = sink.sites;
+  const out = problems.items;
+  const tail = problems.tail();
+  if (tail) out.push({ message: tail });
+  if (sink.cut) {
+    out.push({
+      message:
+        sink.room === 0
+          ? `the plan already holds ${fmt(max)} sites, the most it can; no sites were read`
+          : onlyFirstMessage(sites.length, 'sites', max, ids.existing),
+    });
+  }
+  if (sites.length === 0 && out.length === 0) out.push({ message: 'the file holds no sites' });
+  return { sites, problems: out };
 }
 
 // ---------------------------------------------------------------- ids and field values
 
-// Plan schema "id": 1–64 printable characters, no leading or trailing space.
-const ID_RE = /^[^\s\p{Cc}](?:[^\p{Cc}]*[^\s\p{Cc}])?$/u;
+// Plan schema "id": its pattern and length, read from the schema.
+const ID_RE = new RegExp(schema.definitions.id.pattern, 'u');
+const ID_MAX = schemaMaxLength('sites[].id');
+const NAME_MAX = schemaMaxLength('sites[].name');
 
 class IdPool {
   private taken = new Set<string>();
   private next = 1;
   private variants?: Set<string>;
+  /** How many sites the plan holds already (one per existing id given). */
+  readonly existing: number = 0;
   constructor(
     opts: ImportOptions,
     private problems: Problems,
   ) {
-    for (const id of opts.existingIds ?? []) this.taken.add(id);
+    for (const id of opts.existingIds ?? []) {
+      this.taken.add(id);
+      this.existing++;
+    }
     if (opts.variantIds) this.variants = new Set(opts.variantIds);
   }
   private fresh(): string {
@@ -100,12 +154,12 @@ class IdPool {
     let id: string;
     const w = wanted?.trim();
     if (!w) id = this.fresh();
-    else if (w.length > 64 || !ID_RE.test(w)) {
+    else if (w.length > ID_MAX || !ID_RE.test(w)) {
       id = this.fresh();
       if (!fromName)
         this.report(
           where,
-          `id "${clip(w)}" is not usable (1–64 printable characters); imported as "${id}"`,
+          `id "${clip(w)}" is not usable (1–${ID_MAX} printable characters); imported as "${id}"`,
         );
     } else if (this.taken.has(w)) {
       id = this.fresh();
@@ -124,7 +178,7 @@ class IdPool {
       );
       return undefined;
     }
-    if (!ID_RE.test(t) || t.length > 64) {
+    if (!ID_RE.test(t) || t.length > ID_MAX) {
       this.report(where, `variant "${clip(t)}" is not a usable id; ignored`);
       return undefined;
     }
@@ -154,10 +208,10 @@ function toNumber(cell: string, decimalComma: boolean): number | undefined {
 
 type Value<T> = { ok: true; value: T } | { ok: false; message: string };
 
-/** Optional numeric site field with the plan schema's range. */
+/** Optional numeric site field, checked against the plan schema's range. */
 function optionalNumber(
   raw: unknown,
-  what: 'elevation' | 'tolerance',
+  what: 'elevation_m' | 'tolerance_m',
   decimalComma: boolean,
 ): Value<number | undefined> {
   if (raw === undefined || raw === null || (typeof raw === 'string' && raw.trim() === ''))
@@ -170,11 +224,8 @@ function optionalNumber(
         : undefined;
   if (v === undefined || !Number.isFinite(v))
     return { ok: false, message: `${what} "${clip(String(raw))}" is not a number` };
-  if (what === 'elevation' && (v < -500 || v > 10000))
-    return { ok: false, message: `elevation ${v} m out of range -500…10000` };
-  if (what === 'tolerance' && (v <= 0 || v > 10000))
-    return { ok: false, message: `tolerance ${v} m out of range (0…10000]` };
-  return { ok: true, value: v };
+  const bad = rangeProblem(`sites[].${what}`, v);
+  return bad ? { ok: false, message: bad } : { ok: true, value: v };
 }
 
 function checkLatLon(
@@ -183,11 +234,9 @@ function checkLatLon(
   latText = String(lat),
   lonText = String(lon),
 ): string | undefined {
-  if (!Number.isFinite(lat) || Math.abs(lat) > 90)
-    return `latitude "${clip(latText)}" out of range -90…90`;
-  if (!Number.isFinite(lon) || Math.abs(lon) > 180)
-    return `longitude "${clip(lonText)}" out of range -180…180`;
-  return undefined;
+  if (!Number.isFinite(lat)) return `latitude "${clip(latText)}" is not a number`;
+  if (!Number.isFinite(lon)) return `longitude "${clip(lonText)}" is not a number`;
+  return rangeProblem('sites[].lat', lat) ?? rangeProblem('sites[].lon', lon);
 }
 
 // ---------------------------------------------------------------- CSV
@@ -241,7 +290,19 @@ function columnOf(cell: string): Col | undefined {
 }
 
 function detectDelimiter(text: string): ',' | ';' | '\t' {
-  const first = text.split('\n').find((l) => l.trim() !== '') ?? '';
+  // The first non-blank line only: never split a whole (possibly huge) file.
+  let at = 0;
+  let first = '';
+  while (at < text.length) {
+    const nl = text.indexOf('\n', at);
+    const line = text.slice(at, nl < 0 ? text.length : nl);
+    if (line.trim() !== '') {
+      first = line;
+      break;
+    }
+    if (nl < 0) break;
+    at = nl + 1;
+  }
   const bare = first.replace(/"(?:[^"]|"")*"/g, '');
   return bare.includes('\t') ? '\t' : bare.includes(';') ? ';' : ',';
 }
@@ -260,16 +321,21 @@ interface Row {
   cells: string[];
 }
 
-function csvRows(text: string, delimiter: string, problems: Problems): Row[] {
+/** Streams the rows to `onRow` until it returns false; parsing stops there (papaparse abort). */
+function csvRows(
+  text: string,
+  delimiter: string,
+  problems: Problems,
+  onRow: (row: Row) => boolean,
+): void {
   const norm = text.replace(/\r\n?/g, '\n');
-  const rows: Row[] = [];
   let cursor = 0;
   let line = 1;
   Papa.parse<string[]>(norm, {
     delimiter,
     newline: '\n',
     skipEmptyLines: false,
-    step: (res) => {
+    step: (res, parser) => {
       const start = line;
       const end = res.meta.cursor;
       for (let i = cursor; i < end && i < norm.length; i++) if (norm.charCodeAt(i) === 10) line++;
@@ -283,35 +349,32 @@ function csvRows(text: string, delimiter: string, problems: Problems): Row[] {
       if (res.errors.length > 0) return;
       const cells = res.data.map((c) => String(c ?? ''));
       if (cells.every((c) => c.trim() === '')) return; // blank lines are not data
-      rows.push({ line: start, cells });
+      if (!onRow({ line: start, cells })) parser.abort();
     },
   });
-  return rows;
 }
 
-function readCSV(
-  text: string,
-  opts: ImportOptions,
-  ids: IdPool,
-  sites: Site[],
-  problems: Problems,
-): void {
-  const delimiter = opts.delimiter ?? detectDelimiter(text);
-  const dc = delimiter !== ',';
-  const rows = csvRows(text, delimiter, problems);
-  if (rows.length === 0) return;
-  // Trailing delimiters leave empty cells at the end; they carry nothing.
-  const trimEnd = (cells: string[]): string[] => {
-    let n = cells.length;
-    while (n > 0 && cells[n - 1].trim() === '') n--;
-    return cells.slice(0, n);
-  };
-  const first = trimEnd(rows[0].cells);
+// Trailing delimiters leave empty cells at the end; they carry nothing.
+const trimEnd = (cells: string[]): string[] => {
+  let n = cells.length;
+  while (n > 0 && cells[n - 1].trim() === '') n--;
+  return cells.slice(0, n);
+};
+
+interface Layout {
+  cols: Map<Col, number>;
+  /** Fields a row may have: the header's, or the columns read when there is no header. */
+  width: number;
+  header: boolean;
+  coordWidth: number;
+}
+
+/** Columns from the first row: a header, or the headerless lat,lon / id,lat,lon / position forms. */
+function layoutOf(firstRow: Row, dc: boolean, problems: Problems): Layout | undefined {
+  const first = trimEnd(firstRow.cells);
   const header = !first.some((c) => looksNumeric(c, dc));
   const cols = new Map<Col, number>();
-  let data = rows;
   if (header) {
-    data = rows.slice(1);
     const unused: string[] = [];
     first.forEach((cell, i) => {
       const c = columnOf(cell);
@@ -322,84 +385,112 @@ function readCSV(
     const hasUTM = cols.has('easting') && cols.has('northing') && cols.has('zone');
     if (!hasLL && !hasUTM && !cols.has('mgrs') && !cols.has('position')) {
       problems.push({
-        line: rows[0].line,
+        line: firstRow.line,
         message:
-          `line ${rows[0].line}: header has no coordinate columns; expected lat and lon, mgrs, ` +
+          `line ${firstRow.line}: header has no coordinate columns; expected lat and lon, mgrs, ` +
           'easting + northing + zone, or position; no sites imported',
       });
-      return;
+      return undefined;
     }
     if (unused.length) {
       problems.push({
-        line: rows[0].line,
-        message: `line ${rows[0].line}: column(s) ${unused.join(', ')} not recognised; their values are not imported`,
+        line: firstRow.line,
+        message: `line ${firstRow.line}: column(s) ${unused.join(', ')} not recognised; their values are not imported`,
       });
     }
+  } else if (looksNumeric(first[0], dc)) {
+    // Headerless: lat,lon when the first cell is a number/angle; else id then lat,lon or one position cell.
+    if (first.length === 1) cols.set('position', 0);
+    else {
+      cols.set('lat', 0);
+      cols.set('lon', 1);
+    }
   } else {
-    // Headerless: lat,lon[…] when the first cell is a number/angle; else id then lat,lon or one position cell.
-    if (looksNumeric(first[0], dc)) {
-      if (first.length === 1) cols.set('position', 0);
-      else {
-        cols.set('lat', 0);
-        cols.set('lon', 1);
-      }
-    } else {
-      cols.set('id', 0);
-      if (first.length === 2) cols.set('position', 1);
-      else {
-        cols.set('lat', 1);
-        cols.set('lon', 2);
-      }
+    cols.set('id', 0);
+    if (first.length === 2) cols.set('position', 1);
+    else {
+      cols.set('lat', 1);
+      cols.set('lon', 2);
     }
   }
-  const width = Math.max(...cols.values()) + 1;
   const coordWidth =
     Math.max(
       ...(['lat', 'lon', 'mgrs', 'easting', 'northing', 'zone', 'position'] as Col[]).map(
         (c) => cols.get(c) ?? -1,
       ),
     ) + 1;
-  if (!header && rows.some((r) => trimEnd(r.cells).length > width)) {
-    problems.push({
-      message: `rows with more than ${width} fields: the extra fields are not imported (no header names them)`,
-    });
-  }
-  for (const row of data) {
-    const where = { line: row.line };
-    const bad = (message: string): void => {
-      problems.push({ line: row.line, message: `line ${row.line}: ${message}; row not imported` });
-    };
-    const cells = trimEnd(row.cells);
-    const get = (c: Col): string => {
-      const i = cols.get(c);
-      return i === undefined ? '' : (cells[i] ?? '').trim();
-    };
-    const pos = csvPosition(get, cols, dc);
-    if ('message' in pos) {
-      const short = row.cells.length < coordWidth && /no coordinates|is empty/.test(pos.message);
-      bad(
-        short
-          ? `only ${row.cells.length} field(s), the coordinates need ${coordWidth}`
-          : pos.message,
-      );
-      continue;
+  const width = header ? first.length : Math.max(...cols.values()) + 1;
+  return { cols, width, header, coordWidth };
+}
+
+function readCSV(
+  text: string,
+  opts: ImportOptions,
+  ids: IdPool,
+  sink: Sink,
+  problems: Problems,
+): void {
+  const delimiter = opts.delimiter ?? detectDelimiter(text);
+  const dc = delimiter !== ',';
+  let layout: Layout | undefined;
+  csvRows(text, delimiter, problems, (row) => {
+    if (!layout) {
+      layout = layoutOf(row, dc, problems);
+      if (!layout) return false;
+      if (layout.header) return true;
     }
-    const ele = optionalNumber(get('elevation'), 'elevation', dc);
-    if (!ele.ok) {
-      bad(ele.message);
-      continue;
-    }
-    const tol = optionalNumber(get('tolerance'), 'tolerance', dc);
-    if (!tol.ok) {
-      bad(tol.message);
-      continue;
-    }
-    const rawId = get('id') || undefined;
-    const rawName = get('name') || undefined;
-    sites.push(
-      makeSite(ids, where, rawId, rawName, false, pos, ele.value, tol.value, get('variant')),
+    if (!sink.accepts()) return false;
+    readRow(row, layout, dc, delimiter, ids, sink, problems);
+    return true;
+  });
+}
+
+function readRow(
+  row: Row,
+  { cols, width, header, coordWidth }: Layout,
+  dc: boolean,
+  delimiter: string,
+  ids: IdPool,
+  sink: Sink,
+  problems: Problems,
+): void {
+  const where = { line: row.line };
+  const bad = (message: string): void => {
+    problems.push({ line: row.line, message: `line ${row.line}: ${message}; row not imported` });
+  };
+  const cells = trimEnd(row.cells);
+  if (cells.length > width) {
+    // "a1,47,5,21,5" under "id,lat,lon": decimal commas split the numbers into more fields.
+    const hint =
+      delimiter === ',' ? ' — decimal commas? use ; as separator or . as decimal point' : '';
+    bad(
+      header
+        ? `row has ${cells.length} fields, header has ${width}${hint}`
+        : `row has ${cells.length} fields, the first row has ${width} and there is no header to name the rest${hint}`,
     );
+    return;
   }
+  const get = (c: Col): string => {
+    const i = cols.get(c);
+    return i === undefined ? '' : (cells[i] ?? '').trim();
+  };
+  const pos = csvPosition(get, cols, dc);
+  if ('message' in pos) {
+    const short = row.cells.length < coordWidth && /no coordinates|is empty/.test(pos.message);
+    bad(
+      short ? `only ${row.cells.length} field(s), the coordinates need ${coordWidth}` : pos.message,
+    );
+    return;
+  }
+  const ele = optionalNumber(get('elevation'), 'elevation_m', dc);
+  if (!ele.ok) return bad(ele.message);
+  const tol = optionalNumber(get('tolerance'), 'tolerance_m', dc);
+  if (!tol.ok) return bad(tol.message);
+  const rawId = get('id') || undefined;
+  const rawName = get('name') || undefined;
+  sink.sites.push(
+    makeSite(ids, where, rawId, rawName, false, pos, ele.value, tol.value, get('variant')),
+  );
 }
 
 function makeSite(
@@ -419,9 +510,9 @@ function makeSite(
       : ids.claim(idFromName ? rawName : undefined, where, true);
   const site: Site = { id, lat: p.lat, lon: p.lon };
   let name = rawName?.trim();
-  if (name && name.length > 200) {
-    ids.report(where, `name is longer than 200 characters; shortened`);
-    name = name.slice(0, 200);
+  if (name && name.length > NAME_MAX) {
+    ids.report(where, `name is longer than ${NAME_MAX} characters; shortened`);
+    name = name.slice(0, NAME_MAX);
   }
   if (name && name !== id) site.name = name;
   if (elevation_m !== undefined) site.elevation_m = elevation_m;
@@ -533,7 +624,7 @@ function utmPosition(
 type Json = Record<string, unknown>;
 const isObj = (x: unknown): x is Json => typeof x === 'object' && x !== null && !Array.isArray(x);
 
-function readGeoJSON(text: string, ids: IdPool, sites: Site[], problems: Problems): void {
+function readGeoJSON(text: string, ids: IdPool, sink: Sink, problems: Problems): void {
   let root: unknown;
   try {
     root = JSON.parse(text);
@@ -563,57 +654,83 @@ function readGeoJSON(text: string, ids: IdPool, sites: Site[], problems: Problem
     });
     return;
   }
-  readFeatures(features, ids, sites, problems);
+  readFeatures(features, ids, sink, problems);
 }
 
 const str = (x: unknown): string | undefined =>
   typeof x === 'string' ? x : typeof x === 'number' && Number.isFinite(x) ? String(x) : undefined;
 
-function readFeatures(features: unknown[], ids: IdPool, sites: Site[], problems: Problems): void {
+/** Sites from GeoJSON features (an array, or KML placemarks as togeojson yields them). */
+function readFeatures(
+  features: Iterable<unknown>,
+  ids: IdPool,
+  sink: Sink,
+  problems: Problems,
+): void {
   // Planned results in our own exports (kind release, ellipse95, …): one problem per kind.
-  const results = new Map<string, number[]>();
-  features.forEach((f, i) => {
-    const where = { feature: i };
-    const skip = (why: string): void => {
-      problems.push({ feature: i, message: `features[${i}]: ${why}; not imported` });
-    };
-    if (!isObj(f) || f.type !== 'Feature') return skip('not a Feature object');
-    const props = isObj(f.properties) ? f.properties : {};
-    const kind = str(props.kind);
-    if (kind !== undefined && kind !== 'site') {
-      const list = results.get(kind) ?? [];
-      results.set(kind, [...list, i]);
-      return;
-    }
-    const points = pointsOf(f.geometry, `features[${i}]`);
-    if (typeof points === 'string') return skip(points);
-    const ele = optionalNumber(
-      props.elevation_m ?? props.elevation ?? props.ele,
-      'elevation',
-      false,
-    );
-    if (!ele.ok) return skip(ele.message);
-    const tol = optionalNumber(props.tolerance_m ?? props.tolerance, 'tolerance', false);
-    if (!tol.ok) return skip(tol.message);
-    const pinned = props.pinned !== false && props.pinned !== 'false';
-    const variant = pinned ? str(props.variant) : undefined;
-    const rawId =
-      str(props.id) ??
-      (typeof f.id === 'string' || typeof f.id === 'number' ? String(f.id) : undefined);
-    const name = str(props.name);
-    points.forEach((p, k) => {
-      const id = points.length > 1 && rawId !== undefined ? `${rawId}-${k + 1}` : rawId;
-      sites.push(makeSite(ids, where, id, name, true, p, ele.value, tol.value, variant));
-    });
-  });
+  const results = new Map<string, { first: number[]; last: number; count: number }>();
+  let i = -1;
+  for (const f of features) {
+    i++;
+    if (!readFeature(f, i, ids, sink, problems, results)) break;
+  }
   for (const [kind, at] of results) {
     const list =
-      at.length > 6 ? `${at.slice(0, 5).join(', ')} … ${at[at.length - 1]}` : at.join(', ');
+      at.count > 6 ? `${at.first.slice(0, 5).join(', ')} … ${at.last}` : at.first.join(', ');
     problems.push({
-      feature: at[0],
-      message: `features ${list} (${at.length}): kind "${clip(kind)}" is a planned result, not a site; not imported`,
+      feature: at.first[0],
+      message: `features ${list} (${at.count}): kind "${clip(kind)}" is a planned result, not a site; not imported`,
     });
   }
+}
+
+/** One feature; false when the plan is full and reading must stop. */
+function readFeature(
+  f: unknown,
+  i: number,
+  ids: IdPool,
+  sink: Sink,
+  problems: Problems,
+  results: Map<string, { first: number[]; last: number; count: number }>,
+): boolean {
+  const where = { feature: i };
+  const skip = (why: string): boolean => {
+    problems.push({ feature: i, message: `features[${i}]: ${why}; not imported` });
+    return true;
+  };
+  if (!isObj(f) || f.type !== 'Feature') return skip('not a Feature object');
+  const props = isObj(f.properties) ? f.properties : {};
+  const kind = str(props.kind);
+  if (kind !== undefined && kind !== 'site') {
+    const r = results.get(kind) ?? { first: [], last: i, count: 0 };
+    if (r.first.length < 6) r.first.push(i);
+    r.last = i;
+    r.count++;
+    results.set(kind, r);
+    return true;
+  }
+  const points = pointsOf(f.geometry, `features[${i}]`);
+  if (typeof points === 'string') return skip(points);
+  const ele = optionalNumber(
+    props.elevation_m ?? props.elevation ?? props.ele,
+    'elevation_m',
+    false,
+  );
+  if (!ele.ok) return skip(ele.message);
+  const tol = optionalNumber(props.tolerance_m ?? props.tolerance, 'tolerance_m', false);
+  if (!tol.ok) return skip(tol.message);
+  const pinned = props.pinned !== false && props.pinned !== 'false';
+  const variant = pinned ? str(props.variant) : undefined;
+  const rawId =
+    str(props.id) ??
+    (typeof f.id === 'string' || typeof f.id === 'number' ? String(f.id) : undefined);
+  const name = str(props.name);
+  for (let k = 0; k < points.length; k++) {
+    if (!sink.accepts()) return false;
+    const id = points.length > 1 && rawId !== undefined ? `${rawId}-${k + 1}` : rawId;
+    sink.sites.push(makeSite(ids, where, id, name, true, points[k], ele.value, tol.value, variant));
+  }
+  return true;
 }
 
 function pointsOf(g: unknown, path: string): { lat: number; lon: number }[] | string {
@@ -664,10 +781,10 @@ function readKML(
   text: string,
   opts: ImportOptions,
   ids: IdPool,
-  sites: Site[],
+  sink: Sink,
   problems: Problems,
 ): void {
-  const xmlProblems: Problems = [];
+  const xmlProblems: ImportProblem[] = [];
   const note = (line: number | undefined, msg: string): void => {
     xmlProblems.push(line ? { line, message: `line ${line}: ${msg}` } : { message: msg });
   };
@@ -694,6 +811,51 @@ function readKML(
     problems.push({ message: `root element <${root}> is not <kml>; only KML 2.2 is read` });
     return;
   }
-  const fc = kml(doc as Parameters<typeof kml>[0]);
-  readFeatures(fc.features, ids, sites, problems);
+  // Placemarks stream out of togeojson; reading stops when the plan is full.
+  readFeatures(kmlGen(withoutKmlPrefix(doc) as Parameters<typeof kmlGen>[0]), ids, sink, problems);
+}
+
+/** KML 2.2 and the older Google Earth namespaces. */
+const isKmlNs = (ns: string | null): boolean => ns !== null && /kml/i.test(ns);
+
+/**
+ * The document with its KML elements unprefixed (`<kml:Placemark>` → `<Placemark>`), since
+ * togeojson finds elements by their qualified name. Copied without recursion (deep files).
+ */
+function withoutKmlPrefix(doc: Document): Document {
+  const root = doc.documentElement;
+  const prefixed =
+    !!root.prefix ||
+    doc.getElementsByTagNameNS('*', 'Placemark').length >
+      doc.getElementsByTagName('Placemark').length;
+  if (!prefixed) return doc;
+  const out = doc.implementation.createDocument(root.namespaceURI, root.localName, null);
+  const stack: [Node, Node][] = [];
+  const copyAttrs = (from: Element, to: Element): void => {
+    for (let a = 0; a < from.attributes.length; a++) {
+      const at = from.attributes[a];
+      if (!/^xmlns(:|$)/.test(at.name)) to.setAttribute(at.name, at.value);
+    }
+  };
+  copyAttrs(root, out.documentElement);
+  for (let c = root.firstChild; c; c = c.nextSibling) stack.push([c, out.documentElement]);
+  stack.reverse();
+  while (stack.length > 0) {
+    const [node, parent] = stack.pop()!;
+    if (node.nodeType === 1) {
+      const el = node as Element;
+      const copy = out.createElementNS(
+        el.namespaceURI,
+        isKmlNs(el.namespaceURI) ? el.localName : el.nodeName,
+      );
+      copyAttrs(el, copy);
+      parent.appendChild(copy);
+      const kids: [Node, Node][] = [];
+      for (let c = el.firstChild; c; c = c.nextSibling) kids.push([c, copy]);
+      for (let k = kids.length - 1; k >= 0; k--) stack.push(kids[k]);
+    } else if (node.nodeType === 3 || node.nodeType === 4) {
+      parent.appendChild(out.createTextNode(node.nodeValue ?? ''));
+    }
+  }
+  return out;
 }

@@ -3,7 +3,16 @@ import fc from 'fast-check';
 import * as mgrsModule from 'mgrs';
 import proj4 from 'proj4';
 import { describe, expect, it } from 'vitest';
+import demo from '../../data/demo-plan.json';
+import {
+  MAX_IMPORT_BYTES,
+  MAX_LISTED_PROBLEMS,
+  schemaBounds,
+  schemaMaxItems,
+} from '../../app/core/import-limits';
 import { importSites, type ImportResult } from '../../app/core/import-sites';
+import type { PlanFile } from '../../app/core/plan';
+import { validatePlan } from '../../app/core/validate';
 import { expectClose } from './helpers';
 
 // mgrs ships CommonJS to Node (default export only) and ESM to bundlers.
@@ -149,13 +158,18 @@ describe('CSV import', () => {
     expect(r.sites[1].name).toBe('Good, two');
     expect(lines(r)).toEqual([3, 4, 6, 8, 9, 10, 11, 12]);
     const msg = r.problems.map((p) => p.message);
-    expect(msg[0]).toBe('line 3: latitude "95.2" out of range -90…90; row not imported');
+    // WGS 84 latitude −90…90°, longitude −180…180° (NIMA TR8350.2); the message names the plan field.
+    expect(msg[0]).toBe(
+      "line 3: lat 95.2 is outside the plan's range (a number between -90 and 90); row not imported",
+    );
     expect(msg[1]).toMatch(/^line 4: latitude "abc" is not a number/);
     expect(msg[2]).toMatch(/^line 6: only 2 field\(s\)/);
-    expect(msg[3]).toMatch(/^line 8: elevation "high" is not a number/);
+    expect(msg[3]).toMatch(/^line 8: elevation_m "high" is not a number/);
     expect(msg[4]).toBe('line 9: no coordinates; row not imported');
-    expect(msg[5]).toMatch(/^line 10: longitude "200.5" out of range -180…180/);
-    expect(msg[6]).toMatch(/^line 11: tolerance -3 m out of range/);
+    expect(msg[5]).toMatch(
+      /^line 10: lon 200.5 is outside the plan's range \(a number between -180 and 180\)/,
+    );
+    expect(msg[6]).toMatch(/^line 11: tolerance_m -3 is outside the plan's range \(a number > 0/);
     expect(msg[7]).toBe('line 12: id "g1" is already taken; imported as "s01"');
   });
 
@@ -239,7 +253,7 @@ describe('GeoJSON import', () => {
     ]);
     expect(r.problems.map((p) => p.feature)).toEqual([1, 3, 4]);
     expect(r.problems[0].message).toMatch(/^features\[1\]: a LineString is not a site/);
-    expect(r.problems[1].message).toMatch(/latitude "95" out of range/);
+    expect(r.problems[1].message).toMatch(/lat 95 is outside the plan's range/);
     expect(r.problems[2].message).toMatch(/has no geometry/);
   });
 
@@ -335,6 +349,210 @@ describe('import never throws', () => {
         for (const p of r.problems) expect(typeof p.message).toBe('string');
       }),
       { numRuns: 400 },
+    );
+  });
+});
+
+describe('site import limits (the importers’ one rule, docs/plan-format.md)', () => {
+  // The plan schema's own limits, read at run time so the tests follow the schema.
+  const MAX = schemaMaxItems('sites');
+  const onlyFirst = /only the first ([\d,]+) sites were read \(the plan holds at most ([\d,]+)/;
+
+  it('reads a 1,000,000-row CSV only up to the plan’s site limit and says so', () => {
+    // common practice: a streamed parser stops at the limit instead of reading a million rows.
+    const rows = ['lat,lon'];
+    for (let i = 0; i < 1_000_000; i++) rows.push(`${(i % 80) + 0.5},${(i % 170) + 0.25}`);
+    const text = rows.join('\n');
+    const existing = ['a', 'b', 'c'];
+    const r = importSites(text, 'csv', { existingIds: existing });
+    expect(r.sites).toHaveLength(MAX - existing.length);
+    const m = onlyFirst.exec(r.problems.at(-1)!.message);
+    expect(m).not.toBeNull();
+    expect(Number(m![1].replace(/,/g, ''))).toBe(MAX - existing.length);
+    expect(Number(m![2].replace(/,/g, ''))).toBe(MAX);
+    expect(r.problems).toHaveLength(1);
+  });
+
+  it('reads nothing into a full plan and says the plan is full', () => {
+    const existing = Array.from({ length: MAX }, (_, i) => `e${i}`);
+    const r = importSites('lat,lon\n47,21\n', 'csv', { existingIds: existing });
+    expect(r.sites).toEqual([]);
+    expect(r.problems[0].message).toMatch(/the plan already holds [\d,]+ sites, the most it can/);
+  });
+
+  it('stops GeoJSON and KML at the limit too, MultiPoint members included', () => {
+    const room = 3;
+    const existing = Array.from({ length: MAX - room }, (_, i) => `e${i}`);
+    const pts = Array.from({ length: 5 }, (_, i) => [21 + i / 100, 47]);
+    const gj = JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: { id: 'm' },
+          geometry: { type: 'MultiPoint', coordinates: pts },
+        },
+      ],
+    });
+    const a = importSites(gj, 'auto', { existingIds: existing });
+    expect(a.sites.map((s) => s.id)).toEqual(['m-1', 'm-2', 'm-3']);
+    expect(a.problems.at(-1)!.message).toMatch(onlyFirst);
+    const placemarks = pts
+      .map(
+        (p, i) =>
+          `<Placemark><name>k${i}</name><Point><coordinates>${p}</coordinates></Point></Placemark>`,
+      )
+      .join('');
+    const b = importSites(
+      `<kml xmlns="http://www.opengis.net/kml/2.2">${placemarks}</kml>`,
+      'auto',
+      {
+        existingIds: existing,
+      },
+    );
+    expect(b.sites.map((s) => s.id)).toEqual(['k0', 'k1', 'k2']);
+    expect(b.problems.at(-1)!.message).toMatch(onlyFirst);
+  });
+
+  it('refuses a file over the import size bound without reading it', () => {
+    const r = importSites('x'.repeat(MAX_IMPORT_BYTES + 1), 'csv');
+    expect(r.sites).toEqual([]);
+    expect(r.problems[0].message).toMatch(/larger than 20 MB/);
+  });
+
+  it('lists a bounded number of problems and counts the rest', () => {
+    const bad = ['lat,lon', ...Array.from({ length: 5000 }, () => '95,21')].join('\n');
+    const r = importSites(bad, 'csv');
+    expect(r.sites).toEqual([]);
+    expect(r.problems.length).toBeLessThanOrEqual(MAX_LISTED_PROBLEMS + 1);
+    expect(r.problems.at(-1)!.message).toBe(
+      `… and ${(5000 - MAX_LISTED_PROBLEMS).toLocaleString('en-US')} more problems not listed`,
+    );
+  });
+
+  it('reports a row whose decimal commas split it into more fields than the header', () => {
+    // "47,5" with a comma separator is two fields (RFC 4180 §2.4); reading 47 and 5 would be silent damage.
+    const r = importSites('id,lat,lon\na1,47,5,21,5\na2,47.5,21.5\n', 'csv');
+    expect(r.sites).toEqual([{ id: 'a2', lat: 47.5, lon: 21.5 }]);
+    expect(r.problems).toEqual([
+      {
+        line: 2,
+        message:
+          'line 2: row has 5 fields, header has 3 — decimal commas? use ; as separator or . as decimal point; row not imported',
+      },
+    ]);
+    const headerless = importSites('47,5,21,5\n', 'csv');
+    expect(headerless.sites).toEqual([]);
+    expect(headerless.problems[0].message).toMatch(/^line 1: row has 4 fields.*decimal commas\?/);
+  });
+
+  it('reads the same row with ; as separator and decimal commas', () => {
+    // common practice: spreadsheets in decimal-comma locales write ';' separated CSV.
+    const r = importSites('id;lat;lon\na1;47,5;21,5\n', 'csv');
+    expect(r.problems).toEqual([]);
+    expect(r.sites).toEqual([{ id: 'a1', lat: 47.5, lon: 21.5 }]);
+  });
+
+  it('reads KML written with a kml: namespace prefix', () => {
+    // OGC KML 2.2 (07-147r2) §6.1: elements are in the namespace http://www.opengis.net/kml/2.2;
+    // XML Namespaces 1.0 §6: a prefix bound to it names the same elements.
+    const text = `<?xml version="1.0"?>
+<kml:kml xmlns:kml="http://www.opengis.net/kml/2.2"><kml:Document>
+  <kml:Placemark><kml:name>p1</kml:name><kml:Point><kml:coordinates>21.08,47.49</kml:coordinates></kml:Point></kml:Placemark>
+  <kml:Placemark><kml:name><![CDATA[p2]]></kml:name><kml:Point><kml:coordinates>21.09,47.5,0</kml:coordinates></kml:Point></kml:Placemark>
+</kml:Document></kml:kml>`;
+    for (const parseXml of [
+      undefined,
+      (t: string) => new DOMParser().parseFromString(t, 'text/xml') as unknown as Document,
+    ]) {
+      const r = importSites(text, 'auto', { parseXml });
+      expect(r.problems).toEqual([]);
+      expect(r.sites).toEqual([
+        { id: 'p1', lat: 47.49, lon: 21.08 },
+        { id: 'p2', lat: 47.5, lon: 21.09 },
+      ]);
+    }
+  });
+
+  it('takes a UTF-8 byte-order mark in front of CSV, GeoJSON and KML', () => {
+    // Unicode 15 §23.8: U+FEFF at the start is a signature, not content.
+    expect(importSites('\uFEFFlat,lon\n47,21\n', 'auto').sites).toHaveLength(1);
+    expect(importSites('\uFEFF{"type":"Point","coordinates":[21,47]}', 'auto').sites).toHaveLength(
+      1,
+    );
+    expect(
+      importSites(
+        '\uFEFF<kml><Placemark><Point><coordinates>21,47</coordinates></Point></Placemark></kml>',
+        'auto',
+      ).sites,
+    ).toHaveLength(1);
+  });
+});
+
+describe('imported sites always fit the plan', () => {
+  // Property: whatever the text, the demo plan with the imported sites added still validates.
+  // The release is put at the schema's highest altitude so that the cross-field rule "release
+  // above every site" (a plan-level rule the user settles, not an importer's) cannot fire.
+  const base = structuredClone(demo) as unknown as PlanFile;
+  base.release.altitude_m = schemaBounds('release.altitude_m').max!;
+  base.release.reference = 'AGL';
+  base.groundElevation_m = Math.max(0, base.groundElevation_m ?? 0);
+  const num = fc.oneof(
+    fc.double(),
+    fc.integer({ min: -20000, max: 20000 }),
+    fc.constantFrom('1e-320', '-0', '10000', '10000.5', '-500', '-501', '90', '180.0001', '1e308'),
+  );
+  const cell = fc.oneof(num.map(String), fc.string({ maxLength: 8 }), fc.constantFrom('47,5', ''));
+  const csv = fc
+    .tuple(
+      fc.array(fc.array(cell, { minLength: 2, maxLength: 6 }), { maxLength: 30 }),
+      fc.constantFrom(',', ';', '\t'),
+      fc.boolean(),
+    )
+    .map(([rows, d, head]) =>
+      [
+        ...(head ? [['id', 'lat', 'lon', 'elevation_m', 'tolerance_m', 'name'].join(d)] : []),
+        ...rows.map((r) => r.join(d)),
+      ].join('\n'),
+    );
+  const geojson = fc
+    .array(fc.tuple(num, num, num, num, fc.string({ maxLength: 300 })), { maxLength: 20 })
+    .map((fs) =>
+      JSON.stringify({
+        type: 'FeatureCollection',
+        features: fs.map(([lon, lat, ele, tol, name]) => ({
+          type: 'Feature',
+          properties: { name, elevation_m: Number(ele), tolerance_m: tol },
+          geometry: { type: 'Point', coordinates: [Number(lon), Number(lat)] },
+        })),
+      }),
+    );
+  it('for CSV and GeoJSON, with the plan nearly full', () => {
+    fc.assert(
+      fc.property(
+        fc.oneof(csv, geojson),
+        fc.oneof(
+          fc.integer({ min: 0, max: schemaMaxItems('sites') }),
+          fc.integer({ min: schemaMaxItems('sites') - 5, max: schemaMaxItems('sites') }),
+        ),
+        (text, fill) => {
+          const plan = structuredClone(base);
+          const extra = Array.from({ length: Math.max(0, fill - plan.sites.length) }, (_, i) => ({
+            id: `fill${i}`,
+            lat: 0,
+            lon: 0,
+          }));
+          plan.sites = [...plan.sites, ...extra];
+          const r = importSites(text, 'auto', {
+            existingIds: plan.sites.map((s) => s.id),
+            variantIds: plan.variants.map((v) => v.id),
+          });
+          plan.sites = [...plan.sites, ...r.sites];
+          const v = validatePlan(plan);
+          expect(v.ok ? [] : v.errors.slice(0, 3)).toEqual([]);
+        },
+      ),
+      { numRuns: 300 },
     );
   });
 });
