@@ -3,24 +3,54 @@ import type { Plan } from '../core/plan';
 import type { PlanSafety } from '../core/plan-safety';
 import type { PlanResult } from '../core/planner';
 import type { SweepPoint } from '../core/wind-plots';
-import { DEFAULT_UNITS, type UnitPrefs } from '../core/units';
 import { allowedRange, validatePlan, type PlanIssue } from '../core/validate';
 import type { WorkerReply } from '../worker/protocol';
 import { getAt, setAt } from './paths';
+import {
+  checkSettings,
+  DAMAGED_KEY,
+  DAMAGED_TIME_KEY,
+  DRAFT_KEY,
+  isQuotaError,
+  readDraftText,
+  readSettingsText,
+  SETTINGS_KEY,
+  type Settings,
+} from './saved-state';
 
-/** User settings kept apart from the plan. */
-export interface Settings {
-  units: UnitPrefs;
-  /** Tile URL template for online use ('' = no tiles: grid only). */
-  tileUrl: string;
-  tileAttribution: string;
-  /** Paper of the printed brief. */
-  paper: 'A4' | 'Letter';
+export type { Settings } from './saved-state';
+
+const HISTORY_LIMIT = 200;
+/**
+ * Undo and redo steps are whole plans as JSON; besides their count, their total length is
+ * bounded (characters; twice that in bytes), so a few large plans cannot fill the memory.
+ */
+const HISTORY_CHARS = 20_000_000;
+
+/** A saved draft that could not be read, kept so that nothing is lost. */
+export interface DamagedDraft {
+  /** The stored text exactly as it was. */
+  text: string;
+  /** Why it could not be read ('' for a copy kept from an earlier visit). */
+  reason: string;
+  /** When it was found (ISO 8601). */
+  at: string;
+  /** True when a copy sits in browser storage under DAMAGED_KEY. */
+  stored: boolean;
+  /** True when the copy was kept on an earlier visit (this visit's draft was fine). */
+  earlier: boolean;
 }
 
-const DRAFT_KEY = 'seedfall.draft.v1';
-const SETTINGS_KEY = 'seedfall.settings.v1';
-const HISTORY_LIMIT = 200;
+/** The browser's storage, or null where even looking at it is refused (privacy settings). */
+function browserStorage(): Storage | null {
+  try {
+    return globalThis.localStorage ?? null;
+  } catch {
+    return null;
+  }
+}
+
+const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
 
 /** Text typed into a field that is not a value yet, with the reason. */
 export interface FieldText {
@@ -68,10 +98,21 @@ export class PlanStore extends EventTarget {
   settings: Settings;
   /** A one-line message for the status bar (file opened, file rejected, …). */
   notice: { kind: 'info' | 'error'; text: string } | null = null;
+  /** A saved draft that could not be read (shown until dismissed; see keepDamaged). */
+  damaged: DamagedDraft | null = null;
+  /** Why the last autosave failed; cleared by the next one that succeeds. */
+  saveError: string | null = null;
 
   private past: string[] = [];
   private future: string[] = [];
+  /**
+   * Autosave is held while the draft key still holds a damaged draft that has no copy elsewhere
+   * in storage, or when storage could not be read at all: saving would overwrite it.
+   */
+  private holdSave = false;
   private worker: Worker | null = null;
+  /** The planning worker could not start: no plan is sent (and nothing shows "Planning…"). */
+  private workerDead = false;
   private nextId = 1;
   private inFlight = 0;
   private pending: Plan | null = null;
@@ -82,14 +123,11 @@ export class PlanStore extends EventTarget {
 
   constructor(
     fallback: Draft,
-    private readonly storage: Storage | null = globalThis.localStorage ?? null,
+    private readonly storage: Storage | null = browserStorage(),
   ) {
     super();
     this.settings = this.loadSettings();
-    const saved = this.read(DRAFT_KEY);
-    this.draft = withTime(
-      saved && typeof saved === 'object' ? (saved as Draft) : structuredClone(fallback),
-    );
+    this.draft = this.loadDraft(fallback);
     this.committed = JSON.stringify(this.draft);
     this.revalidate();
   }
@@ -105,6 +143,36 @@ export class PlanStore extends EventTarget {
   list<T>(path: string): T[] {
     const v = getAt(this.draft, path);
     return Array.isArray(v) ? (v as T[]) : [];
+  }
+
+  /**
+   * The rows of the list at a plan path, each an object ({} stands in for an entry that is not
+   * one), so a panel can read row fields of any draft; indexes match the stored list.
+   */
+  rows<T extends object>(path: string): Partial<T>[] {
+    return this.list<unknown>(path).map((r) =>
+      r !== null && typeof r === 'object' && !Array.isArray(r) ? (r as Partial<T>) : {},
+    );
+  }
+
+  /** The object at a plan path, or {} when it is missing or not a plain object. */
+  obj(path: string): Record<string, unknown> {
+    const v = getAt(this.draft, path);
+    return v !== null && typeof v === 'object' && !Array.isArray(v)
+      ? (v as Record<string, unknown>)
+      : {};
+  }
+
+  /** The text at a plan path (a number is written out), or fallback for anything else. */
+  str(path: string, fallback = ''): string {
+    const v = getAt(this.draft, path);
+    return typeof v === 'string' ? v : typeof v === 'number' ? String(v) : fallback;
+  }
+
+  /** The finite number at a plan path, or undefined. */
+  num(path: string): number | undefined {
+    const v = getAt(this.draft, path);
+    return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
   }
 
   /** The problem to show beside the field at path (unreadable text first, then validation). */
@@ -204,15 +272,24 @@ export class PlanStore extends EventTarget {
     const now = JSON.stringify(this.draft);
     if (now === this.committed) return;
     this.past.push(this.committed);
-    if (this.past.length > HISTORY_LIMIT) this.past.shift();
     this.future = [];
     this.committed = now;
+    this.trimHistory();
+  }
+
+  /** Characters held by the undo and redo steps. */
+  get historyChars(): number {
+    let n = 0;
+    for (const h of this.past) n += h.length;
+    for (const h of this.future) n += h.length;
+    return n;
   }
 
   undo(): void {
     const prev = this.past.pop();
     if (prev === undefined) return;
     this.future.push(this.committed);
+    this.trimHistory();
     this.restore(prev);
   }
 
@@ -220,12 +297,28 @@ export class PlanStore extends EventTarget {
     const next = this.future.pop();
     if (next === undefined) return;
     this.past.push(this.committed);
+    this.trimHistory();
     this.restore(next);
   }
 
+  /**
+   * Changes settings. A value outside what settings may hold changes nothing and is explained in
+   * the notice; a setting that cannot be stored still applies for this visit.
+   */
   setSettings(patch: Partial<Settings>): void {
-    this.settings = { ...this.settings, ...patch };
-    this.storage?.setItem(SETTINGS_KEY, JSON.stringify(this.settings));
+    const { settings, problems } = checkSettings({ ...this.settings, ...patch });
+    if (problems.length) {
+      this.setNotice('error', `Setting not changed: ${problems.join('; ')}.`);
+      return;
+    }
+    this.settings = settings;
+    const err = this.tryWrite(SETTINGS_KEY, JSON.stringify(settings));
+    if (err !== null) {
+      this.notice = {
+        kind: 'error',
+        text: `Settings apply now but could not be stored for the next visit: ${this.storageWhy(err)}.`,
+      };
+    }
     this.emit();
   }
 
@@ -237,7 +330,35 @@ export class PlanStore extends EventTarget {
   /** Writes the draft to storage now (page hide). */
   flush(): void {
     clearTimeout(this.saveTimer);
-    this.storage?.setItem(DRAFT_KEY, JSON.stringify(this.draft));
+    this.writeDraft();
+  }
+
+  /** True while autosave is held back (see holdSave), for the notice. */
+  get autosaveHeld(): boolean {
+    return this.holdSave;
+  }
+
+  /**
+   * The user has dealt with the damaged draft notice. A copy in storage stays there (see
+   * deleteDamagedCopy); a damaged draft with no copy in storage is given up only now, so autosave
+   * may overwrite it from here on.
+   */
+  dismissDamaged(): void {
+    if (!this.damaged) return;
+    if (!this.damaged.stored) {
+      this.holdSave = false;
+      this.saveSoon();
+    }
+    this.damaged = null;
+    this.emit();
+  }
+
+  /** Removes the copy of a damaged draft from storage (after the user downloaded it). */
+  deleteDamagedCopy(): void {
+    this.tryRemove(DAMAGED_KEY);
+    this.tryRemove(DAMAGED_TIME_KEY);
+    if (this.damaged?.stored) this.damaged = null;
+    this.emit();
   }
 
   setNotice(kind: 'info' | 'error', text: string): void {
@@ -245,22 +366,70 @@ export class PlanStore extends EventTarget {
     this.emit();
   }
 
+  /** Starts the planning worker made by make(); a worker that cannot be made is reported. */
+  startWorker(make: () => Worker): void {
+    let w: Worker;
+    try {
+      w = make();
+    } catch (e) {
+      this.workerFailed(`the planning worker could not start (${message(e)})`);
+      return;
+    }
+    this.attachWorker(w);
+  }
+
   /** Sends plans to a planning worker (the app starts one; tests may run without). */
   attachWorker(worker: Worker): void {
     this.worker = worker;
+    this.workerDead = false;
     worker.onmessage = (ev: MessageEvent<WorkerReply>) => this.onReply(ev.data);
     worker.onerror = (ev) => {
-      // Forget the lost request so the next edit is planned again.
-      this.workerError = ev.message || 'the planning worker stopped';
-      this.inFlight = 0;
-      this.pending = null;
-      this.computing = false;
-      this.emit();
+      // An error with a message comes from the running worker's code: forget the lost request so
+      // the next edit is planned again. One without a message is a script that never loaded.
+      if (typeof ev.message === 'string' && ev.message) {
+        this.workerError = ev.message;
+        this.forgetRequest();
+        return;
+      }
+      ev.preventDefault?.();
+      worker.terminate?.();
+      this.workerFailed(
+        'the planning worker could not start (its script did not load). Reload the page to try again; your plan is kept',
+      );
+    };
+    worker.onmessageerror = () => {
+      this.workerError = 'a planning result could not be read';
+      this.forgetRequest();
     };
     this.changed(0);
   }
 
   // ---- internals -----------------------------------------------------------------------
+
+  private forgetRequest(): void {
+    this.inFlight = 0;
+    this.pending = null;
+    this.computing = false;
+    this.emit();
+  }
+
+  private workerFailed(why: string): void {
+    this.worker = null;
+    this.workerDead = true;
+    this.workerError = why;
+    clearTimeout(this.computeTimer);
+    this.forgetRequest();
+  }
+
+  /** Drops the oldest undo steps (then the farthest redo steps) past the count or size bound. */
+  private trimHistory(): void {
+    while (this.past.length > HISTORY_LIMIT) this.past.shift();
+    let chars = this.historyChars;
+    while (chars > HISTORY_CHARS && this.past.length + this.future.length > 0) {
+      const dropped = this.past.length > 0 ? this.past.shift() : this.future.shift();
+      chars -= dropped?.length ?? 0;
+    }
+  }
 
   private restore(json: string): void {
     this.committed = json;
@@ -289,6 +458,7 @@ export class PlanStore extends EventTarget {
   }
 
   private computeSoon(delay_ms: number): void {
+    if (this.workerDead) return;
     clearTimeout(this.computeTimer);
     this.computing = true;
     this.computeTimer = setTimeout(() => this.send(), delay_ms);
@@ -334,28 +504,135 @@ export class PlanStore extends EventTarget {
 
   private saveSoon(): void {
     clearTimeout(this.saveTimer);
-    this.saveTimer = setTimeout(
-      () => this.storage?.setItem(DRAFT_KEY, JSON.stringify(this.draft)),
-      200,
-    );
+    this.saveTimer = setTimeout(() => this.writeDraft(), 200);
   }
 
-  private read(key: string): unknown {
+  /** Autosave: a failure keeps the edit in memory and stands in saveError until a save works. */
+  private writeDraft(): void {
+    if (this.holdSave || !this.storage) return;
+    let err: unknown;
     try {
-      const s = this.storage?.getItem(key);
-      return s ? JSON.parse(s) : null;
-    } catch {
+      err = this.tryWrite(DRAFT_KEY, JSON.stringify(this.draft));
+    } catch (e) {
+      err = e; // a draft that cannot be written as JSON
+    }
+    const before = this.saveError;
+    this.saveError =
+      err === null
+        ? null
+        : `Autosave failed: ${this.storageWhy(err)} — save the plan to a file (Save) to keep your edits`;
+    if (this.saveError !== before) this.emit();
+  }
+
+  private storageWhy(err: unknown): string {
+    return isQuotaError(err)
+      ? 'browser storage is full'
+      : `the browser refused to store it (${message(err)})`;
+  }
+
+  /** setItem that never throws: the error, or null when the value was stored. */
+  private tryWrite(key: string, value: string): unknown {
+    if (!this.storage) return new Error('browser storage is not available');
+    try {
+      this.storage.setItem(key, value);
       return null;
+    } catch (e) {
+      return e ?? new Error('unknown storage error');
+    }
+  }
+
+  private tryRemove(key: string): void {
+    try {
+      this.storage?.removeItem(key);
+    } catch {
+      // Nothing to do: the copy stays, which loses nothing.
+    }
+  }
+
+  /** getItem that never throws: the text, null when absent, or the error. */
+  private tryRead(key: string): string | null | { error: unknown } {
+    try {
+      return this.storage?.getItem(key) ?? null;
+    } catch (e) {
+      return { error: e };
     }
   }
 
   private loadSettings(): Settings {
-    const s = this.read(SETTINGS_KEY) as Partial<Settings> | null;
-    return {
-      units: { ...DEFAULT_UNITS, ...(s?.units ?? {}) },
-      tileUrl: typeof s?.tileUrl === 'string' ? s.tileUrl : '',
-      tileAttribution: typeof s?.tileAttribution === 'string' ? s.tileAttribution : '',
-      paper: s?.paper === 'Letter' ? 'Letter' : 'A4',
+    const raw = this.tryRead(SETTINGS_KEY);
+    const { settings, problems } = readSettingsText(typeof raw === 'string' ? raw : null);
+    if (raw !== null && typeof raw === 'object') {
+      problems.push(`settings could not be read from browser storage (${message(raw.error)})`);
+    }
+    if (problems.length) {
+      this.notice = {
+        kind: 'error',
+        text: `Saved settings had problems, so their defaults are used: ${problems.join('; ')}.`,
+      };
+    }
+    return settings;
+  }
+
+  /**
+   * The saved draft when it is a plan object (checked like any opened file, so a draft of the
+   * wrong shape shows its problems beside the fields); otherwise the fallback, with the saved
+   * text kept aside (keepDamaged) and never overwritten before a copy of it is safe.
+   */
+  private loadDraft(fallback: Draft): Draft {
+    const raw = this.tryRead(DRAFT_KEY);
+    if (raw !== null && typeof raw === 'object') {
+      // Storage exists but cannot be read: there may be a draft in it that must not be replaced.
+      this.holdSave = true;
+      this.saveError = `Autosave is off: browser storage could not be read (${message(raw.error)}) — save the plan to a file (Save) to keep your edits`;
+      return withTime(structuredClone(fallback));
+    }
+    const r = readDraftText(raw);
+    if (r.kind === 'ok') {
+      try {
+        const d = withTime(r.draft);
+        JSON.stringify(d); // undo steps and autosave need it as JSON (too deep a nesting throws)
+        this.keptEarlier();
+        return d;
+      } catch (e) {
+        this.keepDamaged(raw as string, `it could not be read (${message(e)})`);
+      }
+    } else if (r.kind === 'damaged') {
+      this.keepDamaged(r.text, r.reason);
+    } else {
+      this.keptEarlier();
+    }
+    return withTime(structuredClone(fallback));
+  }
+
+  /**
+   * Keeps a damaged draft: a copy under DAMAGED_KEY (one at most; a copy already there from an
+   * earlier visit is not replaced), and in memory for download. Without a copy in storage,
+   * autosave is held until the user dismisses the notice, so the original stays in the draft key.
+   */
+  private keepDamaged(text: string, reason: string): void {
+    const at = new Date().toISOString();
+    const existing = this.tryRead(DAMAGED_KEY);
+    let stored = existing === text;
+    if (existing === null) {
+      stored = this.tryWrite(DAMAGED_KEY, text) === null && this.tryRead(DAMAGED_KEY) === text;
+      if (stored) this.tryWrite(DAMAGED_TIME_KEY, at);
+      else this.tryRemove(DAMAGED_KEY); // no partial copy
+    }
+    this.holdSave = !stored;
+    this.damaged = { text, reason, at, stored, earlier: false };
+  }
+
+  /** A damaged draft kept on an earlier visit is shown again until its copy is deleted. */
+  private keptEarlier(): void {
+    const text = this.tryRead(DAMAGED_KEY);
+    if (typeof text !== 'string') return;
+    const at = this.tryRead(DAMAGED_TIME_KEY);
+    this.damaged = {
+      text,
+      reason: '',
+      at: typeof at === 'string' ? at.slice(0, 40) : '',
+      stored: true,
+      earlier: true,
     };
   }
 
