@@ -104,10 +104,16 @@ export function fmt(n: number): string {
 }
 
 /** The count message of the rule: "only the first 988 sites were read (the plan holds at most 1,000 …)". */
-export function onlyFirstMessage(read: number, what: string, max: number, already = 0): string {
+export function onlyFirstMessage(
+  read: number,
+  what: string,
+  max: number,
+  already = 0,
+  rest = 'the rest of the file was not read',
+): string {
   return (
     `only the first ${fmt(read)} ${what} were read (the plan holds at most ${fmt(max)}` +
-    `${already > 0 ? `, ${fmt(already)} already in it` : ''}); the rest of the file was not read`
+    `${already > 0 ? `, ${fmt(already)} already in it` : ''}); ${rest}`
   );
 }
 

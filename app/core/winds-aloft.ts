@@ -5,6 +5,13 @@
  * reported in `problems` with its line and reason, and everything else is kept.
  */
 import { M_PER_FT, MPS_PER_KT } from './constants';
+import {
+  fmt,
+  MAX_IMPORT_BYTES,
+  onlyFirstMessage,
+  rangeProblem,
+  schemaMaxItems,
+} from './import-limits';
 import type { AltitudeReference, WindLayer } from './plan';
 
 /** One decoded level of a station. */
@@ -25,6 +32,8 @@ export interface WindsAloftLayer {
 
 export interface WindsAloftStation {
   id: string;
+  /** 1-based line of the station in the bulletin. */
+  line: number;
   /** Levels that carry a wind group, ascending; missing groups (near station elevation) are absent. */
   layers: WindsAloftLayer[];
   /** This station's problems (also listed in the bulletin's `problems`). */
@@ -172,6 +181,12 @@ export function decodeWindsAloft(text: string): WindsAloft {
     result.problems.push('line 1: no text to decode');
     return result;
   }
+  if (text.length > MAX_IMPORT_BYTES) {
+    result.problems.push(
+      `the text is longer than ${fmt(MAX_IMPORT_BYTES / 1048576)} MB, the most an import reads; nothing decoded`,
+    );
+    return result;
+  }
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
   const seen = new Map<string, number>();
   const allLevels = new Set<number>();
@@ -201,7 +216,7 @@ export function decodeWindsAloft(text: string): WindsAloft {
       }
       return;
     }
-    const station: WindsAloftStation = { id, layers: [], problems: [] };
+    const station: WindsAloftStation = { id, line: lineNo, layers: [], problems: [] };
     const report = (msg: string) => {
       station.problems.push(`line ${lineNo}: ${msg}`);
       result.problems.push(`line ${lineNo}: ${msg}`);
@@ -256,13 +271,17 @@ export interface StationLayers {
   layers: WindLayer[];
   /** Forecast temperatures, altitude_m per `reference`, for a SoundingAtmosphere. */
   temperatures: { altitude_m: number; temperature_K: number }[];
+  /** Decoded winds and temperatures above the ground not handed on (out of range or over a limit). */
+  notUsed: number;
   problems: string[];
 }
 
 /**
  * One station's levels as plan wind layers. Light and variable becomes speed 0 with the direction
  * of the nearest level that has one (0 if none): with no speed the direction never moves a body,
- * and carrying it keeps tables and interpolated displays steady. Never throws.
+ * and carrying it keeps tables and interpolated displays steady. A wind or temperature outside
+ * the plan schema's range is not handed on and is reported with its line, field and range; levels
+ * over the plan's layer limit are cut with "only the first N … were read". Never throws.
  */
 export function stationLayers(
   decoded: WindsAloft,
@@ -271,23 +290,36 @@ export function stationLayers(
 ): StationLayers {
   const reference = opts.reference ?? 'MSL';
   const ground = opts.groundElevation_m ?? 0;
-  const out: StationLayers = { reference, layers: [], temperatures: [], problems: [] };
+  const out: StationLayers = {
+    reference,
+    layers: [],
+    temperatures: [],
+    notUsed: 0,
+    problems: [],
+  };
   const want = String(id).trim().toUpperCase();
   const station = decoded?.stations?.find((s) => s.id === want);
   if (!station) {
     out.problems.push(`station ${want} is not in the bulletin`);
     return out;
   }
+  const at = `line ${station.line}: ${want}`;
   const offset = reference === 'AGL' ? ground : 0;
   const above = station.layers.filter((l) => l.altitude_m > ground);
   const below = station.layers.length - above.length;
   if (below > 0) {
     out.problems.push(
-      `${want}: ${below} level(s) at or below the ground elevation ${ground} m left out`,
+      `${at}: ${below} level(s) at or below the ground elevation ${ground} m left out`,
     );
   }
+  const maxLayers = schemaMaxItems('winds.layers');
+  const maxLevels = schemaMaxItems('atmosphere.sounding.levels');
+  let cutLayers = 0;
+  let cutLevels = 0;
   const directed = above.filter((l) => l.fromDeg !== null);
   for (const l of above) {
+    const z = l.altitude_m - offset;
+    const lv = `${at} ${l.altitude_ft} ft`;
     let fromDeg = l.fromDeg;
     if (fromDeg === null) {
       let best: WindsAloftLayer | null = null;
@@ -300,16 +332,47 @@ export function stationLayers(
       }
       fromDeg = best?.fromDeg ?? 0;
     }
-    out.layers.push({ altitude_m: l.altitude_m - offset, fromDeg, speed_mps: l.speed_mps });
+    const windBad =
+      rangeProblem('winds.layers[].altitude_m', z) ??
+      rangeProblem('winds.layers[].speed_mps', l.speed_mps) ??
+      rangeProblem('winds.layers[].fromDeg', fromDeg);
+    if (windBad) {
+      const capped = l.capped ? '; 199 kt is coded for 199 kt or more' : '';
+      out.problems.push(`${lv}: ${windBad}${capped}; wind not used`);
+      out.notUsed++;
+    } else if (out.layers.length >= maxLayers) {
+      cutLayers++;
+    } else {
+      out.layers.push({ altitude_m: z, fromDeg, speed_mps: l.speed_mps });
+      if (l.capped) out.problems.push(`${lv}: 199 kt is coded for 199 kt or more`);
+    }
     if (l.temperature_C !== null) {
-      out.temperatures.push({
-        altitude_m: l.altitude_m - offset,
-        temperature_K: l.temperature_C + ZERO_C_K,
-      });
+      const K = l.temperature_C + ZERO_C_K;
+      const tBad =
+        rangeProblem('atmosphere.sounding.levels[].altitude_m', z) ??
+        rangeProblem('atmosphere.sounding.levels[].temperature_K', K);
+      if (tBad) {
+        out.problems.push(`${lv}: ${tBad} (${fmt(l.temperature_C)} °C); temperature not used`);
+        out.notUsed++;
+      } else if (out.temperatures.length >= maxLevels) {
+        cutLevels++;
+      } else {
+        out.temperatures.push({ altitude_m: z, temperature_K: K });
+      }
     }
-    if (l.capped) {
-      out.problems.push(`${want} ${l.altitude_ft} ft: 199 kt is coded for 199 kt or more`);
-    }
+  }
+  const rest = (n: number) => `${fmt(n)} higher level(s) not used`;
+  if (cutLayers > 0) {
+    out.problems.push(
+      `${at}: ${onlyFirstMessage(out.layers.length, 'wind layers', maxLayers, 0, rest(cutLayers))}`,
+    );
+    out.notUsed += cutLayers;
+  }
+  if (cutLevels > 0) {
+    out.problems.push(
+      `${at}: ${onlyFirstMessage(out.temperatures.length, 'temperatures', maxLevels, 0, rest(cutLevels))}`,
+    );
+    out.notUsed += cutLevels;
   }
   return out;
 }

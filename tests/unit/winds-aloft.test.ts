@@ -6,6 +6,10 @@ import {
   stationLayers,
   type WindsAloftLayer,
 } from '../../app/core/winds-aloft';
+import demo from '../../data/demo-plan.json';
+import { inSchemaRange, schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
+import type { PlanFile } from '../../app/core/plan';
+import { allowedRange, validatePlan } from '../../app/core/validate';
 import { expectClose } from './helpers';
 
 // Invented bulletin in the NWS winds-aloft ("FB") layout (REFERENCES.md): levels in ft MSL, each
@@ -206,7 +210,8 @@ describe('station layers for a plan', () => {
     const s = stationLayers(d, 'QXV', { reference: 'AGL', groundElevation_m: 1000 });
     // 3000 ft = 914.4 m lies below 1000 m ground.
     expect(s.layers[0].altitude_m).toBeCloseTo(6000 * FT - 1000, 9);
-    expect(s.layers.length).toBe(8);
+    // 8 levels above it; 34000 ft is coded 199 kt, over the plan's speed limit (see below).
+    expect(s.layers.length).toBe(8 - (inSchemaRange('winds.layers[].speed_mps', 199 * KT) ? 0 : 1));
     expect(s.problems.some((p) => /1 level\(s\) at or below the ground/.test(p))).toBe(true);
   });
 
@@ -220,5 +225,99 @@ describe('station layers for a plan', () => {
     const s = stationLayers(d, 'ABC');
     expect(s.layers).toEqual([]);
     expect(s.problems).toEqual(['station ABC is not in the bulletin']);
+  });
+});
+
+describe('station layers stay inside the plan schema', () => {
+  const speedMax = schemaBounds('winds.layers[].speed_mps').max!;
+  const tMax = schemaBounds('atmosphere.sounding.levels[].temperature_K').max!;
+
+  it('does not hand on a 199 kt group over the plan’s speed limit, and says why by line', () => {
+    // NWS FB: 7799 = 270° at 199 kt, which stands for 199 kt or more; 199 × 1852/3600 = 102.3744 m/s.
+    expect(199 * KT).toBeGreaterThan(speedMax); // the case this test is about
+    const d = decodeWindsAloft(`FT  3000    6000\nQXV 2714 7799+05`);
+    const s = stationLayers(d, 'QXV');
+    expect(s.layers).toEqual([{ altitude_m: 3000 * FT, fromDeg: 270, speed_mps: 14 * KT }]);
+    expect(s.problems).toEqual([
+      `line 2: QXV 6000 ft: speed_mps 102.3744 is outside the plan's range (${allowedRange('winds.layers[0].speed_mps')}); 199 kt is coded for 199 kt or more; wind not used`,
+    ]);
+    // The temperature of that group is in range and is kept.
+    expect(s.temperatures).toEqual([{ altitude_m: 6000 * FT, temperature_K: 273.15 + 5 }]);
+    expect(s.notUsed).toBe(1);
+  });
+
+  it('does not hand on +99 °C (372.15 K), above the plan’s temperature limit', () => {
+    // SI: 99 °C = 372.15 K.
+    expect(99 + 273.15).toBeGreaterThan(tMax);
+    const s = stationLayers(decodeWindsAloft(`FT  3000    6000\nQXV 2714 2725+99`), 'QXV');
+    expect(s.layers).toHaveLength(2);
+    expect(s.temperatures).toEqual([]);
+    expect(s.problems[0]).toMatch(
+      /^line 2: QXV 6000 ft: temperature_K 372\.15 is outside the plan's range .* \(99 °C\); temperature not used$/,
+    );
+  });
+
+  it('keeps only the first levels up to the plan’s layer limit and says so', () => {
+    const max = schemaMaxItems('winds.layers');
+    const n = max + 50;
+    const levels = Array.from({ length: n }, (_, i) => 1000 + i * 100); // ft, below 20000 m
+    const header = `FT${levels.map((ft) => String(ft).padStart(7)).join('')}`;
+    const station = `QXV${levels.map(() => '2710'.padStart(7)).join('')}`;
+    const s = stationLayers(decodeWindsAloft(`${header}\n${station}`), 'QXV');
+    expect(s.layers).toHaveLength(max);
+    expect(s.layers.at(-1)!.altitude_m).toBeCloseTo(levels[max - 1] * FT, 9);
+    expect(s.problems).toEqual([
+      `line 2: QXV: only the first ${max.toLocaleString('en-US')} wind layers were read (the plan holds at most ${max.toLocaleString('en-US')}); 50 higher level(s) not used`,
+    ]);
+    expect(s.notUsed).toBe(50);
+  });
+
+  it('never gives the demo plan a layer or temperature it rejects, on any bulletin', () => {
+    // Property: whatever the groups say, the layers and temperatures validate in a plan.
+    const group = fc.oneof(
+      fc
+        .tuple(
+          fc.integer({ min: 0, max: 99 }),
+          fc.integer({ min: 0, max: 99 }),
+          fc.constantFrom('+', '-', ''),
+          fc.integer({ min: 0, max: 99 }),
+        )
+        .map(
+          ([dd, ff, sg, tt]) =>
+            `${String(dd).padStart(2, '0')}${String(ff).padStart(2, '0')}${sg}${String(tt).padStart(2, '0')}`,
+        ),
+      fc.constantFrom('9900', '7799', '7799+99', '2725-99'),
+    );
+    const levels = fc
+      .uniqueArray(fc.integer({ min: 100, max: 99999 }), { minLength: 1, maxLength: 12 })
+      .map((a) => a.sort((x, y) => x - y));
+    fc.assert(
+      fc.property(
+        levels,
+        fc.array(group, { maxLength: 12 }),
+        fc.integer({ min: -400, max: 4000 }),
+        (lv, gs, ground) => {
+          const text = `FT${lv.map((ft) => String(ft).padStart(8)).join('')}\nQXV${gs
+            .slice(0, lv.length)
+            .map((g) => g.padStart(8))
+            .join('')}`;
+          const r = stationLayers(decodeWindsAloft(text), 'QXV', {
+            groundElevation_m: ground,
+            reference: 'MSL',
+          });
+          const plan = structuredClone(demo) as unknown as PlanFile;
+          plan.groundElevation_m = ground;
+          plan.winds = { ...plan.winds, reference: 'MSL', layers: r.layers };
+          if (r.temperatures.length)
+            plan.atmosphere = { sounding: { reference: 'MSL', levels: r.temperatures } };
+          plan.release.reference = 'MSL';
+          plan.release.altitude_m = schemaBounds('release.altitude_m').max!;
+          plan.sites = plan.sites.map((s) => ({ ...s, elevation_m: ground }));
+          const v = validatePlan(plan);
+          expect(v.ok ? [] : v.errors.slice(0, 3)).toEqual([]);
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
