@@ -8,7 +8,16 @@
  * its support function is the sum of theirs; the polygon drawn for it is the *circumscribed*
  * one (the tangent lines at n evenly spread directions), which always contains the true shape.
  */
-import { area as turfArea, featureCollection, polygon as turfPolygon, union } from '@turf/turf';
+import { area as turfArea } from '@turf/turf';
+import {
+  Clipper,
+  ClipType,
+  FillRule,
+  PolyTreeD,
+  type PathD,
+  type PathsD,
+  type PolyPathD,
+} from 'clipper2-ts';
 import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import { LocalFrame, type LatLon } from './geodesy';
 import type { GeoEllipse, PlanResult } from './planner';
@@ -153,7 +162,117 @@ export function hazardPieces(result: PlanResult, frame: LocalFrame): HazardPiece
   return out;
 }
 
-/** Hazard area: union (turf.union) of every piece grown by buffer_m (m), and its area (m², turf.area). */
+// Union resolution in the local frame, decimal places of a metre (1 mm).
+const UNION_DECIMALS = 3;
+
+/** Position of (x, y) along a Hilbert curve over a 2^order grid (x, y in 0…2^order − 1). */
+function hilbertIndex(x: number, y: number, order: number): number {
+  let d = 0;
+  for (let s = 2 ** (order - 1); s >= 1; s /= 2) {
+    const rx = x >= s ? 1 : 0;
+    const ry = y >= s ? 1 : 0;
+    d += s * s * ((3 * rx) ^ ry);
+    x -= rx * s;
+    y -= ry * s;
+    if (ry === 0) {
+      if (rx === 1) {
+        x = s - 1 - x;
+        y = s - 1 - y;
+      }
+      [x, y] = [y, x];
+    }
+  }
+  return d;
+}
+
+/**
+ * Union of polygons (local metres, 1 mm resolution) as a tree of outer rings and holes.
+ * Cascaded: polygons are ordered along a Hilbert curve and merged pairwise, level by level, so
+ * each merge meets only the outline of its neighbours and interiors drop out early. A single
+ * union of every piece at once meets every crossing of every overlapping pair, which grows with
+ * the square of the site count.
+ */
+export function unionLocal(polys: readonly (readonly XY[])[]): PolyTreeD {
+  const items = polys
+    .filter((p) => p.length >= 3)
+    .map((p) => {
+      let cx = 0;
+      let cy = 0;
+      for (const q of p) {
+        cx += q.x;
+        cy += q.y;
+      }
+      return { path: p.map((q) => ({ x: q.x, y: q.y })), cx: cx / p.length, cy: cy / p.length };
+    });
+  const tree = new PolyTreeD();
+  if (items.length === 0) return tree;
+  let [x0, x1, y0, y1] = [Infinity, -Infinity, Infinity, -Infinity];
+  for (const it of items) {
+    x0 = Math.min(x0, it.cx);
+    x1 = Math.max(x1, it.cx);
+    y0 = Math.min(y0, it.cy);
+    y1 = Math.max(y1, it.cy);
+  }
+  const order = 16;
+  const cells = 2 ** order - 1;
+  const span = Math.max(x1 - x0, y1 - y0, 1e-9);
+  const keyed = items.map((it) => ({
+    path: it.path,
+    key: hilbertIndex(
+      Math.round(((it.cx - x0) / span) * cells),
+      Math.round(((it.cy - y0) / span) * cells),
+      order,
+    ),
+  }));
+  keyed.sort((a, b) => a.key - b.key); // stable: equal keys keep the pieces' order
+  let level: PathsD[] = keyed.map((k) => [k.path]);
+  while (level.length > 2) {
+    const next: PathsD[] = [];
+    for (let i = 0; i < level.length; i += 2) {
+      next.push(
+        i + 1 < level.length
+          ? Clipper.unionD(level[i], level[i + 1], FillRule.NonZero, UNION_DECIMALS)
+          : level[i],
+      );
+    }
+    level = next;
+  }
+  Clipper.booleanOpDWithPolyTree(
+    ClipType.Union,
+    level[0],
+    level[1] ?? [],
+    tree,
+    FillRule.NonZero,
+    UNION_DECIMALS,
+  );
+  return tree;
+}
+
+/** GeoJSON polygons ([lon, lat], closed, outer counter-clockwise, holes clockwise) of a union tree. */
+function treePolygons(frame: LocalFrame, tree: PolyTreeD): Position[][][] {
+  const out: Position[][][] = [];
+  const ring = (path: readonly XY[], outer: boolean): Position[] => {
+    const pts = Clipper.isPositiveD(path as PathD) === outer ? path : [...path].reverse();
+    return toRing(frame, pts);
+  };
+  const visitOuter = (node: PolyPathD): void => {
+    if (!node.poly) return;
+    const rings = [ring(node.poly, true)];
+    for (let i = 0; i < node.count; i++) {
+      const hole = node.child(i);
+      if (hole.poly) rings.push(ring(hole.poly, false));
+      for (let j = 0; j < hole.count; j++) visitOuter(hole.child(j)); // islands inside holes
+    }
+    out.push(rings);
+  };
+  for (let i = 0; i < tree.count; i++) visitOuter(tree.child(i));
+  return out;
+}
+
+/**
+ * Hazard area: union of every piece grown by buffer_m (m), taken in the local frame (cascaded,
+ * 1 mm resolution), and its area (m², turf.area).
+ */
 export function hazardArea(
   result: PlanResult,
   buffer_m: number,
@@ -161,19 +280,19 @@ export function hazardArea(
 ): { feature: Feature<Polygon | MultiPolygon>; area_m2: number } {
   const frame = new LocalFrame(result.releasePoint);
   const polys = hazardPieces(result, frame).map(({ piece }) =>
-    turfPolygon([
-      toRing(frame, circumscribed({ ...piece, radius_m: (piece.radius_m ?? 0) + buffer_m }, n)),
-    ]),
+    circumscribed({ ...piece, radius_m: (piece.radius_m ?? 0) + buffer_m }, n),
   );
+  const parts = treePolygons(frame, unionLocal(polys));
   const props = { name: 'Hazard area', buffer_m };
-  let feature: Feature<Polygon | MultiPolygon> | null =
-    polys.length > 0 ? union(featureCollection(polys), { properties: props }) : null;
-  feature ??= {
+  const feature: Feature<Polygon | MultiPolygon> = {
     type: 'Feature',
     properties: props,
-    geometry: { type: 'MultiPolygon', coordinates: [] },
+    geometry:
+      parts.length === 1
+        ? { type: 'Polygon', coordinates: parts[0] }
+        : { type: 'MultiPolygon', coordinates: parts },
   };
-  return { feature, area_m2: polys.length > 0 ? turfArea(feature) : 0 };
+  return { feature, area_m2: parts.length > 0 ? turfArea(feature) : 0 };
 }
 
 // ---- Clearance between a convex polygon and a no-drop polygon (local metres) ----
@@ -217,8 +336,92 @@ function insidePolygon(p: XY, poly: LocalPolygon): boolean {
   return insideRing(p, poly[0]) && !poly.slice(1).some((h) => insideRing(p, h));
 }
 
-function edges(ring: readonly XY[]): [XY, XY][] {
-  return ring.map((a, i) => [a, ring[(i + 1) % ring.length]]);
+/** Bounding box of local points, m. */
+export interface Box {
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+}
+
+/** Bounding box of local points. */
+export function boxOf(pts: readonly XY[]): Box {
+  const b = { x0: Infinity, y0: Infinity, x1: -Infinity, y1: -Infinity };
+  for (const p of pts) {
+    if (p.x < b.x0) b.x0 = p.x;
+    if (p.x > b.x1) b.x1 = p.x;
+    if (p.y < b.y0) b.y0 = p.y;
+    if (p.y > b.y1) b.y1 = p.y;
+  }
+  return b;
+}
+
+/** Least distance between two boxes, m (0 when they touch or overlap): a lower bound on the clearance of what they hold. */
+export function boxGap(a: Box, b: Box): number {
+  const dx = Math.max(0, a.x0 - b.x1, b.x0 - a.x1);
+  const dy = Math.max(0, a.y0 - b.y1, b.y0 - a.y1);
+  return Math.hypot(dx, dy);
+}
+
+/** A no-drop zone in the local frame, converted once: its polygons (open rings) and their boxes. */
+export interface LocalZone {
+  polygons: { rings: LocalPolygon; box: Box }[];
+  /** Box of every polygon; empty (infinite) when the zone has no usable polygon. */
+  box: Box;
+}
+
+/** A no-drop polygon or multipolygon (GeoJSON, [lon, lat]) in the local frame. */
+export function localZone(frame: LocalFrame, zone: Polygon | MultiPolygon): LocalZone {
+  const polys: Position[][][] = zone.type === 'Polygon' ? [zone.coordinates] : zone.coordinates;
+  const polygons: LocalZone['polygons'] = [];
+  for (const rings of polys) {
+    const local: LocalPolygon = rings.map((r) => {
+      const pts = r.map(([lon, lat]) => frame.toLocal({ lat, lon } as LatLon));
+      const last = pts[pts.length - 1];
+      if (pts.length > 1 && last.x === pts[0].x && last.y === pts[0].y) pts.pop();
+      return pts;
+    });
+    if (local.length === 0 || local[0].length < 3) continue;
+    polygons.push({ rings: local, box: boxOf(local[0]) });
+  }
+  return { polygons, box: boxOf(polygons.flatMap((p) => [...p.rings[0]])) };
+}
+
+/**
+ * Clearance (m) between a convex polygon `shape` (local, open ring) and a zone in the same frame;
+ * 0 when they touch or overlap. Zone edges whose box is no nearer than the best distance so far
+ * are skipped: they can neither cross the shape nor come closer.
+ */
+export function clearanceLocal(shape: readonly XY[], zone: LocalZone): number {
+  const sb = boxOf(shape);
+  let best = Infinity;
+  for (const { rings, box } of zone.polygons) {
+    if (boxGap(sb, box) === 0) {
+      if (shape.some((p) => insidePolygon(p, rings))) return 0;
+      if (rings[0].some((p) => insideRing(p, shape))) return 0;
+    }
+    if (boxGap(sb, box) >= best) continue;
+    for (const ring of rings) {
+      for (let i = 0; i < ring.length; i++) {
+        const c = ring[i];
+        const d = ring[(i + 1) % ring.length];
+        const eb = {
+          x0: Math.min(c.x, d.x),
+          y0: Math.min(c.y, d.y),
+          x1: Math.max(c.x, d.x),
+          y1: Math.max(c.y, d.y),
+        };
+        if (boxGap(sb, eb) >= best) continue;
+        for (let k = 0; k < shape.length; k++) {
+          const a = shape[k];
+          const b = shape[(k + 1) % shape.length];
+          if (segmentsCross(a, b, c, d)) return 0;
+          best = Math.min(best, segDist(a, c, d), segDist(c, a, b));
+        }
+      }
+    }
+  }
+  return best;
 }
 
 /**
@@ -230,27 +433,5 @@ export function clearance_m(
   shape: readonly XY[],
   zone: Polygon | MultiPolygon,
 ): number {
-  const polys: Position[][][] = zone.type === 'Polygon' ? [zone.coordinates] : zone.coordinates;
-  let best = Infinity;
-  for (const rings of polys) {
-    const local: LocalPolygon = rings.map((r) => {
-      const pts = r.map(([lon, lat]) => frame.toLocal({ lat, lon } as LatLon));
-      const last = pts[pts.length - 1];
-      if (pts.length > 1 && last.x === pts[0].x && last.y === pts[0].y) pts.pop();
-      return pts;
-    });
-    if (local.length === 0 || local[0].length < 3) continue;
-    if (shape.some((p) => insidePolygon(p, local))) return 0;
-    if (local[0].some((p) => insideRing(p, shape))) return 0;
-    const se = edges(shape);
-    for (const ring of local) {
-      for (const [c, d] of edges(ring)) {
-        for (const [a, b] of se) {
-          if (segmentsCross(a, b, c, d)) return 0;
-          best = Math.min(best, segDist(a, c, d), segDist(c, a, b));
-        }
-      }
-    }
-  }
-  return best;
+  return clearanceLocal(shape, localZone(frame, zone));
 }

@@ -8,7 +8,15 @@ import { densityAt } from './atmosphere';
 import { RHO0 } from './constants';
 import { WMM_VALIDITY } from './declination';
 import { LocalFrame } from './geodesy';
-import { circumscribed, clearance_m, hazardPieces, hazardArea } from './hazard-area';
+import {
+  boxGap,
+  boxOf,
+  circumscribed,
+  clearanceLocal,
+  hazardPieces,
+  hazardArea,
+  localZone,
+} from './hazard-area';
 import type { Plan, ResolvedVariant } from './plan';
 import { soundingDensity, type PlanResult } from './planner';
 import { civilTwilight, sunElevationDeg } from './sun';
@@ -180,19 +188,42 @@ function noDropCheck(result: PlanResult, st: SafetySettings): CheckResult {
     };
   }
   const frame = new LocalFrame(result.releasePoint);
-  const items: Record<string, number | string>[] = [];
-  let least = Infinity;
   // Every landing the plan allows: each 99 % ellipse swept over its release window (or widened by
   // its hover zone), the same pieces the hazard area is built from.
-  for (const hp of hazardPieces(result, frame).filter((p) => p.kind === 'landing')) {
-    const ring = circumscribed(hp.piece);
-    zones.forEach((z, i) => {
-      const name = String(z.properties?.name ?? `zone ${i + 1}`);
-      const c = clearance_m(frame, ring, z.geometry);
-      least = Math.min(least, c);
-      if (c < st.noDropBuffer_m) items.push({ site: hp.site, zone: name, clearance_m: r1(c) });
+  const shapes = hazardPieces(result, frame)
+    .filter((p) => p.kind === 'landing')
+    .map((hp) => {
+      const ring = circumscribed(hp.piece);
+      return { site: hp.site, ring, box: boxOf(ring) };
     });
-  }
+  // Per zone, pieces nearest first by their boxes; the gap between boxes is a lower bound on the
+  // clearance, so once it reaches both the buffer and the least clearance found so far no later
+  // piece can be reported or lower the least. Same answer as every piece against every zone.
+  const found: (number | undefined)[][] = zones.map(() => []);
+  let least = Infinity;
+  zones.forEach((z, zi) => {
+    const local = localZone(frame, z.geometry);
+    if (local.polygons.length === 0) return;
+    const order = shapes
+      .map((sh, i) => ({ i, gap: boxGap(sh.box, local.box) }))
+      .sort((a, b) => a.gap - b.gap || a.i - b.i);
+    for (const { i, gap } of order) {
+      if (gap >= st.noDropBuffer_m && gap >= least) break;
+      const c = clearanceLocal(shapes[i].ring, local);
+      found[zi][i] = c;
+      least = Math.min(least, c);
+    }
+  });
+  const items: Record<string, number | string>[] = [];
+  shapes.forEach((sh, i) => {
+    zones.forEach((z, zi) => {
+      const c = found[zi][i];
+      if (c !== undefined && c < st.noDropBuffer_m) {
+        const name = String(z.properties?.name ?? `zone ${zi + 1}`);
+        items.push({ site: sh.site, zone: name, clearance_m: r1(c) });
+      }
+    });
+  });
   const ok = items.length === 0;
   return {
     id: 'no-drop-zones',
@@ -219,17 +250,19 @@ function energyCheck(plan: Plan, result: PlanResult): CheckResult {
   const surface = windSpeeds(plan, result).surface_mps;
   const cat2 = IMPACT_CAT2_FT_LBF * J_PER_FT_LBF;
   const cat3 = IMPACT_CAT3_FT_LBF * J_PER_FT_LBF;
+  const elevationOf = new Map<string, number>();
+  for (const p of plan.sites) if (!elevationOf.has(p.id)) elevationOf.set(p.id, p.elevation_m);
   const items = used.map((v): Record<string, number | string> => {
     const mass = v.payloadMass_kg ?? v.referenceMass_kg;
     if (mass === undefined) return { variant: v.id, status: 'warn', note: 'mass unknown' };
     const massFactor =
       v.payloadMass_kg && v.referenceMass_kg ? Math.sqrt(v.payloadMass_kg / v.referenceMass_kg) : 1;
     // Highest site is the thinnest air and the fastest touchdown: w ∝ √(ρ0/ρ) (momentum theory).
-    const elev = Math.max(
-      ...result.sites
-        .filter((s) => s.variant === v.id)
-        .map((s) => plan.sites.find((p) => p.id === s.id)?.elevation_m ?? plan.groundElevation_m),
-    );
+    let elev = -Infinity;
+    for (const s of result.sites) {
+      if (s.variant === v.id)
+        elev = Math.max(elev, elevationOf.get(s.id) ?? plan.groundElevation_m);
+    }
     const w = v.descentRate_mps * massFactor * Math.sqrt(RHO0 / density(elev));
     // Steered vehicles may still glide at full authority at touchdown: add w·cot γ to the wind.
     const steer = v.guidance === 'passive' ? 0 : w / Math.tan(v.glideAngle_deg * DEG);

@@ -137,5 +137,6 @@ describe('the brief from the command line', () => {
       err2 = String((e as { stderr: Buffer }).stderr);
     }
     expect(err2).toContain('--paper must be A4 or Letter');
-  });
+    // Four CLI runs (tsx start-up and a plan each): seconds apiece on a loaded 2-core machine.
+  }, 180_000);
 });
