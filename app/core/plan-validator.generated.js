@@ -21,14 +21,14 @@ const runtime0 = function ucs2length(str) {
 };
 export const validate = validate10;
 export default validate10;
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s. Default 0 (hover).","minimum":0,"maximum":100},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m. Default 300.","exclusiveMinimum":0,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m. Default 0.","minimum":0,"maximum":10000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s. Default 0.","minimum":0,"maximum":60}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable. Default 0.9.","minimum":0,"maximum":1},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","exclusiveMinimum":0,"maximum":10000,"description":"Highest release altitude allowed, m AGL (a setting: match local rules). Default 120."},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s.","exclusiveMinimum":0,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (steered: below 90). Default 90 (passive).","exclusiveMinimum":0,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg.","exclusiveMinimum":0,"maximum":1000},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (needs referenceMass_kg).","exclusiveMinimum":0,"maximum":1000},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s.","minimum":0,"maximum":60},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m. Default 10.","exclusiveMinimum":0,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] in degrees (RFC 7946 order)."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
 const schema12 = {"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."};
 const schema14 = {"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}};
-const schema23 = {"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] in degrees (RFC 7946 order)."}}}}}}};
+const schema23 = {"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = runtime0;
 const formats0 = fullFormats["date-time"];
-const schema18 = {"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s.","exclusiveMinimum":0,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (steered: below 90). Default 90 (passive).","exclusiveMinimum":0,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg.","exclusiveMinimum":0,"maximum":1000},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (needs referenceMass_kg).","exclusiveMinimum":0,"maximum":1000},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s.","minimum":0,"maximum":60},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}};
+const schema18 = {"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}};
 const schema19 = {"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."};
 const pattern0 = new RegExp("^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$", "u");
 
@@ -174,8 +174,8 @@ vErrors.push(err11);
 }
 errors++;
 }
-if(data3 <= 0 || isNaN(data3)){
-const err12 = {instancePath:instancePath+"/descentRate_mps",schemaPath:"#/properties/descentRate_mps/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema18.properties.descentRate_mps,data:data3};
+if(data3 < 0.05 || isNaN(data3)){
+const err12 = {instancePath:instancePath+"/descentRate_mps",schemaPath:"#/properties/descentRate_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema18.properties.descentRate_mps,data:data3};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -209,8 +209,8 @@ vErrors.push(err14);
 }
 errors++;
 }
-if(data4 <= 0 || isNaN(data4)){
-const err15 = {instancePath:instancePath+"/glideAngle_deg",schemaPath:"#/properties/glideAngle_deg/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema18.properties.glideAngle_deg,data:data4};
+if(data4 < 1 || isNaN(data4)){
+const err15 = {instancePath:instancePath+"/glideAngle_deg",schemaPath:"#/properties/glideAngle_deg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema18.properties.glideAngle_deg,data:data4};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -304,8 +304,8 @@ errors++;
 if(data.referenceMass_kg !== undefined){
 let data7 = data.referenceMass_kg;
 if((typeof data7 == "number") && (isFinite(data7))){
-if(data7 > 1000 || isNaN(data7)){
-const err23 = {instancePath:instancePath+"/referenceMass_kg",schemaPath:"#/properties/referenceMass_kg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema18.properties.referenceMass_kg,data:data7};
+if(data7 > 100 || isNaN(data7)){
+const err23 = {instancePath:instancePath+"/referenceMass_kg",schemaPath:"#/properties/referenceMass_kg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema18.properties.referenceMass_kg,data:data7};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -314,8 +314,8 @@ vErrors.push(err23);
 }
 errors++;
 }
-if(data7 <= 0 || isNaN(data7)){
-const err24 = {instancePath:instancePath+"/referenceMass_kg",schemaPath:"#/properties/referenceMass_kg/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema18.properties.referenceMass_kg,data:data7};
+if(data7 < 0.001 || isNaN(data7)){
+const err24 = {instancePath:instancePath+"/referenceMass_kg",schemaPath:"#/properties/referenceMass_kg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.001},message:"must be >= 0.001",schema:0.001,parentSchema:schema18.properties.referenceMass_kg,data:data7};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -339,8 +339,8 @@ errors++;
 if(data.payloadMass_kg !== undefined){
 let data8 = data.payloadMass_kg;
 if((typeof data8 == "number") && (isFinite(data8))){
-if(data8 > 1000 || isNaN(data8)){
-const err26 = {instancePath:instancePath+"/payloadMass_kg",schemaPath:"#/properties/payloadMass_kg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema18.properties.payloadMass_kg,data:data8};
+if(data8 > 100 || isNaN(data8)){
+const err26 = {instancePath:instancePath+"/payloadMass_kg",schemaPath:"#/properties/payloadMass_kg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema18.properties.payloadMass_kg,data:data8};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -349,8 +349,8 @@ vErrors.push(err26);
 }
 errors++;
 }
-if(data8 <= 0 || isNaN(data8)){
-const err27 = {instancePath:instancePath+"/payloadMass_kg",schemaPath:"#/properties/payloadMass_kg/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema18.properties.payloadMass_kg,data:data8};
+if(data8 < 0.001 || isNaN(data8)){
+const err27 = {instancePath:instancePath+"/payloadMass_kg",schemaPath:"#/properties/payloadMass_kg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.001},message:"must be >= 0.001",schema:0.001,parentSchema:schema18.properties.payloadMass_kg,data:data8};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -374,8 +374,8 @@ errors++;
 if(data.throwTime_s !== undefined){
 let data9 = data.throwTime_s;
 if((typeof data9 == "number") && (isFinite(data9))){
-if(data9 > 60 || isNaN(data9)){
-const err29 = {instancePath:instancePath+"/throwTime_s",schemaPath:"#/properties/throwTime_s/maximum",keyword:"maximum",params:{comparison: "<=", limit: 60},message:"must be <= 60",schema:60,parentSchema:schema18.properties.throwTime_s,data:data9};
+if(data9 > 10 || isNaN(data9)){
+const err29 = {instancePath:instancePath+"/throwTime_s",schemaPath:"#/properties/throwTime_s/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema18.properties.throwTime_s,data:data9};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -456,7 +456,7 @@ validate11.errors = vErrors;
 return errors === 0;
 }
 
-const schema20 = {"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m. Default 10.","exclusiveMinimum":0,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}};
+const schema20 = {"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}};
 
 function validate13(data, {instancePath="", parentData, parentDataProperty, rootData=data}={}){
 let vErrors = null;
@@ -692,8 +692,8 @@ vErrors.push(err19);
 }
 errors++;
 }
-if(data5 <= 0 || isNaN(data5)){
-const err20 = {instancePath:instancePath+"/tolerance_m",schemaPath:"#/properties/tolerance_m/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema20.properties.tolerance_m,data:data5};
+if(data5 < 0.1 || isNaN(data5)){
+const err20 = {instancePath:instancePath+"/tolerance_m",schemaPath:"#/properties/tolerance_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema20.properties.tolerance_m,data:data5};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -2237,9 +2237,12 @@ errors++;
 }
 if(data36.groundSpeed_mps !== undefined){
 let data37 = data36.groundSpeed_mps;
+const _errs87 = errors;
+const _errs88 = errors;
+if(errors === _errs88){
 if((typeof data37 == "number") && (isFinite(data37))){
-if(data37 > 100 || isNaN(data37)){
-const err103 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
+if(data37 >= 0.5 || isNaN(data37)){
+const err103 = {};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -2248,8 +2251,9 @@ vErrors.push(err103);
 }
 errors++;
 }
-if(data37 < 0 || isNaN(data37)){
-const err104 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
+else {
+if(data37 <= 0 || isNaN(data37)){
+const err104 = {};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -2259,8 +2263,9 @@ vErrors.push(err104);
 errors++;
 }
 }
+}
 else {
-const err105 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.carrier.properties.groundSpeed_mps.type,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
+const err105 = {};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -2270,11 +2275,9 @@ vErrors.push(err105);
 errors++;
 }
 }
-if(data36.trackDeg !== undefined){
-let data38 = data36.trackDeg;
-if((typeof data38 == "number") && (isFinite(data38))){
-if(data38 > 360 || isNaN(data38)){
-const err106 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 360},message:"must be <= 360",schema:360,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
+var valid24 = _errs88 === errors;
+if(valid24){
+const err106 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.carrier.properties.groundSpeed_mps.not,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -2283,8 +2286,20 @@ vErrors.push(err106);
 }
 errors++;
 }
-if(data38 < 0 || isNaN(data38)){
-const err107 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
+else {
+errors = _errs87;
+if(vErrors !== null){
+if(_errs87){
+vErrors.length = _errs87;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data37 == "number") && (isFinite(data37))){
+if(data37 > 100 || isNaN(data37)){
+const err107 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -2293,9 +2308,8 @@ vErrors.push(err107);
 }
 errors++;
 }
-}
-else {
-const err108 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.carrier.properties.trackDeg.type,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
+if(data37 < 0 || isNaN(data37)){
+const err108 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -2305,9 +2319,8 @@ vErrors.push(err108);
 errors++;
 }
 }
-}
 else {
-const err109 = {instancePath:instancePath+"/carrier",schemaPath:"#/properties/carrier/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.carrier.type,parentSchema:schema11.properties.carrier,data:data36};
+const err109 = {instancePath:instancePath+"/carrier/groundSpeed_mps",schemaPath:"#/properties/carrier/properties/groundSpeed_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.carrier.properties.groundSpeed_mps.type,parentSchema:schema11.properties.carrier.properties.groundSpeed_mps,data:data37};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -2317,11 +2330,11 @@ vErrors.push(err109);
 errors++;
 }
 }
-if(data.variants !== undefined){
-let data39 = data.variants;
-if(Array.isArray(data39)){
-if(data39.length > 100){
-const err110 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/maxItems",keyword:"maxItems",params:{limit: 100},message:"must NOT have more than 100 items",schema:100,parentSchema:schema11.properties.variants,data:data39};
+if(data36.trackDeg !== undefined){
+let data38 = data36.trackDeg;
+if((typeof data38 == "number") && (isFinite(data38))){
+if(data38 > 360 || isNaN(data38)){
+const err110 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 360},message:"must be <= 360",schema:360,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -2330,13 +2343,60 @@ vErrors.push(err110);
 }
 errors++;
 }
-if(data39.length < 1){
-const err111 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.variants,data:data39};
+if(data38 < 0 || isNaN(data38)){
+const err111 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
 if(vErrors === null){
 vErrors = [err111];
 }
 else {
 vErrors.push(err111);
+}
+errors++;
+}
+}
+else {
+const err112 = {instancePath:instancePath+"/carrier/trackDeg",schemaPath:"#/properties/carrier/properties/trackDeg/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.carrier.properties.trackDeg.type,parentSchema:schema11.properties.carrier.properties.trackDeg,data:data38};
+if(vErrors === null){
+vErrors = [err112];
+}
+else {
+vErrors.push(err112);
+}
+errors++;
+}
+}
+}
+else {
+const err113 = {instancePath:instancePath+"/carrier",schemaPath:"#/properties/carrier/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.carrier.type,parentSchema:schema11.properties.carrier,data:data36};
+if(vErrors === null){
+vErrors = [err113];
+}
+else {
+vErrors.push(err113);
+}
+errors++;
+}
+}
+if(data.variants !== undefined){
+let data39 = data.variants;
+if(Array.isArray(data39)){
+if(data39.length > 100){
+const err114 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/maxItems",keyword:"maxItems",params:{limit: 100},message:"must NOT have more than 100 items",schema:100,parentSchema:schema11.properties.variants,data:data39};
+if(vErrors === null){
+vErrors = [err114];
+}
+else {
+vErrors.push(err114);
+}
+errors++;
+}
+if(data39.length < 1){
+const err115 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.variants,data:data39};
+if(vErrors === null){
+vErrors = [err115];
+}
+else {
+vErrors.push(err115);
 }
 errors++;
 }
@@ -2349,12 +2409,12 @@ errors = vErrors.length;
 }
 }
 else {
-const err112 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.variants.type,parentSchema:schema11.properties.variants,data:data39};
+const err116 = {instancePath:instancePath+"/variants",schemaPath:"#/properties/variants/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.variants.type,parentSchema:schema11.properties.variants,data:data39};
 if(vErrors === null){
-vErrors = [err112];
+vErrors = [err116];
 }
 else {
-vErrors.push(err112);
+vErrors.push(err116);
 }
 errors++;
 }
@@ -2363,12 +2423,12 @@ if(data.sites !== undefined){
 let data41 = data.sites;
 if(Array.isArray(data41)){
 if(data41.length > 1000){
-const err113 = {instancePath:instancePath+"/sites",schemaPath:"#/properties/sites/maxItems",keyword:"maxItems",params:{limit: 1000},message:"must NOT have more than 1000 items",schema:1000,parentSchema:schema11.properties.sites,data:data41};
+const err117 = {instancePath:instancePath+"/sites",schemaPath:"#/properties/sites/maxItems",keyword:"maxItems",params:{limit: 1000},message:"must NOT have more than 1000 items",schema:1000,parentSchema:schema11.properties.sites,data:data41};
 if(vErrors === null){
-vErrors = [err113];
+vErrors = [err117];
 }
 else {
-vErrors.push(err113);
+vErrors.push(err117);
 }
 errors++;
 }
@@ -2381,57 +2441,7 @@ errors = vErrors.length;
 }
 }
 else {
-const err114 = {instancePath:instancePath+"/sites",schemaPath:"#/properties/sites/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.sites.type,parentSchema:schema11.properties.sites,data:data41};
-if(vErrors === null){
-vErrors = [err114];
-}
-else {
-vErrors.push(err114);
-}
-errors++;
-}
-}
-if(data.uncertainty !== undefined){
-let data43 = data.uncertainty;
-if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
-for(const key10 in data43){
-if(!((((((key10 === "windSpeed_mps") || (key10 === "windCorrelation_m")) || (key10 === "descentRate_pct")) || (key10 === "releasePosition_m")) || (key10 === "heading_deg")) || (key10 === "releaseTiming_s"))){
-const err115 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.uncertainty,data:data43};
-if(vErrors === null){
-vErrors = [err115];
-}
-else {
-vErrors.push(err115);
-}
-errors++;
-}
-}
-if(data43.windSpeed_mps !== undefined){
-let data44 = data43.windSpeed_mps;
-if((typeof data44 == "number") && (isFinite(data44))){
-if(data44 > 30 || isNaN(data44)){
-const err116 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 30},message:"must be <= 30",schema:30,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
-if(vErrors === null){
-vErrors = [err116];
-}
-else {
-vErrors.push(err116);
-}
-errors++;
-}
-if(data44 < 0 || isNaN(data44)){
-const err117 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
-if(vErrors === null){
-vErrors = [err117];
-}
-else {
-vErrors.push(err117);
-}
-errors++;
-}
-}
-else {
-const err118 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.windSpeed_mps.type,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
+const err118 = {instancePath:instancePath+"/sites",schemaPath:"#/properties/sites/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.sites.type,parentSchema:schema11.properties.sites,data:data41};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -2441,11 +2451,12 @@ vErrors.push(err118);
 errors++;
 }
 }
-if(data43.windCorrelation_m !== undefined){
-let data45 = data43.windCorrelation_m;
-if((typeof data45 == "number") && (isFinite(data45))){
-if(data45 > 100000 || isNaN(data45)){
-const err119 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
+if(data.uncertainty !== undefined){
+let data43 = data.uncertainty;
+if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
+for(const key10 in data43){
+if(!((((((key10 === "windSpeed_mps") || (key10 === "windCorrelation_m")) || (key10 === "descentRate_pct")) || (key10 === "releasePosition_m")) || (key10 === "heading_deg")) || (key10 === "releaseTiming_s"))){
+const err119 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.uncertainty,data:data43};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -2454,8 +2465,12 @@ vErrors.push(err119);
 }
 errors++;
 }
-if(data45 <= 0 || isNaN(data45)){
-const err120 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
+}
+if(data43.windSpeed_mps !== undefined){
+let data44 = data43.windSpeed_mps;
+if((typeof data44 == "number") && (isFinite(data44))){
+if(data44 > 30 || isNaN(data44)){
+const err120 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 30},message:"must be <= 30",schema:30,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -2464,9 +2479,8 @@ vErrors.push(err120);
 }
 errors++;
 }
-}
-else {
-const err121 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.windCorrelation_m.type,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
+if(data44 < 0 || isNaN(data44)){
+const err121 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -2476,11 +2490,8 @@ vErrors.push(err121);
 errors++;
 }
 }
-if(data43.descentRate_pct !== undefined){
-let data46 = data43.descentRate_pct;
-if((typeof data46 == "number") && (isFinite(data46))){
-if(data46 < 0 || isNaN(data46)){
-const err122 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
+else {
+const err122 = {instancePath:instancePath+"/uncertainty/windSpeed_mps",schemaPath:"#/properties/uncertainty/properties/windSpeed_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.windSpeed_mps.type,parentSchema:schema11.properties.uncertainty.properties.windSpeed_mps,data:data44};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -2489,8 +2500,12 @@ vErrors.push(err122);
 }
 errors++;
 }
-if(data46 >= 50 || isNaN(data46)){
-const err123 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/exclusiveMaximum",keyword:"exclusiveMaximum",params:{comparison: "<", limit: 50},message:"must be < 50",schema:50,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
+}
+if(data43.windCorrelation_m !== undefined){
+let data45 = data43.windCorrelation_m;
+if((typeof data45 == "number") && (isFinite(data45))){
+if(data45 > 100000 || isNaN(data45)){
+const err123 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -2499,9 +2514,8 @@ vErrors.push(err123);
 }
 errors++;
 }
-}
-else {
-const err124 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.descentRate_pct.type,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
+if(data45 < 1 || isNaN(data45)){
+const err124 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -2511,11 +2525,8 @@ vErrors.push(err124);
 errors++;
 }
 }
-if(data43.releasePosition_m !== undefined){
-let data47 = data43.releasePosition_m;
-if((typeof data47 == "number") && (isFinite(data47))){
-if(data47 > 10000 || isNaN(data47)){
-const err125 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
+else {
+const err125 = {instancePath:instancePath+"/uncertainty/windCorrelation_m",schemaPath:"#/properties/uncertainty/properties/windCorrelation_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.windCorrelation_m.type,parentSchema:schema11.properties.uncertainty.properties.windCorrelation_m,data:data45};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -2524,8 +2535,12 @@ vErrors.push(err125);
 }
 errors++;
 }
-if(data47 < 0 || isNaN(data47)){
-const err126 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
+}
+if(data43.descentRate_pct !== undefined){
+let data46 = data43.descentRate_pct;
+if((typeof data46 == "number") && (isFinite(data46))){
+if(data46 < 0 || isNaN(data46)){
+const err126 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -2534,9 +2549,8 @@ vErrors.push(err126);
 }
 errors++;
 }
-}
-else {
-const err127 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.releasePosition_m.type,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
+if(data46 >= 50 || isNaN(data46)){
+const err127 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/exclusiveMaximum",keyword:"exclusiveMaximum",params:{comparison: "<", limit: 50},message:"must be < 50",schema:50,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -2546,11 +2560,8 @@ vErrors.push(err127);
 errors++;
 }
 }
-if(data43.heading_deg !== undefined){
-let data48 = data43.heading_deg;
-if((typeof data48 == "number") && (isFinite(data48))){
-if(data48 > 180 || isNaN(data48)){
-const err128 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
+else {
+const err128 = {instancePath:instancePath+"/uncertainty/descentRate_pct",schemaPath:"#/properties/uncertainty/properties/descentRate_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.descentRate_pct.type,parentSchema:schema11.properties.uncertainty.properties.descentRate_pct,data:data46};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -2559,8 +2570,12 @@ vErrors.push(err128);
 }
 errors++;
 }
-if(data48 < 0 || isNaN(data48)){
-const err129 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
+}
+if(data43.releasePosition_m !== undefined){
+let data47 = data43.releasePosition_m;
+if((typeof data47 == "number") && (isFinite(data47))){
+if(data47 > 1000 || isNaN(data47)){
+const err129 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -2569,9 +2584,8 @@ vErrors.push(err129);
 }
 errors++;
 }
-}
-else {
-const err130 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.heading_deg.type,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
+if(data47 < 0 || isNaN(data47)){
+const err130 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -2581,11 +2595,8 @@ vErrors.push(err130);
 errors++;
 }
 }
-if(data43.releaseTiming_s !== undefined){
-let data49 = data43.releaseTiming_s;
-if((typeof data49 == "number") && (isFinite(data49))){
-if(data49 > 60 || isNaN(data49)){
-const err131 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/maximum",keyword:"maximum",params:{comparison: "<=", limit: 60},message:"must be <= 60",schema:60,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
+else {
+const err131 = {instancePath:instancePath+"/uncertainty/releasePosition_m",schemaPath:"#/properties/uncertainty/properties/releasePosition_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.releasePosition_m.type,parentSchema:schema11.properties.uncertainty.properties.releasePosition_m,data:data47};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -2594,8 +2605,12 @@ vErrors.push(err131);
 }
 errors++;
 }
-if(data49 < 0 || isNaN(data49)){
-const err132 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
+}
+if(data43.heading_deg !== undefined){
+let data48 = data43.heading_deg;
+if((typeof data48 == "number") && (isFinite(data48))){
+if(data48 > 180 || isNaN(data48)){
+const err132 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -2604,9 +2619,8 @@ vErrors.push(err132);
 }
 errors++;
 }
-}
-else {
-const err133 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.releaseTiming_s.type,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
+if(data48 < 0 || isNaN(data48)){
+const err133 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -2616,9 +2630,8 @@ vErrors.push(err133);
 errors++;
 }
 }
-}
 else {
-const err134 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.uncertainty.type,parentSchema:schema11.properties.uncertainty,data:data43};
+const err134 = {instancePath:instancePath+"/uncertainty/heading_deg",schemaPath:"#/properties/uncertainty/properties/heading_deg/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.heading_deg.type,parentSchema:schema11.properties.uncertainty.properties.heading_deg,data:data48};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -2628,12 +2641,11 @@ vErrors.push(err134);
 errors++;
 }
 }
-if(data.monteCarlo !== undefined){
-let data50 = data.monteCarlo;
-if(data50 && typeof data50 == "object" && !Array.isArray(data50)){
-for(const key11 in data50){
-if(!((key11 === "samples") || (key11 === "seed"))){
-const err135 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data50};
+if(data43.releaseTiming_s !== undefined){
+let data49 = data43.releaseTiming_s;
+if((typeof data49 == "number") && (isFinite(data49))){
+if(data49 > 10 || isNaN(data49)){
+const err135 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -2642,11 +2654,8 @@ vErrors.push(err135);
 }
 errors++;
 }
-}
-if(data50.samples !== undefined){
-let data51 = data50.samples;
-if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err136 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+if(data49 < 0 || isNaN(data49)){
+const err136 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -2655,9 +2664,9 @@ vErrors.push(err136);
 }
 errors++;
 }
-if((typeof data51 == "number") && (isFinite(data51))){
-if(data51 > 100000 || isNaN(data51)){
-const err137 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+}
+else {
+const err137 = {instancePath:instancePath+"/uncertainty/releaseTiming_s",schemaPath:"#/properties/uncertainty/properties/releaseTiming_s/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.releaseTiming_s.type,parentSchema:schema11.properties.uncertainty.properties.releaseTiming_s,data:data49};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -2666,8 +2675,10 @@ vErrors.push(err137);
 }
 errors++;
 }
-if(data51 < 1 || isNaN(data51)){
-const err138 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+}
+}
+else {
+const err138 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.uncertainty.type,parentSchema:schema11.properties.uncertainty,data:data43};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -2677,11 +2688,12 @@ vErrors.push(err138);
 errors++;
 }
 }
-}
-if(data50.seed !== undefined){
-let data52 = data50.seed;
-if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err139 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+if(data.monteCarlo !== undefined){
+let data50 = data.monteCarlo;
+if(data50 && typeof data50 == "object" && !Array.isArray(data50)){
+for(const key11 in data50){
+if(!((key11 === "samples") || (key11 === "seed"))){
+const err139 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data50};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -2690,9 +2702,11 @@ vErrors.push(err139);
 }
 errors++;
 }
-if((typeof data52 == "number") && (isFinite(data52))){
-if(data52 > 4294967295 || isNaN(data52)){
-const err140 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+}
+if(data50.samples !== undefined){
+let data51 = data50.samples;
+if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
+const err140 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -2701,8 +2715,9 @@ vErrors.push(err140);
 }
 errors++;
 }
-if(data52 < 0 || isNaN(data52)){
-const err141 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+if((typeof data51 == "number") && (isFinite(data51))){
+if(data51 > 100000 || isNaN(data51)){
+const err141 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -2711,11 +2726,8 @@ vErrors.push(err141);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err142 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data50};
+if(data51 < 1 || isNaN(data51)){
+const err142 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -2725,11 +2737,11 @@ vErrors.push(err142);
 errors++;
 }
 }
-if(data.requiredPHit !== undefined){
-let data53 = data.requiredPHit;
-if((typeof data53 == "number") && (isFinite(data53))){
-if(data53 > 1 || isNaN(data53)){
-const err143 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.requiredPHit,data:data53};
+}
+if(data50.seed !== undefined){
+let data52 = data50.seed;
+if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
+const err143 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -2738,8 +2750,9 @@ vErrors.push(err143);
 }
 errors++;
 }
-if(data53 < 0 || isNaN(data53)){
-const err144 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.requiredPHit,data:data53};
+if((typeof data52 == "number") && (isFinite(data52))){
+if(data52 > 4294967295 || isNaN(data52)){
+const err144 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -2748,9 +2761,8 @@ vErrors.push(err144);
 }
 errors++;
 }
-}
-else {
-const err145 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.requiredPHit.type,parentSchema:schema11.properties.requiredPHit,data:data53};
+if(data52 < 0 || isNaN(data52)){
+const err145 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -2760,12 +2772,10 @@ vErrors.push(err145);
 errors++;
 }
 }
-if(data.safety !== undefined){
-let data54 = data.safety;
-if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
-for(const key12 in data54){
-if(!(((((((key12 === "ceiling_m") || (key12 === "noDropBuffer_m")) || (key12 === "hazardBuffer_m")) || (key12 === "thrustMargin_pct")) || (key12 === "noDropZones")) || (key12 === "checklist")) || (key12 === "signoff"))){
-const err146 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data54};
+}
+}
+else {
+const err146 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data50};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -2775,11 +2785,11 @@ vErrors.push(err146);
 errors++;
 }
 }
-if(data54.ceiling_m !== undefined){
-let data55 = data54.ceiling_m;
-if((typeof data55 == "number") && (isFinite(data55))){
-if(data55 > 10000 || isNaN(data55)){
-const err147 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+if(data.requiredPHit !== undefined){
+let data53 = data.requiredPHit;
+if((typeof data53 == "number") && (isFinite(data53))){
+if(data53 > 1 || isNaN(data53)){
+const err147 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.requiredPHit,data:data53};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -2788,8 +2798,8 @@ vErrors.push(err147);
 }
 errors++;
 }
-if(data55 <= 0 || isNaN(data55)){
-const err148 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+if(data53 < 0.01 || isNaN(data53)){
+const err148 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.01},message:"must be >= 0.01",schema:0.01,parentSchema:schema11.properties.requiredPHit,data:data53};
 if(vErrors === null){
 vErrors = [err148];
 }
@@ -2800,7 +2810,7 @@ errors++;
 }
 }
 else {
-const err149 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+const err149 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.requiredPHit.type,parentSchema:schema11.properties.requiredPHit,data:data53};
 if(vErrors === null){
 vErrors = [err149];
 }
@@ -2810,11 +2820,12 @@ vErrors.push(err149);
 errors++;
 }
 }
-if(data54.noDropBuffer_m !== undefined){
-let data56 = data54.noDropBuffer_m;
-if((typeof data56 == "number") && (isFinite(data56))){
-if(data56 > 10000 || isNaN(data56)){
-const err150 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+if(data.safety !== undefined){
+let data54 = data.safety;
+if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
+for(const key12 in data54){
+if(!(((((((key12 === "ceiling_m") || (key12 === "noDropBuffer_m")) || (key12 === "hazardBuffer_m")) || (key12 === "thrustMargin_pct")) || (key12 === "noDropZones")) || (key12 === "checklist")) || (key12 === "signoff"))){
+const err150 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data54};
 if(vErrors === null){
 vErrors = [err150];
 }
@@ -2823,8 +2834,12 @@ vErrors.push(err150);
 }
 errors++;
 }
-if(data56 < 0 || isNaN(data56)){
-const err151 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+}
+if(data54.ceiling_m !== undefined){
+let data55 = data54.ceiling_m;
+if((typeof data55 == "number") && (isFinite(data55))){
+if(data55 > 10000 || isNaN(data55)){
+const err151 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
 if(vErrors === null){
 vErrors = [err151];
 }
@@ -2833,9 +2848,8 @@ vErrors.push(err151);
 }
 errors++;
 }
-}
-else {
-const err152 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+if(data55 < 1 || isNaN(data55)){
+const err152 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
 if(vErrors === null){
 vErrors = [err152];
 }
@@ -2845,11 +2859,8 @@ vErrors.push(err152);
 errors++;
 }
 }
-if(data54.hazardBuffer_m !== undefined){
-let data57 = data54.hazardBuffer_m;
-if((typeof data57 == "number") && (isFinite(data57))){
-if(data57 > 10000 || isNaN(data57)){
-const err153 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+else {
+const err153 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
 if(vErrors === null){
 vErrors = [err153];
 }
@@ -2858,8 +2869,12 @@ vErrors.push(err153);
 }
 errors++;
 }
-if(data57 < 0 || isNaN(data57)){
-const err154 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+}
+if(data54.noDropBuffer_m !== undefined){
+let data56 = data54.noDropBuffer_m;
+if((typeof data56 == "number") && (isFinite(data56))){
+if(data56 > 10000 || isNaN(data56)){
+const err154 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
 if(vErrors === null){
 vErrors = [err154];
 }
@@ -2868,9 +2883,8 @@ vErrors.push(err154);
 }
 errors++;
 }
-}
-else {
-const err155 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+if(data56 < 0 || isNaN(data56)){
+const err155 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -2880,11 +2894,8 @@ vErrors.push(err155);
 errors++;
 }
 }
-if(data54.thrustMargin_pct !== undefined){
-let data58 = data54.thrustMargin_pct;
-if((typeof data58 == "number") && (isFinite(data58))){
-if(data58 > 90 || isNaN(data58)){
-const err156 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+else {
+const err156 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -2893,8 +2904,12 @@ vErrors.push(err156);
 }
 errors++;
 }
-if(data58 < 0 || isNaN(data58)){
-const err157 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+}
+if(data54.hazardBuffer_m !== undefined){
+let data57 = data54.hazardBuffer_m;
+if((typeof data57 == "number") && (isFinite(data57))){
+if(data57 > 10000 || isNaN(data57)){
+const err157 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -2903,9 +2918,8 @@ vErrors.push(err157);
 }
 errors++;
 }
-}
-else {
-const err158 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+if(data57 < 0 || isNaN(data57)){
+const err158 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -2915,11 +2929,8 @@ vErrors.push(err158);
 errors++;
 }
 }
-if(data54.noDropZones !== undefined){
-let data59 = data54.noDropZones;
-if(Array.isArray(data59)){
-if(data59.length > 200){
-const err159 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
+else {
+const err159 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -2928,12 +2939,12 @@ vErrors.push(err159);
 }
 errors++;
 }
-const len6 = data59.length;
-for(let i6=0; i6<len6; i6++){
-let data60 = data59[i6];
-if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
-if(data60.type === undefined){
-const err160 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+}
+if(data54.thrustMargin_pct !== undefined){
+let data58 = data54.thrustMargin_pct;
+if((typeof data58 == "number") && (isFinite(data58))){
+if(data58 > 90 || isNaN(data58)){
+const err160 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -2942,8 +2953,8 @@ vErrors.push(err160);
 }
 errors++;
 }
-if(data60.geometry === undefined){
-const err161 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+if(data58 < 0 || isNaN(data58)){
+const err161 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -2952,9 +2963,9 @@ vErrors.push(err161);
 }
 errors++;
 }
-for(const key13 in data60){
-if(!(((key13 === "type") || (key13 === "properties")) || (key13 === "geometry"))){
-const err162 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data60};
+}
+else {
+const err162 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -2964,15 +2975,64 @@ vErrors.push(err162);
 errors++;
 }
 }
-if(data60.type !== undefined){
-let data61 = data60.type;
-if("Feature" !== data61){
-const err163 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data61};
+if(data54.noDropZones !== undefined){
+let data59 = data54.noDropZones;
+if(Array.isArray(data59)){
+if(data59.length > 200){
+const err163 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
 if(vErrors === null){
 vErrors = [err163];
 }
 else {
 vErrors.push(err163);
+}
+errors++;
+}
+const len6 = data59.length;
+for(let i6=0; i6<len6; i6++){
+let data60 = data59[i6];
+if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
+if(data60.type === undefined){
+const err164 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+if(vErrors === null){
+vErrors = [err164];
+}
+else {
+vErrors.push(err164);
+}
+errors++;
+}
+if(data60.geometry === undefined){
+const err165 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+if(vErrors === null){
+vErrors = [err165];
+}
+else {
+vErrors.push(err165);
+}
+errors++;
+}
+for(const key13 in data60){
+if(!(((key13 === "type") || (key13 === "properties")) || (key13 === "geometry"))){
+const err166 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data60};
+if(vErrors === null){
+vErrors = [err166];
+}
+else {
+vErrors.push(err166);
+}
+errors++;
+}
+}
+if(data60.type !== undefined){
+let data61 = data60.type;
+if("Feature" !== data61){
+const err167 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data61};
+if(vErrors === null){
+vErrors = [err167];
+}
+else {
+vErrors.push(err167);
 }
 errors++;
 }
@@ -2984,54 +3044,7 @@ if(data62.name !== undefined){
 let data63 = data62.name;
 if(typeof data63 === "string"){
 if(func3(data63) > 200){
-const err164 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data63};
-if(vErrors === null){
-vErrors = [err164];
-}
-else {
-vErrors.push(err164);
-}
-errors++;
-}
-}
-else {
-const err165 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data63};
-if(vErrors === null){
-vErrors = [err165];
-}
-else {
-vErrors.push(err165);
-}
-errors++;
-}
-}
-}
-else {
-const err166 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data62};
-if(vErrors === null){
-vErrors = [err166];
-}
-else {
-vErrors.push(err166);
-}
-errors++;
-}
-}
-if(data60.geometry !== undefined){
-let data64 = data60.geometry;
-if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
-if(data64.type === undefined){
-const err167 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
-if(vErrors === null){
-vErrors = [err167];
-}
-else {
-vErrors.push(err167);
-}
-errors++;
-}
-if(data64.coordinates === undefined){
-const err168 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
+const err168 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data63};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -3040,9 +3053,9 @@ vErrors.push(err168);
 }
 errors++;
 }
-for(const key14 in data64){
-if(!((key14 === "type") || (key14 === "coordinates"))){
-const err169 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data64};
+}
+else {
+const err169 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data63};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -3052,10 +3065,9 @@ vErrors.push(err169);
 errors++;
 }
 }
-if(data64.type !== undefined){
-let data65 = data64.type;
-if("Polygon" !== data65){
-const err170 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data65};
+}
+else {
+const err170 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data62};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -3065,11 +3077,11 @@ vErrors.push(err170);
 errors++;
 }
 }
-if(data64.coordinates !== undefined){
-let data66 = data64.coordinates;
-if(Array.isArray(data66)){
-if(data66.length > 50){
-const err171 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+if(data60.geometry !== undefined){
+let data64 = data60.geometry;
+if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
+if(data64.type === undefined){
+const err171 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -3078,8 +3090,8 @@ vErrors.push(err171);
 }
 errors++;
 }
-if(data66.length < 1){
-const err172 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+if(data64.coordinates === undefined){
+const err172 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -3088,12 +3100,9 @@ vErrors.push(err172);
 }
 errors++;
 }
-const len7 = data66.length;
-for(let i7=0; i7<len7; i7++){
-let data67 = data66[i7];
-if(Array.isArray(data67)){
-if(data67.length > 5000){
-const err173 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+for(const key14 in data64){
+if(!((key14 === "type") || (key14 === "coordinates"))){
+const err173 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data64};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -3102,8 +3111,11 @@ vErrors.push(err173);
 }
 errors++;
 }
-if(data67.length < 4){
-const err174 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+}
+if(data64.type !== undefined){
+let data65 = data64.type;
+if("Polygon" !== data65){
+const err174 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data65};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -3112,12 +3124,12 @@ vErrors.push(err174);
 }
 errors++;
 }
-const len8 = data67.length;
-for(let i8=0; i8<len8; i8++){
-let data68 = data67[i8];
-if(Array.isArray(data68)){
-if(data68.length > 3){
-const err175 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+}
+if(data64.coordinates !== undefined){
+let data66 = data64.coordinates;
+if(Array.isArray(data66)){
+if(data66.length > 50){
+const err175 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -3126,8 +3138,8 @@ vErrors.push(err175);
 }
 errors++;
 }
-if(data68.length < 2){
-const err176 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+if(data66.length < 1){
+const err176 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -3136,12 +3148,12 @@ vErrors.push(err176);
 }
 errors++;
 }
-const len9 = data68.length;
-for(let i9=0; i9<len9; i9++){
-let data69 = data68[i9];
-if((typeof data69 == "number") && (isFinite(data69))){
-if(data69 > 180 || isNaN(data69)){
-const err177 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+const len7 = data66.length;
+for(let i7=0; i7<len7; i7++){
+let data67 = data66[i7];
+if(Array.isArray(data67)){
+if(data67.length > 5000){
+const err177 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -3150,8 +3162,8 @@ vErrors.push(err177);
 }
 errors++;
 }
-if(data69 < -180 || isNaN(data69)){
-const err178 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+if(data67.length < 4){
+const err178 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -3160,9 +3172,12 @@ vErrors.push(err178);
 }
 errors++;
 }
-}
-else {
-const err179 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+const len8 = data67.length;
+for(let i8=0; i8<len8; i8++){
+let data68 = data67[i8];
+if(Array.isArray(data68)){
+if(data68.length > 3){
+const err179 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -3171,10 +3186,8 @@ vErrors.push(err179);
 }
 errors++;
 }
-}
-}
-else {
-const err180 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+if(data68.length < 2){
+const err180 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -3183,10 +3196,12 @@ vErrors.push(err180);
 }
 errors++;
 }
-}
-}
-else {
-const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+const len9 = data68.length;
+for(let i9=0; i9<len9; i9++){
+let data69 = data68[i9];
+if((typeof data69 == "number") && (isFinite(data69))){
+if(data69 > 180 || isNaN(data69)){
+const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -3195,10 +3210,8 @@ vErrors.push(err181);
 }
 errors++;
 }
-}
-}
-else {
-const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+if(data69 < -180 || isNaN(data69)){
+const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -3208,9 +3221,8 @@ vErrors.push(err182);
 errors++;
 }
 }
-}
 else {
-const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data64};
+const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -3222,7 +3234,7 @@ errors++;
 }
 }
 else {
-const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data60};
+const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -3234,7 +3246,7 @@ errors++;
 }
 }
 else {
-const err185 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
+const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -3244,16 +3256,64 @@ vErrors.push(err185);
 errors++;
 }
 }
-if(data54.checklist !== undefined){
-let data70 = data54.checklist;
-if(Array.isArray(data70)){
-if(data70.length > 200){
-const err186 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
+}
+else {
+const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
 if(vErrors === null){
 vErrors = [err186];
 }
 else {
 vErrors.push(err186);
+}
+errors++;
+}
+}
+}
+else {
+const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data64};
+if(vErrors === null){
+vErrors = [err187];
+}
+else {
+vErrors.push(err187);
+}
+errors++;
+}
+}
+}
+else {
+const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data60};
+if(vErrors === null){
+vErrors = [err188];
+}
+else {
+vErrors.push(err188);
+}
+errors++;
+}
+}
+}
+else {
+const err189 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
+if(vErrors === null){
+vErrors = [err189];
+}
+else {
+vErrors.push(err189);
+}
+errors++;
+}
+}
+if(data54.checklist !== undefined){
+let data70 = data54.checklist;
+if(Array.isArray(data70)){
+if(data70.length > 200){
+const err190 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
+if(vErrors === null){
+vErrors = [err190];
+}
+else {
+vErrors.push(err190);
 }
 errors++;
 }
@@ -3266,56 +3326,7 @@ errors = vErrors.length;
 }
 }
 else {
-const err187 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
-if(vErrors === null){
-vErrors = [err187];
-}
-else {
-vErrors.push(err187);
-}
-errors++;
-}
-}
-if(data54.signoff !== undefined){
-let data72 = data54.signoff;
-if(data72 && typeof data72 == "object" && !Array.isArray(data72)){
-if(data72.who === undefined){
-const err188 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
-if(vErrors === null){
-vErrors = [err188];
-}
-else {
-vErrors.push(err188);
-}
-errors++;
-}
-if(data72.when === undefined){
-const err189 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
-if(vErrors === null){
-vErrors = [err189];
-}
-else {
-vErrors.push(err189);
-}
-errors++;
-}
-for(const key15 in data72){
-if(!(((((key15 === "who") || (key15 === "when")) || (key15 === "reason")) || (key15 === "planHash")) || (key15 === "covers"))){
-const err190 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
-if(vErrors === null){
-vErrors = [err190];
-}
-else {
-vErrors.push(err190);
-}
-errors++;
-}
-}
-if(data72.who !== undefined){
-let data73 = data72.who;
-if(typeof data73 === "string"){
-if(func3(data73) > 100){
-const err191 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+const err191 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -3324,8 +3335,12 @@ vErrors.push(err191);
 }
 errors++;
 }
-if(func3(data73) < 1){
-const err192 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+}
+if(data54.signoff !== undefined){
+let data72 = data54.signoff;
+if(data72 && typeof data72 == "object" && !Array.isArray(data72)){
+if(data72.who === undefined){
+const err192 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -3334,9 +3349,8 @@ vErrors.push(err192);
 }
 errors++;
 }
-}
-else {
-const err193 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+if(data72.when === undefined){
+const err193 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -3345,12 +3359,9 @@ vErrors.push(err193);
 }
 errors++;
 }
-}
-if(data72.when !== undefined){
-let data74 = data72.when;
-if(typeof data74 === "string"){
-if(func3(data74) > 40){
-const err194 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
+for(const key15 in data72){
+if(!(((((key15 === "who") || (key15 === "when")) || (key15 === "reason")) || (key15 === "planHash")) || (key15 === "covers"))){
+const err194 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -3360,8 +3371,11 @@ vErrors.push(err194);
 errors++;
 }
 }
-else {
-const err195 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
+if(data72.who !== undefined){
+let data73 = data72.who;
+if(typeof data73 === "string"){
+if(func3(data73) > 100){
+const err195 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -3370,12 +3384,8 @@ vErrors.push(err195);
 }
 errors++;
 }
-}
-if(data72.reason !== undefined){
-let data75 = data72.reason;
-if(typeof data75 === "string"){
-if(func3(data75) > 2000){
-const err196 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
+if(func3(data73) < 1){
+const err196 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -3386,7 +3396,7 @@ errors++;
 }
 }
 else {
-const err197 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
+const err197 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -3396,11 +3406,11 @@ vErrors.push(err197);
 errors++;
 }
 }
-if(data72.planHash !== undefined){
-let data76 = data72.planHash;
-if(typeof data76 === "string"){
-if(func3(data76) > 64){
-const err198 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
+if(data72.when !== undefined){
+let data74 = data72.when;
+if(typeof data74 === "string"){
+if(func3(data74) > 40){
+const err198 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -3411,7 +3421,7 @@ errors++;
 }
 }
 else {
-const err199 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
+const err199 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -3421,11 +3431,11 @@ vErrors.push(err199);
 errors++;
 }
 }
-if(data72.covers !== undefined){
-let data77 = data72.covers;
-if(Array.isArray(data77)){
-if(data77.length > 50){
-const err200 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
+if(data72.reason !== undefined){
+let data75 = data72.reason;
+if(typeof data75 === "string"){
+if(func3(data75) > 2000){
+const err200 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -3434,12 +3444,9 @@ vErrors.push(err200);
 }
 errors++;
 }
-const len11 = data77.length;
-for(let i11=0; i11<len11; i11++){
-let data78 = data77[i11];
-if(typeof data78 === "string"){
-if(func3(data78) > 64){
-const err201 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
+}
+else {
+const err201 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -3449,8 +3456,11 @@ vErrors.push(err201);
 errors++;
 }
 }
-else {
-const err202 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
+if(data72.planHash !== undefined){
+let data76 = data72.planHash;
+if(typeof data76 === "string"){
+if(func3(data76) > 64){
+const err202 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -3460,9 +3470,8 @@ vErrors.push(err202);
 errors++;
 }
 }
-}
 else {
-const err203 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
+const err203 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -3472,9 +3481,11 @@ vErrors.push(err203);
 errors++;
 }
 }
-}
-else {
-const err204 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+if(data72.covers !== undefined){
+let data77 = data72.covers;
+if(Array.isArray(data77)){
+if(data77.length > 50){
+const err204 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -3483,10 +3494,12 @@ vErrors.push(err204);
 }
 errors++;
 }
-}
-}
-else {
-const err205 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data54};
+const len11 = data77.length;
+for(let i11=0; i11<len11; i11++){
+let data78 = data77[i11];
+if(typeof data78 === "string"){
+if(func3(data78) > 64){
+const err205 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -3496,14 +3509,61 @@ vErrors.push(err205);
 errors++;
 }
 }
-}
 else {
-const err206 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+const err206 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
 if(vErrors === null){
 vErrors = [err206];
 }
 else {
 vErrors.push(err206);
+}
+errors++;
+}
+}
+}
+else {
+const err207 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
+if(vErrors === null){
+vErrors = [err207];
+}
+else {
+vErrors.push(err207);
+}
+errors++;
+}
+}
+}
+else {
+const err208 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+if(vErrors === null){
+vErrors = [err208];
+}
+else {
+vErrors.push(err208);
+}
+errors++;
+}
+}
+}
+else {
+const err209 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data54};
+if(vErrors === null){
+vErrors = [err209];
+}
+else {
+vErrors.push(err209);
+}
+errors++;
+}
+}
+}
+else {
+const err210 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err210];
+}
+else {
+vErrors.push(err210);
 }
 errors++;
 }

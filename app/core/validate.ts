@@ -1,6 +1,7 @@
 import type { ErrorObject } from 'ajv';
 import type { Plan, PlanFile } from './plan';
 import { resolvePlan } from './plan-defaults';
+import { frameLimitIssues, massIssues, nestingIssue, zoneLatitudeIssues } from './plan-limits';
 import schema from './plan.schema.json';
 // Precompiled by `npm run gen:validator` (ajv standalone, options allErrors + verbose): no code
 // is compiled at run time, so the page's Content-Security-Policy can forbid eval.
@@ -43,6 +44,11 @@ function toPath(pointer: string): string {
 
 /** The full allowed range of a numeric schema node, e.g. "between -90 and 90" or "> 0 and ≤ 30". */
 function rangeText(s: SchemaNode): string {
+  // "0 or between 0.5 and 100": a range with a gap cut out of it by `not`.
+  const gap = isRecord(s.not) ? (s.not as SchemaNode) : undefined;
+  if (gap && isNum(s.minimum) && isNum(s.maximum) && gap.exclusiveMinimum === s.minimum) {
+    return `${s.minimum} or between ${String(gap.exclusiveMaximum)} and ${s.maximum}`;
+  }
   const lo = isNum(s.minimum)
     ? `≥ ${s.minimum}`
     : isNum(s.exclusiveMinimum)
@@ -109,6 +115,7 @@ function translate(e: ErrorObject): PlanIssue {
     case 'maximum':
     case 'exclusiveMinimum':
     case 'exclusiveMaximum':
+    case 'not':
       return say(at, `must be ${s.type === 'integer' ? numberText(s, 'integer') : rangeText(s)}`);
     case 'const':
       return say(at, `must be ${JSON.stringify(p.allowedValue)}`);
@@ -216,6 +223,7 @@ function semanticIssues(raw: Json, already: PlanIssue[]): PlanIssue[] {
   });
 
   releaseAboveSites(raw, add);
+  out.push(...massIssues(raw), ...zoneLatitudeIssues(raw));
 
   const altitudes = new Map<string, string>();
   const winds = isRecord(raw.winds) ? raw.winds : {};
@@ -282,11 +290,18 @@ function warningsFor(file: PlanFile): string[] {
  */
 export function validatePlan(raw: unknown, opts: { now?: Date } = {}): PlanValidation {
   try {
+    // Before anything recursive (schema check, structuredClone) can overflow the stack.
+    const deep = nestingIssue(raw);
+    if (deep) return { ok: false, errors: [deep] };
     const errors = schemaIssues(raw);
     if (isRecord(raw)) errors.push(...semanticIssues(raw, errors));
     if (errors.length > 0) return { ok: false, errors };
     const file = raw as unknown as PlanFile;
-    return { ok: true, plan: resolvePlan(file, opts), warnings: warningsFor(file) };
+    const plan = resolvePlan(file, opts);
+    // Limits across fields that need the model (docs/plan-format.md, "Limits across fields").
+    const far = frameLimitIssues(plan);
+    if (far.length > 0) return { ok: false, errors: far };
+    return { ok: true, plan, warnings: warningsFor(file) };
   } catch (err) {
     const why = err instanceof Error ? err.message : 'unexpected input';
     return { ok: false, errors: [{ path: '', message: `plan could not be checked: ${why}` }] };

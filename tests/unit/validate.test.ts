@@ -6,6 +6,9 @@ import type { PlanFile } from '../../app/core/plan';
 import { DEFAULTS, resolvePlan } from '../../app/core/plan-defaults';
 import schema from '../../app/core/plan.schema.json';
 import { validatePlan, type PlanIssue } from '../../app/core/validate';
+import { destination } from '../../app/core/geodesy';
+import { naiveFlight } from '../../app/core/naive-integrator';
+import { WindProfile } from '../../app/core/wind';
 import demo from '../../data/demo-plan.json';
 import catalogue from '../../data/variants.json';
 import windExample from '../../data/wind-example.json';
@@ -77,11 +80,11 @@ describe('data files', () => {
 });
 
 describe('house-form messages', () => {
-  // contract: docs/plan-format.md (descentRate_mps > 0 and ≤ 30)
+  // contract: docs/plan-format.md (descentRate_mps 0.05 to 30)
   it('an out-of-range descent rate names the path and the full range', () => {
     const p = plan();
     p.variants[0].descentRate_mps = 0;
-    expect(messagesOf(p)).toEqual(['variants[0].descentRate_mps must be > 0 and ≤ 30']);
+    expect(messagesOf(p)).toEqual(['variants[0].descentRate_mps must be between 0.05 and 30']);
   });
 
   // WGS 84 coordinate ranges
@@ -127,7 +130,7 @@ describe('house-form messages', () => {
   it.each([
     ['format', 'other', 'format must be "seedfall-plan"'],
     ['version', 2, 'version must be 1'],
-    ['requiredPHit', 1.5, 'requiredPHit must be between 0 and 1'],
+    ['requiredPHit', 1.5, 'requiredPHit must be between 0.01 and 1'],
   ])('top-level %s = %j is reported', (key, value, message) => {
     expect(messagesOf({ ...plan(), [key]: value })).toEqual([message]);
   });
@@ -246,6 +249,212 @@ describe('cross-field checks', () => {
   });
 });
 
+/** The demo plan with one value set at a dotted path (numbers index arrays). */
+function demoWith(path: string, value: unknown): ReturnType<typeof plan> {
+  const p = plan();
+  const keys = path.match(/[^.[\]]+/g)!;
+  let node = p;
+  for (const k of keys.slice(0, -1)) node = node[k];
+  node[keys[keys.length - 1]] = value;
+  return p;
+}
+
+describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () => {
+  // contract: docs/plan-format.md range table; each bound is checked on both sides.
+  it.each([
+    ['variants[0].descentRate_mps', 0.05, 0.049, 'must be between 0.05 and 30'],
+    [
+      'variants[0].descentRate_mps',
+      30 / Math.sqrt(0.048 / 0.045),
+      30.01,
+      'must be between 0.05 and 30',
+    ],
+    ['variants[1].glideAngle_deg', 1, 0.99, 'must be between 1 and 90'],
+    ['carrier.groundSpeed_mps', 0, 1e-320, 'must be 0 or between 0.5 and 100'],
+    ['carrier.groundSpeed_mps', 0.5, 0.49, 'must be 0 or between 0.5 and 100'],
+    ['carrier.groundSpeed_mps', 100, 100.1, 'must be 0 or between 0.5 and 100'],
+    ['variants[0].throwTime_s', 10, 10.01, 'must be between 0 and 10'],
+    ['sites[0].tolerance_m', 0.1, 0.099, 'must be between 0.1 and 10000'],
+    ['uncertainty.windCorrelation_m', 1, 0.99, 'must be between 1 and 100000'],
+    ['uncertainty.releasePosition_m', 1000, 1000.1, 'must be between 0 and 1000'],
+    ['uncertainty.releaseTiming_s', 10, 10.1, 'must be between 0 and 10'],
+    ['requiredPHit', 0.01, 0.0099, 'must be between 0.01 and 1'],
+    ['requiredPHit', 1, 1.01, 'must be between 0.01 and 1'],
+    ['safety.ceiling_m', 1, 0.99, 'must be between 1 and 10000'],
+  ])('%s: %j is accepted, %j is refused with the range', (path, ok, bad, rest) => {
+    expect(errorsOf(demoWith(path, ok))).toEqual([]);
+    expect(errorsOf(demoWith(path, bad))).toEqual([{ path, message: `${path} ${rest}` }]);
+  });
+
+  // contract: docs/plan-format.md (masses 0.001 to 100 kg)
+  it('masses: 1 g and 100 kg are accepted, less or more is refused', () => {
+    const masses = (m0: number, m: number) => {
+      const p = plan();
+      Object.assign(p.variants[0], { referenceMass_kg: m0, payloadMass_kg: m });
+      return errorsOf(p);
+    };
+    expect(masses(0.001, 0.001)).toEqual([]);
+    expect(masses(100, 100)).toEqual([]);
+    expect(masses(0.00099, 0.00099).map((e) => e.message)).toEqual([
+      'variants[0].referenceMass_kg must be between 0.001 and 100',
+      'variants[0].payloadMass_kg must be between 0.001 and 100',
+    ]);
+    expect(masses(100.1, 100.1).map((e) => e.path)).toEqual([
+      'variants[0].referenceMass_kg',
+      'variants[0].payloadMass_kg',
+    ]);
+  });
+
+  // contract: docs/plan-format.md (payload 0.25 to 4 times the reference mass)
+  it('the mass ratio is held between 1/4 and 4 with a message naming both fields', () => {
+    // referenceMass_kg of variants[0] is 0.045 kg: 0.01125 and 0.18 kg are the bounds.
+    const payload = (m: number) =>
+      errorsOf(demoWith('variants[0].payloadMass_kg', m)).map((e) => e.message);
+    expect(payload(0.01125)).toEqual([]);
+    expect(payload(0.18)).toEqual([]);
+    expect(payload(0.0108)).toEqual([
+      'variants[0].payloadMass_kg is 0.0108 kg, 0.24 times referenceMass_kg (0.045 kg); it must be between 0.25 and 4 times referenceMass_kg',
+    ]);
+    expect(payload(0.1845)).toEqual([
+      'variants[0].payloadMass_kg is 0.1845 kg, 4.1 times referenceMass_kg (0.045 kg); it must be between 0.25 and 4 times referenceMass_kg',
+    ]);
+  });
+
+  // contract: docs/plan-format.md (the mass-scaled descent rate stays within 0.05 to 30 m/s)
+  it('the mass-scaled descent rate is held in the descent range', () => {
+    const p = plan();
+    Object.assign(p.variants[0], {
+      descentRate_mps: 0.1,
+      referenceMass_kg: 1,
+      payloadMass_kg: 0.25,
+    });
+    expect(errorsOf(p)).toEqual([]); // 0.1 × √0.25 = 0.05
+    p.variants[0].descentRate_mps = 0.09;
+    expect(errorsOf(p)).toEqual([
+      {
+        path: 'variants[0].descentRate_mps',
+        message:
+          'variants[0].descentRate_mps 0.09 scaled by √(payloadMass_kg / referenceMass_kg) is 0.045 m/s; the scaled rate must be between 0.05 and 30',
+      },
+    ]);
+  });
+
+  // RFC 7946 §3.1.1: a position is [longitude, latitude]; WGS 84 latitude is within ±90.
+  it('no-drop zone positions are [lon, lat]: latitude beyond ±90 is refused, naming the vertex', () => {
+    const zone = (lat: number, lon = 21.08) => {
+      const p = plan();
+      const ring = p.safety.noDropZones[0].geometry.coordinates[0];
+      ring[1] = [lon, lat];
+      return errorsOf(p);
+    };
+    expect(zone(90)).toEqual([]);
+    expect(zone(-90)).toEqual([]);
+    const at = 'safety.noDropZones[0].geometry.coordinates[0][1][1]';
+    expect(zone(100)).toEqual([
+      {
+        path: at,
+        message: `${at} (latitude) is 100, must be between -90 and 90; positions are [lon, lat]`,
+      },
+    ]);
+    expect(zone(-90.01)).toHaveLength(1);
+    expect(zone(47.49, 180.01)).toEqual([
+      {
+        path: 'safety.noDropZones[0].geometry.coordinates[0][1][0]',
+        message: 'safety.noDropZones[0].geometry.coordinates[0][1][0] must be between -180 and 180',
+      },
+    ]);
+    // Several bad vertices in one zone: one message, counting the rest.
+    const p = plan();
+    for (const pos of p.safety.noDropZones[0].geometry.coordinates[0]) pos[1] = 95;
+    expect(messagesOf(p)).toEqual([
+      'safety.noDropZones[0].geometry.coordinates[0][0][1] (latitude) is 95, must be between -90 and 90; positions are [lon, lat]; 4 more positions of this zone too',
+    ]);
+  });
+
+  it('nesting deeper than 32 levels is refused with the path, before anything recursive runs', () => {
+    // A zone's properties sit at depth 4 (safety, noDropZones, [0], properties).
+    const nested = (levels: number) => {
+      let inner: unknown = 'x';
+      for (let i = 0; i < levels; i++) inner = { a: inner };
+      const p = plan();
+      p.safety.noDropZones[0].properties = { name: 'Dyke road', deep: inner };
+      return errorsOf(p);
+    };
+    expect(nested(27)).toEqual([]); // deepest object at depth 4 + 27 = 31
+    const errs = nested(28);
+    expect(errs).toHaveLength(1);
+    expect(errs[0].path).toBe(`safety.noDropZones[0].properties.deep${'.a'.repeat(27)}`);
+    expect(errs[0].message).toBe(
+      `${errs[0].path} is nested more than 32 levels deep; a plan needs at most 8`,
+    );
+    // Deep enough to overflow a recursive walk (structuredClone overflowed at about 10,000).
+    const huge = nested(200_000);
+    expect(huge).toHaveLength(1);
+    expect(huge[0].message).toContain('is nested more than 32 levels deep');
+  });
+});
+
+describe('limits across fields (docs/plan-format.md, "Limits across fields")', () => {
+  it('a site farther than 50 km from the release point is refused', () => {
+    const at = (km: number) => {
+      const p = plan();
+      Object.assign(p.sites[0], destination(p.release, 90, km * 1000));
+      return errorsOf(p);
+    };
+    expect(at(49.9)).toEqual([]);
+    expect(at(50.1)).toEqual([
+      {
+        path: 'sites[0]',
+        message:
+          'sites[0] "Reed Margin North" is 50.1 km from the release point (release.lat, release.lon); sites must be within 50.0 km of it',
+      },
+    ]);
+  });
+
+  // Independent reference: naiveFlight (10 ms time stepping, no shared tables); in a wind that is
+  // the same at every height the landing is throw + wind × fall time (common practice).
+  it('a variant drifting farther than 50 km is refused; just inside is accepted', () => {
+    const base = (speed: number): PlanFile => ({
+      ...minimal(),
+      release: { lat: 47.49, lon: 21.08, altitude_m: 3000 },
+      winds: {
+        layers: [
+          { altitude_m: 0, fromDeg: 270, speed_mps: speed },
+          { altitude_m: 10000, fromDeg: 270, speed_mps: speed },
+        ],
+      },
+      variants: [{ id: 'slow', guidance: 'passive', descentRate_mps: 0.5 }],
+    });
+    const flight = naiveFlight({
+      top_m: 3000,
+      bottom_m: 0,
+      descentRateSL_mps: 0.5,
+      entryLoss_m: 0,
+      isaOffset_K: 0,
+      wind: new WindProfile(base(10).winds!.layers!),
+      carrier: { x: 0, y: 0 },
+      dt_s: 0.05,
+    });
+    const limitSpeed = (10 * 50_000) / Math.hypot(flight.x, flight.y);
+    expect(errorsOf(base(limitSpeed * 0.99))).toEqual([]);
+    const over = errorsOf(base(limitSpeed * 1.01));
+    expect(over.map((e) => e.path)).toEqual(['variants[0]']);
+    expect(over[0].message).toMatch(
+      /^variants\[0\] "slow" would land up to 50\.[45] km from its release: \d+ s fall from release\.altitude_m at descentRate_mps 0\.5 drifts 50\.\d km in winds\.layers, throw 0\.0 km; at most 50\.0 km is supported$/,
+    );
+  });
+
+  it('a steering reach beyond 50 km names the glide and control fields', () => {
+    const p = plan();
+    Object.assign(p.variants[1], { glideAngle_deg: 1, controlTime_s: 3600 });
+    p.release.altitude_m = 2000;
+    const errs = errorsOf(p);
+    expect(errs.map((e) => e.path)).toEqual(['variants[1]']);
+    expect(errs[0].message).toContain('steering reach');
+    expect(errs[0].message).toContain('(glideAngle_deg, controlTime_s)');
+  });
+});
+
 describe('resolvePlan', () => {
   // contract: docs/plan-format.md (defaults)
   it('fills every documented default', () => {
@@ -324,21 +533,24 @@ const id = fc.stringMatching(/^[A-Za-z0-9][A-Za-z0-9._-]{0,20}$/);
 const validPlan = fc
   .record({
     ground: num(-100, 5000),
-    release: fc.record({ lat: num(-90, 90), lon: num(-180, 180), agl: num(1, 4000) }),
+    // Inside the limits across fields too: sites within 0.3° (≤ 47 km) of the release point, and
+    // falls short and slow enough that drift + reach stays under 50 km (a fall of ≤ 1000 m at
+    // ≥ 1 m/s in ≤ 20 m/s winds drifts ≤ 20 km; a 5° glide reaches ≤ 11.5 km).
+    release: fc.record({ lat: num(-89.5, 89.5), lon: num(-179.5, 179.5), agl: num(1, 1000) }),
     layers: fc.uniqueArray(
-      fc.record({ altitude_m: num(-500, 10000), fromDeg: num(0, 360), speed_mps: num(0, 100) }),
+      fc.record({ altitude_m: num(-500, 10000), fromDeg: num(0, 360), speed_mps: num(0, 20) }),
       { selector: (l) => l.altitude_m, maxLength: 8 },
     ),
     variants: fc.uniqueArray(
       fc.record({
         id,
         guidance: fc.constantFrom('passive', 'fixed-heading', 'homing'),
-        descentRate_mps: num(0.01, 30),
-        glideAngle_deg: num(0.01, 89.99),
+        descentRate_mps: num(2, 15),
+        glideAngle_deg: num(5, 89.99),
         controlTime_s: num(0, 3600),
         entryLoss_m: num(0, 10000),
-        referenceMass_kg: num(0.001, 1000),
-        payloadMass_kg: num(0.001, 1000),
+        referenceMass_kg: num(0.0041, 25),
+        massRatio: num(0.26, 3.9),
         maxWind_mps: num(0, 100),
       }),
       { selector: (v) => v.id, minLength: 1, maxLength: 4 },
@@ -346,10 +558,10 @@ const validPlan = fc
     sites: fc.uniqueArray(
       fc.record({
         id,
-        lat: num(-90, 90),
-        lon: num(-180, 180),
+        dLat: num(-0.3, 0.3),
+        dLon: num(-0.3, 0.3),
         below: fc.option(num(0, 100)),
-        tolerance_m: num(0.01, 10000),
+        tolerance_m: num(0.1, 10000),
         pin: fc.option(fc.nat()),
       }),
       { selector: (s) => s.id, maxLength: 6 },
@@ -362,7 +574,7 @@ const validPlan = fc
     samples: fc.integer({ min: 1, max: 100000 }),
     seed: fc.integer({ min: 0, max: 4294967295 }),
     pct: num(0, 49.99),
-    pHit: num(0, 1),
+    pHit: num(0.01, 1),
   })
   .map((g) => ({
     format: 'seedfall-plan',
@@ -371,9 +583,14 @@ const validPlan = fc
     groundElevation_m: g.ground,
     winds: { reference: 'MSL', layers: g.layers },
     release: { lat: g.release.lat, lon: g.release.lon, altitude_m: g.release.agl },
-    variants: g.variants,
-    sites: g.sites.map(({ below, pin, ...s }) => ({
+    variants: g.variants.map(({ massRatio, ...v }) => ({
+      ...v,
+      payloadMass_kg: v.referenceMass_kg * massRatio,
+    })),
+    sites: g.sites.map(({ below, pin, dLat, dLon, ...s }) => ({
       ...s,
+      lat: g.release.lat + dLat,
+      lon: g.release.lon + dLon,
       ...(below === null ? {} : { elevation_m: g.ground - below }),
       ...(pin === null ? {} : { variant: g.variants[pin % g.variants.length].id }),
     })),
