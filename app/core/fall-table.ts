@@ -22,6 +22,15 @@ export interface FallTableInput {
   band_m?: number;
 }
 
+/**
+ * Most integration cells and Monte Carlo bands one table may hold. The plan schema bounds a fall
+ * to 10,500 m (release ≤ 10,000 m, ground ≥ −500 m) in 1 m cells plus at most 200 wind layers and
+ * 48 bands, so planned tables stay far below these; a caller asking for more gets a RangeError
+ * instead of an allocation that grows with height / cell.
+ */
+export const MAX_FALL_CELLS = 200_000;
+export const MAX_FALL_BANDS = 1_000;
+
 // Gauss–Legendre 3-point nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4).
 const GL_X = [-Math.sqrt(3 / 5), 0, Math.sqrt(3 / 5)];
 const GL_W = [5 / 9, 8 / 9, 5 / 9];
@@ -74,9 +83,18 @@ export class FallTable {
         `release altitude ${top_m} m MSL must be above the ground ${bottom_m} m MSL`,
       );
     }
+    if (!(input.descentRateSL_mps > 0 && Number.isFinite(input.descentRateSL_mps))) {
+      throw new RangeError(`descent rate ${input.descentRateSL_mps} m/s must be a positive number`);
+    }
     const cell = input.cell_m ?? 1;
     const height = top_m - bottom_m;
     const bandH = input.band_m ?? Math.max(2, height / 24);
+    if (!(height / cell <= MAX_FALL_CELLS) || !(height / bandH <= MAX_FALL_BANDS)) {
+      throw new RangeError(
+        `a ${height} m fall in ${cell} m cells and ${bandH} m bands exceeds ` +
+          `${MAX_FALL_CELLS} cells or ${MAX_FALL_BANDS} bands`,
+      );
+    }
     this.top_m = top_m;
     this.bottom_m = bottom_m;
     this.entryEnd_m = Math.max(bottom_m, top_m - Math.max(0, input.entryLoss_m));

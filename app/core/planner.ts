@@ -12,7 +12,7 @@ import {
 } from './flight';
 import { LocalFrame, type LatLon } from './geodesy';
 import type { Plan, ResolvedSite, ResolvedVariant } from './plan';
-import { bestShift, bisectEdge, hitProfile, runAround } from './release-window';
+import { bestShift, hitProfile, runAround, searchEdge } from './release-window';
 import { hashLabel, Rng, streamSeed } from './rng';
 import { SoundingAtmosphere } from './sounding-atmosphere';
 import { planWindProfile, type WindProfile } from './wind';
@@ -25,6 +25,35 @@ export interface GeoEllipse {
   semiMajor_m: number;
   semiMinor_m: number;
   azimuth_deg: number;
+}
+
+/** Search limit of the homing window and hover zone edges: doublings of the first step out. */
+export const EDGE_DOUBLINGS = 6;
+
+/**
+ * Times (s, relative to passing the plan's release point) when releasing meets requiredPHit.
+ * `openUnbounded` / `closeUnbounded` are present (true) only when P(hit) still met the
+ * requirement at the farthest release the search tried: that edge is then the search limit, and
+ * the window reaches farther.
+ */
+export interface ReleaseWindow {
+  open_s: number;
+  close_s: number;
+  best: LatLon;
+  best_s: number;
+  openUnbounded?: true;
+  closeUnbounded?: true;
+}
+
+/**
+ * Where a hovering carrier may hold: a disc about `center`. `unbounded` is present (true) only
+ * when the direction that sets the radius reached the search limit: the radius is then a lower
+ * bound.
+ */
+export interface ReleaseZone {
+  center: LatLon;
+  radius_m: number;
+  unbounded?: true;
 }
 
 /** Result of one variant for one site (docs/model.md §7–10). */
@@ -45,8 +74,8 @@ export interface VariantResult {
   meanLanding: LatLon;
   cep_m: number;
   pHit: number;
-  releaseWindow: { open_s: number; close_s: number; best: LatLon; best_s: number } | null;
-  releaseZone: { center: LatLon; radius_m: number } | null;
+  releaseWindow: ReleaseWindow | null;
+  releaseZone: ReleaseZone | null;
   headingTrue_deg?: number;
   headingMag_deg?: number | null;
   thrustTime_s?: number;
@@ -238,16 +267,15 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
     if (p0 >= req) {
       const at = (t: number): number => probe(add(rel, unit, speed * t));
       const span = (reach + tol + 50) / speed;
-      const edge = (dir: number): number => {
-        let out = dir * span;
-        for (let i = 0; i < 6 && at(out) >= req; i++) out *= 2;
-        return bisectEdge(at, 0, out, req, 7);
-      };
+      const open = searchEdge(at, -span, req, EDGE_DOUBLINGS, 7);
+      const close = searchEdge(at, span, req, EDGE_DOUBLINGS, 7);
       releaseWindow = {
-        open_s: sStar + edge(-1),
-        close_s: sStar + edge(1),
+        open_s: sStar + open.edge,
+        close_s: sStar + close.edge,
         best: frame.toLatLon(rel.x, rel.y),
         best_s: sStar,
+        ...(open.bounded ? {} : { openUnbounded: true as const }),
+        ...(close.bounded ? {} : { closeUnbounded: true as const }),
       };
     }
   }
@@ -261,15 +289,20 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
     // Hover: where to hold so that P(hit) meets the requirement (a disc about the best point).
     const c = rel;
     if (stats.pHit >= req) {
-      let radius = Infinity;
+      // Eight directions; the first one's edge is the starting radius, so it is always finite.
+      let radius = 0;
+      let unbounded = false;
       for (let d = 0; d < 8; d++) {
         const u = { x: Math.sin((d * Math.PI) / 4), y: Math.cos((d * Math.PI) / 4) };
         const at = (r: number): number => probe(add(c, u, r));
-        let out = reach + tol + 50;
-        for (let i = 0; i < 6 && at(out) >= req; i++) out *= 2;
-        radius = Math.min(radius, bisectEdge(at, 0, out, req, 8));
+        const e = searchEdge(at, reach + tol + 50, req, EDGE_DOUBLINGS, 8);
+        if (d === 0 || e.edge < radius) [radius, unbounded] = [e.edge, !e.bounded];
       }
-      releaseZone = { center: frame.toLatLon(c.x, c.y), radius_m: radius };
+      releaseZone = {
+        center: frame.toLatLon(c.x, c.y),
+        radius_m: radius,
+        ...(unbounded ? { unbounded: true as const } : {}),
+      };
     }
   }
 

@@ -30,9 +30,13 @@ export function hitProfile(
     const qy = ys[i] - site.y;
     const along = qx * unit.x + qy * unit.y;
     const across = qx * unit.y - qy * unit.x;
-    if (Math.abs(across) > tol_m) continue;
+    // `!(… <= …)` also drops a NaN landing; a non-finite chord end is dropped too, so the sweep
+    // below always advances and ends after at most 2n steps.
+    if (!(Math.abs(across) <= tol_m)) continue;
     const h = Math.sqrt(tol_m * tol_m - across * across);
-    ev.push((-along - h) / speed_mps, (-along + h) / speed_mps);
+    const open = (-along - h) / speed_mps;
+    const close = (-along + h) / speed_mps;
+    if (Number.isFinite(open) && Number.isFinite(close)) ev.push(open, close);
   }
   const m = ev.length / 2;
   const starts = new Float64Array(m);
@@ -81,7 +85,7 @@ export function profileAt(pr: HitProfile, x: number): number {
 
 /** The stretch of shifts around x0 where P(hit) ≥ required, or null if P(x0) is below it. */
 export function runAround(pr: HitProfile, x0: number, required: number): [number, number] | null {
-  if (profileAt(pr, x0) < required) return null;
+  if (pr.s.length === 0 || profileAt(pr, x0) < required) return null;
   const s = pr.s;
   let j = 0;
   while (j + 1 < s.length && s[j + 1] <= x0) j++;
@@ -132,4 +136,31 @@ export function bisectEdge(
     else b = m;
   }
   return (a + b) / 2;
+}
+
+/** An edge found by `searchEdge`; `bounded` is false when the search limit was reached first. */
+export interface SearchedEdge {
+  edge: number;
+  bounded: boolean;
+}
+
+/**
+ * Edge of the stretch where evalP ≥ required, walking out from 0 along the sign of `start`: the
+ * outside point is `start` doubled at most `doublings` times, then `steps` halvings
+ * (docs/model.md §9). Costs at most doublings + steps + 1 evaluations whatever the inputs. When
+ * P(hit) still meets the requirement at the farthest point tried, `bounded` is false and `edge`
+ * is (close to) that point: the true edge lies farther out.
+ */
+export function searchEdge(
+  evalP: (s: number) => number,
+  start: number,
+  required: number,
+  doublings: number,
+  steps: number,
+): SearchedEdge {
+  let out = start;
+  let i = 0;
+  for (; i < doublings && evalP(out) >= required; i++) out *= 2;
+  const bounded = i < doublings || evalP(out) < required;
+  return { edge: bisectEdge(evalP, 0, out, required, steps), bounded };
 }
