@@ -2,10 +2,20 @@
  * Import of a wind/temperature sounding from a delimited text file (CSV, semicolon or tab) by
  * papaparse. Units and the altitude reference come from the header ("altitude_ft_agl",
  * "speed (kt)", "temp °C", "p hPa"); values are converted to SI. Never throws: bad rows are
- * reported by line with the reason, good rows are kept.
+ * reported by line with the reason, good rows are kept. Winds and temperatures follow the
+ * importers' one rule (import-limits.ts): a value outside the plan schema's range is left out and
+ * reported with its line, field and range; rows past the plan's layer limits are not read.
  */
 import Papa from 'papaparse';
 import { M_PER_FT, MPS_PER_KT } from './constants';
+import {
+  fmt,
+  MAX_IMPORT_BYTES,
+  onlyFirstMessage,
+  ProblemList,
+  rangeProblem,
+  schemaMaxItems,
+} from './import-limits';
 import type { AltitudeReference, WindLayer } from './plan';
 
 export interface SoundingProblem {
@@ -23,6 +33,8 @@ export interface Sounding {
   temperatures: { altitude_m: number; temperature_K: number }[];
   /** Present when the file has a pressure column; Pa, ascending altitude. */
   pressures?: { altitude_m: number; pressure_Pa: number }[];
+  /** Winds and temperatures read but not handed on (out of the plan's range or over its limits). */
+  notUsed: number;
   problems: SoundingProblem[];
 }
 
@@ -136,13 +148,9 @@ function numberCell(cell: string | undefined, decimalComma: boolean): number | u
   return Number(s);
 }
 
-const LIMITS: Record<Kind, [number, number, string]> = {
-  altitude: [-500, 20000, 'm'], // what a plan's wind layers can hold
-  direction: [0, 360, '°'],
-  speed: [0, 150, 'm/s'],
-  temperature: [150, 350, 'K'],
-  pressure: [100, 120000, 'Pa'],
-};
+// Pressure is not a plan field: a plausible span for the troposphere and lower stratosphere
+// (about 1 hPa near 48 km, 1200 hPa above any surface; U.S. Standard Atmosphere 1976).
+const PRESSURE_PA: [number, number] = [100, 120000];
 
 function detectDelimiter(line: string): string {
   if (line.includes('\t')) return '\t';
@@ -150,69 +158,44 @@ function detectDelimiter(line: string): string {
   return ',';
 }
 
-/** Imports a sounding from delimited text with a header row. Never throws. */
-export function importSounding(text: string): Sounding {
-  const out: Sounding = { reference: null, layers: [], temperatures: [], problems: [] };
-  if (typeof text !== 'string') {
-    out.problems.push({ line: 1, message: 'no text to import' });
-    return out;
+/** The first line (0-based index and start offset) for which `test` holds, scanning lazily. */
+function findLine(body: string, test: (line: string) => boolean): { index: number; start: number } {
+  let at = 0;
+  for (let index = 0; at <= body.length; index++) {
+    const nl = body.indexOf('\n', at);
+    const end = nl < 0 ? body.length : nl;
+    if (test(body.slice(at, end))) return { index, start: at };
+    if (nl < 0) break;
+    at = nl + 1;
   }
-  const body = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
-  const lines = body.split('\n');
-  const headerIdx = lines.findIndex((l) => {
-    const ws = l.split(/[,;\t]/).map((c) => kindOf(splitWords(c)));
-    return !/^\s*#/.test(l) && ws.includes('altitude') && !/^[\s\d.,;+\-\t]*$/.test(l);
-  });
-  if (headerIdx < 0) {
-    out.problems.push({
-      line: 1,
-      message:
-        'no header row naming an altitude column (e.g. "altitude_m,direction_deg,speed_mps,temperature_C")',
-    });
-    return out;
-  }
-  const delimiter = detectDelimiter(lines[headerIdx]);
-  const decimalComma = delimiter !== ',';
-  const lineStarts: number[] = [0];
-  for (let i = 0; i < body.length; i++) if (body[i] === '\n') lineStarts.push(i + 1);
-  const lineAt = (offset: number): number => {
-    let lo = 0;
-    let hi = lineStarts.length - 1;
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (lineStarts[mid] <= offset) lo = mid;
-      else hi = mid - 1;
-    }
-    return lo + 1;
-  };
-  const rows: { line: number; cells: string[]; error?: string }[] = [];
-  const start = lineStarts[headerIdx];
-  let cursor = 0;
-  try {
-    Papa.parse<string[]>(body.slice(start), {
-      delimiter,
-      newline: '\n',
-      skipEmptyLines: false,
-      step: (r) => {
-        rows.push({ line: lineAt(start + cursor), cells: r.data, error: r.errors[0]?.message });
-        cursor = r.meta.cursor;
-      },
-    });
-  } catch (e) {
-    out.problems.push({ line: headerIdx + 1, message: `could not read: ${(e as Error).message}` });
-    return out;
-  }
-  const [header, ...data] = rows;
+  return { index: -1, start: -1 };
+}
+
+const DEFAULTS: Record<Kind, [string, number, number]> = {
+  altitude: ['m', 1, 0],
+  direction: ['deg', 1, 0],
+  speed: ['m/s', 1, 0],
+  temperature: ['°C', 1, ZERO_C_K],
+  pressure: ['hPa', 100, 0],
+};
+
+/** Columns of the header row; problems about units are reported on its line. */
+function headerColumns(
+  cells: string[],
+  line: number,
+  out: Sounding,
+  problems: ProblemList<SoundingProblem>,
+): Map<Kind, Column> {
   const columns = new Map<Kind, Column>();
-  for (const [index, cell] of header.cells.entries()) {
+  for (const [index, cell] of cells.entries()) {
     const words = splitWords(cell);
     const kind = kindOf(words);
     if (!kind || columns.has(kind)) continue;
     if (kind === 'altitude') out.reference = referenceOf(words);
     const unit = unitOf(kind, words);
     if (unit === 'unknown') {
-      out.problems.push({
-        line: header.line,
+      problems.push({
+        line,
         message: `column "${cell.trim()}": unit not supported; column ignored`,
       });
       continue;
@@ -221,17 +204,10 @@ export function importSounding(text: string): Sounding {
       columns.set(kind, { kind, index, scale: NaN, offset: NaN, unit: '?' });
       continue;
     }
-    const defaults: Record<Kind, [string, number, number]> = {
-      altitude: ['m', 1, 0],
-      direction: ['deg', 1, 0],
-      speed: ['m/s', 1, 0],
-      temperature: ['°C', 1, ZERO_C_K],
-      pressure: ['hPa', 100, 0],
-    };
-    const [du, ds, dof] = defaults[kind];
+    const [du, ds, dof] = DEFAULTS[kind];
     if (unit === null) {
-      out.problems.push({
-        line: header.line,
+      problems.push({
+        line,
         message: `column "${cell.trim()}": no unit in the header; assumed ${du}`,
       });
     }
@@ -243,82 +219,148 @@ export function importSounding(text: string): Sounding {
       unit: unit?.unit ?? du,
     });
   }
-  const alt = columns.get('altitude');
-  if (!alt) {
-    out.problems.push({ line: header.line, message: 'no altitude column in the header row' });
-    return out;
-  }
-  const dir = columns.get('direction');
-  const spd = columns.get('speed');
-  const tmp = columns.get('temperature');
-  const prs = columns.get('pressure');
-  if (!dir || !spd) {
-    out.problems.push({
-      line: header.line,
-      message: `no ${!dir ? 'direction' : 'speed'} column; no wind layers read`,
-    });
-  }
-  if (tmp && tmp.unit === '?') {
-    // Unitless temperatures: Kelvin when the first value reads like one, else Celsius.
-    const first = data
-      .map((r) => numberCell(r.cells[tmp.index], decimalComma))
-      .find((v): v is number => typeof v === 'number');
-    const kelvin = first !== undefined && first > 100;
-    Object.assign(
-      tmp,
-      kelvin ? { unit: 'K', scale: 1, offset: 0 } : { unit: '°C', scale: 1, offset: ZERO_C_K },
-    );
-    out.problems.push({
-      line: header.line,
-      message: `temperature column has no unit in the header; assumed ${tmp.unit}`,
-    });
-  }
-  if (prs) out.pressures = [];
+  return columns;
+}
 
+/** Imports a sounding from delimited text with a header row. Never throws. */
+export function importSounding(text: string): Sounding {
+  const out: Sounding = { reference: null, layers: [], temperatures: [], notUsed: 0, problems: [] };
+  const problems = new ProblemList<SoundingProblem>();
+  const finish = (): Sounding => {
+    out.problems = problems.items;
+    const tail = problems.tail();
+    if (tail) out.problems.push({ line: 0, message: tail });
+    return out;
+  };
+  if (typeof text !== 'string') {
+    problems.push({ line: 1, message: 'no text to import' });
+    return finish();
+  }
+  if (text.length > MAX_IMPORT_BYTES) {
+    problems.push({
+      line: 1,
+      message: `the file is larger than ${fmt(MAX_IMPORT_BYTES / 1048576)} MB, the most an import reads; nothing was read`,
+    });
+    return finish();
+  }
+  const body = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
+  const head = findLine(body, (l) => {
+    const ws = l.split(/[,;\t]/).map((c) => kindOf(splitWords(c)));
+    return !/^\s*#/.test(l) && ws.includes('altitude') && !/^[\s\d.,;+\-\t]*$/.test(l);
+  });
+  if (head.index < 0) {
+    problems.push({
+      line: 1,
+      message:
+        'no header row naming an altitude column (e.g. "altitude_m,direction_deg,speed_mps,temperature_C")',
+    });
+    return finish();
+  }
+  const rest = body.slice(head.start);
+  const nl = rest.indexOf('\n');
+  const delimiter = detectDelimiter(nl < 0 ? rest : rest.slice(0, nl));
+  const decimalComma = delimiter !== ',';
+  const maxLayers = schemaMaxItems('winds.layers');
+  const maxLevels = schemaMaxItems('atmosphere.sounding.levels');
+
+  let columns: Map<Kind, Column> | undefined;
+  let cursor = 0;
+  let line = head.index + 1;
   const firstAt = new Map<number, number>();
   type Row = { z: number; wind?: WindLayer; t?: number; p?: number };
   const kept: Row[] = [];
-  for (const row of data) {
-    const { line, cells } = row;
-    if (cells.every((c) => c.trim() === '') || /^\s*#/.test(cells[0] ?? '')) continue;
-    const problem = (message: string) => out.problems.push({ line, message });
-    if (row.error) {
-      problem(`${row.error}; row skipped`);
-      continue;
+  let winds = 0;
+  let temps = 0;
+  let cutWinds = 0;
+  let cutTemps = 0;
+  let lastWindLine = 0;
+  let lastTempLine = 0;
+  let stoppedAt = 0;
+
+  const readRow = (cells: string[], line: number, error: string | undefined): boolean => {
+    const cols = columns!;
+    const alt = cols.get('altitude')!;
+    const dir = cols.get('direction');
+    const spd = cols.get('speed');
+    const tmp = cols.get('temperature');
+    const prs = cols.get('pressure');
+    if (cells.every((c) => c.trim() === '') || /^\s*#/.test(cells[0] ?? '')) return true;
+    const windsFull = !dir || !spd || winds >= maxLayers;
+    const tempsFull = !tmp || temps >= maxLevels;
+    if (windsFull && tempsFull && winds + temps > 0) {
+      stoppedAt = line;
+      return false;
     }
+    const problem = (message: string) => problems.push({ line, message });
+    if (error) {
+      problem(`${error}; row skipped`);
+      return true;
+    }
+    const raw = (col: Column) => (cells[col.index] ?? '').trim();
     const read = (col: Column | undefined): number | undefined | string => {
       if (!col) return undefined;
-      const raw = cells[col.index];
-      const v = numberCell(raw, decimalComma);
-      if (v === null) return `${col.kind} "${(raw ?? '').trim()}" is not a number`;
+      const v = numberCell(cells[col.index], decimalComma);
+      if (v === null) return `${col.kind} "${raw(col)}" is not a number`;
       if (v === undefined) return undefined;
       const si = v * col.scale + col.offset;
-      const [lo, hi, u] = LIMITS[col.kind];
-      if (!(si >= lo && si <= hi)) {
-        return `${col.kind} ${(raw ?? '').trim()} ${col.unit} is outside ${lo}…${hi} ${u}`;
-      }
-      return si;
+      return Number.isFinite(si) ? si : `${col.kind} "${raw(col)}" is not a finite number`;
     };
-    const z = read(alt);
+    if (tmp && tmp.unit === '?') {
+      // Unitless temperatures: Kelvin when the first value reads like one, else Celsius.
+      const first = numberCell(cells[tmp.index], decimalComma);
+      if (typeof first === 'number') {
+        Object.assign(
+          tmp,
+          first > 100
+            ? { unit: 'K', scale: 1, offset: 0 }
+            : { unit: '°C', scale: 1, offset: ZERO_C_K },
+        );
+        problems.push({
+          line: head.index + 1,
+          message: `temperature column has no unit in the header; assumed ${tmp.unit}`,
+        });
+      }
+    }
+    // Altitudes to the millimetre: no sounding is finer, and levels a few ulp apart (1e-300 m)
+    // would give the hydrostatic integration a meaningless lapse rate.
+    const zRaw = read(alt);
+    const z = typeof zRaw === 'number' ? Math.round(zRaw * 1000) / 1000 + 0 : zRaw;
     if (typeof z !== 'number') {
       problem(`${typeof z === 'string' ? z : 'altitude is empty'}; row skipped`);
-      continue;
+      return true;
     }
     if (out.reference === 'AGL' && z < 0) {
-      problem(`altitude ${z} m is below ground; row skipped`);
-      continue;
+      problem(`altitude ${fmt(z)} m is below ground; row skipped`);
+      return true;
     }
     if (firstAt.has(z)) {
-      problem(`altitude ${z} m repeats line ${firstAt.get(z)}; kept the first`);
-      continue;
+      problem(`altitude ${fmt(z)} m repeats line ${firstAt.get(z)}; kept the first`);
+      return true;
     }
     firstAt.set(z, line);
     const r: Row = { z };
+    // The plan field's range problem, with the value as the file wrote it.
+    const check = (path: string, v: number, col?: Column): string | undefined => {
+      const m = rangeProblem(path, v);
+      return m && col ? `${m} (${raw(col)} ${col.unit} in the file)` : m;
+    };
     const d = read(dir);
     const s = read(spd);
     for (const v of [d, s]) if (typeof v === 'string') problem(`${v}; wind left out`);
     if (typeof d === 'number' && typeof s === 'number') {
-      r.wind = { altitude_m: z, fromDeg: d, speed_mps: s };
+      const bad =
+        check('winds.layers[].altitude_m', z) ??
+        check('winds.layers[].fromDeg', d, dir) ??
+        check('winds.layers[].speed_mps', s, spd);
+      if (bad) {
+        problem(`${bad}; wind left out`);
+        out.notUsed++;
+      } else if (winds >= maxLayers) cutWinds++;
+      else {
+        r.wind = { altitude_m: z, fromDeg: d, speed_mps: s };
+        winds++;
+        lastWindLine = line;
+      }
     } else if (
       dir &&
       spd &&
@@ -330,11 +372,100 @@ export function importSounding(text: string): Sounding {
     }
     const t = read(tmp);
     if (typeof t === 'string') problem(`${t}; temperature left out`);
-    else if (t !== undefined) r.t = t;
+    else if (t !== undefined) {
+      const bad =
+        check('atmosphere.sounding.levels[].altitude_m', z) ??
+        check('atmosphere.sounding.levels[].temperature_K', t, tmp);
+      if (bad) {
+        problem(`${bad}; temperature left out`);
+        out.notUsed++;
+      } else if (temps >= maxLevels) cutTemps++;
+      else {
+        r.t = t;
+        temps++;
+        lastTempLine = line;
+      }
+    }
     const p = read(prs);
     if (typeof p === 'string') problem(`${p}; pressure left out`);
-    else if (p !== undefined) r.p = p;
-    kept.push(r);
+    else if (p !== undefined) {
+      if (p >= PRESSURE_PA[0] && p <= PRESSURE_PA[1]) r.p = p;
+      else
+        problem(
+          `pressure ${raw(prs!)} ${prs!.unit} is outside ${fmt(PRESSURE_PA[0])}…${fmt(PRESSURE_PA[1])} Pa; pressure left out`,
+        );
+    }
+    if (r.wind || r.t !== undefined || r.p !== undefined) kept.push(r);
+    return true;
+  };
+
+  try {
+    Papa.parse<string[]>(rest, {
+      delimiter,
+      newline: '\n',
+      skipEmptyLines: false,
+      step: (res, parser) => {
+        const start = line;
+        const end = res.meta.cursor;
+        for (let i = cursor; i < end && i < rest.length; i++) if (rest.charCodeAt(i) === 10) line++;
+        cursor = end;
+        const cells = res.data.map((c) => String(c ?? ''));
+        if (!columns) {
+          columns = headerColumns(cells, start, out, problems);
+          if (!columns.has('altitude')) {
+            problems.push({ line: start, message: 'no altitude column in the header row' });
+            parser.abort();
+            return;
+          }
+          if (!columns.has('direction') || !columns.has('speed')) {
+            problems.push({
+              line: start,
+              message: `no ${!columns.has('direction') ? 'direction' : 'speed'} column; no wind layers read`,
+            });
+          }
+          if (columns.has('pressure')) out.pressures = [];
+          return;
+        }
+        if (!readRow(cells, start, res.errors[0]?.message)) parser.abort();
+      },
+    });
+  } catch (e) {
+    problems.push({ line: head.index + 1, message: `could not read: ${(e as Error).message}` });
+    return finish();
+  }
+  const notRead = stoppedAt ? `rows from line ${stoppedAt} on were not read` : '';
+  if (
+    cutWinds > 0 ||
+    (stoppedAt && columns?.has('direction') && columns?.has('speed') && winds >= maxLayers)
+  ) {
+    problems.push({
+      line: lastWindLine,
+      message: onlyFirstMessage(
+        winds,
+        'wind layers',
+        maxLayers,
+        0,
+        [cutWinds ? `the wind of ${fmt(cutWinds)} later row(s) was left out` : '', notRead]
+          .filter(Boolean)
+          .join('; '),
+      ),
+    });
+    out.notUsed += cutWinds;
+  }
+  if (cutTemps > 0 || (stoppedAt && columns?.has('temperature') && temps >= maxLevels)) {
+    problems.push({
+      line: lastTempLine,
+      message: onlyFirstMessage(
+        temps,
+        'temperatures',
+        maxLevels,
+        0,
+        [cutTemps ? `the temperature of ${fmt(cutTemps)} later row(s) was left out` : '', notRead]
+          .filter(Boolean)
+          .join('; '),
+      ),
+    });
+    out.notUsed += cutTemps;
   }
   kept.sort((a, b) => a.z - b.z);
   for (const r of kept) {
@@ -342,5 +473,5 @@ export function importSounding(text: string): Sounding {
     if (r.t !== undefined) out.temperatures.push({ altitude_m: r.z, temperature_K: r.t });
     if (r.p !== undefined) out.pressures?.push({ altitude_m: r.z, pressure_Pa: r.p });
   }
-  return out;
+  return finish();
 }

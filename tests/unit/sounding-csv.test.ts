@@ -8,6 +8,11 @@ import { expectClose } from './helpers';
 const FT = 0.3048;
 const KT = 1852 / 3600;
 
+import demo from '../../data/demo-plan.json';
+import { inSchemaRange, schemaMaxItems } from '../../app/core/import-limits';
+import type { PlanFile } from '../../app/core/plan';
+import { allowedRange, validatePlan } from '../../app/core/validate';
+
 describe('sounding import: units and reference from the header', () => {
   it('converts feet and knots exactly and reads AGL from the header', () => {
     const r = importSounding(
@@ -83,8 +88,13 @@ describe('sounding import: bad input', () => {
     const r = importSounding(text);
     const byLine = Object.fromEntries(r.problems.map((p) => [p.line, p.message]));
     expect(byLine[5]).toMatch(/altitude "abc" is not a number; row skipped/);
-    expect(byLine[6]).toMatch(/direction 400 deg is outside 0…360/);
-    expect(byLine[7]).toMatch(/speed -1 m\/s is outside/);
+    // Meteorological direction 0…360° (WMO No. 306 code 0877); the range text is the schema's.
+    expect(byLine[6]).toBe(
+      `fromDeg 400 is outside the plan's range (${allowedRange('winds.layers[0].fromDeg')}) (400 deg in the file); wind left out`,
+    );
+    expect(byLine[7]).toMatch(
+      /^speed_mps -1 is outside the plan's range .*\(-1 m\/s in the file\); wind left out$/,
+    );
     expect(byLine[8]).toMatch(/temperature "hot" is not a number; temperature left out/);
     expect(byLine[11]).toMatch(/altitude 200 m repeats line 9; kept the first/);
     expect(byLine[12]).toMatch(/direction is empty; wind left out/);
@@ -124,6 +134,77 @@ describe('sounding import: bad input', () => {
           }
         },
       ),
+    );
+  });
+});
+
+describe('sounding import stays inside the plan schema', () => {
+  it('reads 1,000 rows only up to the plan’s layer and level limits, and says so', () => {
+    const maxLayers = schemaMaxItems('winds.layers');
+    const maxLevels = schemaMaxItems('atmosphere.sounding.levels');
+    const rows = ['altitude_m,direction_deg,speed_mps,temperature_C'];
+    for (let i = 0; i < 1000; i++) rows.push(`${i * 10},${i % 360},5,${15 - i * 0.0065}`);
+    const r = importSounding(rows.join('\n'));
+    expect(r.layers).toHaveLength(Math.min(1000, maxLayers));
+    expect(r.temperatures).toHaveLength(Math.min(1000, maxLevels));
+    // The first rows of the file are the ones kept.
+    expect(r.layers.at(-1)!.altitude_m).toBe((maxLayers - 1) * 10);
+    const msgs = r.problems.map((p) => p.message);
+    const g = (n: number) => n.toLocaleString('en-US');
+    expect(msgs).toContain(
+      `only the first ${g(maxLayers)} wind layers were read (the plan holds at most ${g(maxLayers)}); ` +
+        `the wind of ${g(Math.min(1000, maxLevels) - maxLayers)} later row(s) was left out; rows from line ${maxLevels + 2} on were not read`,
+    );
+    expect(
+      msgs.some((m) => m.startsWith(`only the first ${g(maxLevels)} temperatures were read`)),
+    ).toBe(true);
+    expect(r.notUsed).toBe(Math.min(1000, maxLevels) - maxLayers);
+  });
+
+  it('leaves out +99 °C (372.15 K) and a 200 kt wind, keeping the rest of each row', () => {
+    // SI: 99 °C = 372.15 K; 200 kt × 1852/3600 = 102.9 m/s. Both over today's plan limits:
+    expect(inSchemaRange('atmosphere.sounding.levels[].temperature_K', 372.15)).toBe(false);
+    expect(inSchemaRange('winds.layers[].speed_mps', (200 * 1852) / 3600)).toBe(false);
+    const r = importSounding('alt_ft,dir,speed_kt,temp_C\n1000,270,20,99\n2000,280,200,10\n');
+    expect(r.layers.map((l) => l.altitude_m)).toEqual([304.8]);
+    expect(r.temperatures.map((t) => t.altitude_m)).toEqual([609.6]);
+    expect(r.problems.map((p) => [p.line, p.message])).toEqual([
+      [
+        2,
+        `temperature_K 372.15 is outside the plan's range (${allowedRange('atmosphere.sounding.levels[0].temperature_K')}) (99 °C in the file); temperature left out`,
+      ],
+      [
+        3,
+        `speed_mps 102.8889 is outside the plan's range (${allowedRange('winds.layers[0].speed_mps')}) (200 kt in the file); wind left out`,
+      ],
+    ]);
+    expect(r.notUsed).toBe(2);
+  });
+
+  it('never gives the demo plan a layer or level it rejects, on any numbers', () => {
+    // Property: whatever the rows hold, the layers and temperatures validate in a plan.
+    const num = fc.oneof(
+      fc.double({ noNaN: true, min: -1e6, max: 1e6 }),
+      fc.integer({ min: -1000, max: 40000 }),
+      fc.constantFrom('', 'x', '1e400', '-0'),
+    );
+    const header = fc.constantFrom(
+      'altitude_m,direction_deg,speed_mps,temperature_C',
+      'alt_ft_agl,dir,speed_kt,temp_K',
+      'height_km,wdir,ws_kmh,t_F',
+    );
+    fc.assert(
+      fc.property(header, fc.array(fc.tuple(num, num, num, num), { maxLength: 40 }), (h, rows) => {
+        const r = importSounding([h, ...rows.map((x) => x.join(','))].join('\n'));
+        const plan = structuredClone(demo) as unknown as PlanFile;
+        const ref = r.reference ?? 'MSL';
+        plan.winds = { ...plan.winds, reference: ref, layers: r.layers };
+        if (r.temperatures.length)
+          plan.atmosphere = { sounding: { reference: ref, levels: r.temperatures } };
+        const v = validatePlan(plan);
+        expect(v.ok ? [] : v.errors.slice(0, 3)).toEqual([]);
+      }),
+      { numRuns: 300 },
     );
   });
 });
