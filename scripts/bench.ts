@@ -3,21 +3,33 @@
  * Monte Carlo flights through a 40-layer wind profile, the speed-up over the naive 10 ms
  * integrator at equal accuracy, and the time of the full demo plan. Targets (issue #2):
  * ≥ 2·10^6 passive and ≥ 2·10^5 homing descents/s, ≥ 100× naive at ≤ 0.1 m, demo ≤ 50 ms.
+ * Then a plan at the format's limit of 1,000 sites (tests/support/make-field.ts): planning, the
+ * safety analysis, each export and the brief, as the CLI runs them (plan + safety + output), each
+ * under 10 s (issue #9), and as ratios to the planning time.
  */
 import { readFileSync } from 'node:fs';
 import {
+  briefHtml,
+  briefSafety,
   FallTable,
   fixedHeadingProgramme,
   flySamples,
   naiveFlight,
   passiveOffset,
   planDrop,
+  planSafety,
   Rng,
+  toGeoJSON,
+  toGPX,
+  toKML,
+  toScheduleCSV,
+  toSitesCSV,
   validatePlan,
   WindProfile,
   type FlightSetup,
   type Uncertainty,
 } from '../app/core/index';
+import { makeField } from '../tests/support/make-field';
 
 const layers = Array.from({ length: 40 }, (_, i) => ({
   altitude_m: 10 + i * 15,
@@ -143,3 +155,41 @@ line(
   `${times[runs >> 1].toFixed(1)} ms`,
   times[runs >> 1] <= 50,
 );
+
+// ---- A plan at the format's limit: 1,000 sites over the demo area ----
+{
+  const field = validatePlan(makeField(1000, 1));
+  if (!field.ok) throw new Error('generated 1,000-site plan invalid');
+  const plan = field.plan;
+  const ms = <T>(f: () => T): [T, number] => {
+    const t0 = performance.now();
+    const r = f();
+    return [r, performance.now() - t0];
+  };
+  const [result, tPlan] = ms(() => planDrop(plan));
+  const [safety, tSafety] = ms(() => planSafety(plan, result));
+  const hazard = { hazardArea: safety.hazardArea };
+  const outputs: [string, () => unknown][] = [
+    ['GeoJSON', () => JSON.stringify(toGeoJSON(plan, result, hazard), null, 1)],
+    ['KML', () => toKML(plan, result, hazard)],
+    ['GPX', () => toGPX(plan, result)],
+    ['schedule CSV', () => toScheduleCSV(plan, result)],
+    ['sites CSV', () => toSitesCSV(plan)],
+    ['brief', () => briefHtml(plan, result, { safety: briefSafety(safety) })],
+  ];
+  const ratio = (t: number): string => `${(t / tPlan).toFixed(2)}x plan`;
+  const sec = (t: number): string => `${(t / 1000).toFixed(2)} s`;
+  console.log(`\n1,000-site plan (${plan.sites.length} sites, ${plan.monteCarlo.samples} samples)`);
+  line('  plan (planDrop)', sec(tPlan), true);
+  line('  safety analysis (planSafety)', `${sec(tSafety)}  ${ratio(tSafety)}`, true);
+  // The CLI's export and brief each plan and run the safety analysis, then write (app/cli.ts).
+  for (const [label, f] of outputs) {
+    const [, t] = ms(f);
+    const total = tPlan + tSafety + t;
+    line(
+      `  ${label} (plan + safety + output, target < 10 s)`,
+      `${sec(total)}  output ${sec(t)} = ${ratio(t)}`,
+      total < 10_000,
+    );
+  }
+}
