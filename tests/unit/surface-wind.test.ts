@@ -1,6 +1,11 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import demo from '../../data/demo-plan.json';
+import { schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
+import type { PlanFile } from '../../app/core/plan';
+import { validatePlan } from '../../app/core/validate';
 import {
+  blendSurfaceReading,
   HELLMANN_NEUTRAL,
   mergeSurfaceProfile,
   surfaceProfile,
@@ -152,5 +157,111 @@ describe('merging under a forecast', () => {
   it('returns either list alone when the other is empty', () => {
     expect(mergeSurfaceProfile([], surface)).toEqual(surface);
     expect(mergeSurfaceProfile(forecast, [])).toEqual(forecast);
+  });
+});
+
+describe('blending a surface reading within the plan’s limits', () => {
+  const max = schemaMaxItems('winds.layers');
+
+  it('widens the profile spacing so a 3,000 m blend stays within the layer limit, and says so', () => {
+    // At 10 m spacing from 2 m to 3000 m the blend would have 300 + 2 = 302 layers.
+    const forecast = [
+      { altitude_m: 3000, fromDeg: 270, speed_mps: 15 },
+      { altitude_m: 4000, fromDeg: 280, speed_mps: 20 },
+    ];
+    const r = blendSurfaceReading(
+      forecast,
+      { height_m: 2, speed_mps: 4, fromDeg: 250 },
+      {
+        law: 'log',
+        terrain: 'open',
+        upTo_m: 3000,
+      },
+    );
+    expect(r.added).toBe(true);
+    expect(r.layers.length).toBeLessThanOrEqual(max);
+    expect(r.layers.slice(-2)).toEqual(forecast);
+    expect(r.layers[0]).toEqual({ altitude_m: 2, fromDeg: 250, speed_mps: 4 });
+    const step = Math.ceil(2998 / (max - 2));
+    expect(r.layers[1].altitude_m).toBe(2 + step);
+    expect(r.problems).toEqual([
+      `surface profile spaced every ${step} m instead of 10 m so the plan's wind holds at most ${max} layers`,
+    ]);
+  });
+
+  it('keeps the 10 m spacing and reports nothing when it fits', () => {
+    const r = blendSurfaceReading(
+      [{ altitude_m: 150, fromDeg: 270, speed_mps: 9 }],
+      { height_m: 10, speed_mps: 5, fromDeg: 240 },
+      { law: 'log', terrain: 'open', upTo_m: 150 },
+    );
+    expect(r.problems).toEqual([]);
+    expect(r.layers.map((l) => l.altitude_m)).toEqual([
+      10, 20, 30, 40, 50, 60, 70, 80, 90, 100, 110, 120, 130, 140, 150,
+    ]);
+  });
+
+  it('refuses a blend that would leave the schema’s speed range, naming the altitude', () => {
+    // Log law over a city centre (z0 2 m): 60 m/s at 3 m becomes ln(1000/2)/ln(3/2) ≈ 15× aloft.
+    const r = blendSurfaceReading(
+      [],
+      { height_m: 3, speed_mps: 60, fromDeg: 240 },
+      {
+        law: 'log',
+        terrain: 'chaotic',
+        upTo_m: 1000,
+      },
+    );
+    expect(r.added).toBe(false);
+    expect(r.layers).toEqual([]);
+    expect(r.problems[0]).toMatch(
+      /^the extended profile at [\d.]+ m AGL has speed_mps [\d.]+ is outside the plan's range .*; the surface profile was not added$/,
+    );
+  });
+
+  it('refuses when the forecast already fills the plan', () => {
+    const full = Array.from({ length: max }, (_, i) => ({
+      altitude_m: 100 + i,
+      fromDeg: 0,
+      speed_mps: 1,
+    }));
+    const r = blendSurfaceReading(full, reading, { law: 'power', terrain: 'open', upTo_m: 100 });
+    expect(r.added).toBe(false);
+    expect(r.layers).toEqual(full);
+  });
+
+  it('never gives the demo plan layers it rejects', () => {
+    // Property: any reading and forecast depth, the blend validates as the plan's winds.layers.
+    const top = schemaBounds('winds.layers[].altitude_m').max!;
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0.5, max: 100, noNaN: true }),
+        fc.double({ min: 0, max: 100, noNaN: true }),
+        fc.double({ min: 0, max: 360, noNaN: true }),
+        fc.uniqueArray(fc.integer({ min: 20, max: top }), { maxLength: max }),
+        fc.constantFrom(...(['sea', 'open', 'rough', 'chaotic'] as TerrainClass[])),
+        fc.constantFrom('log' as const, 'power' as const),
+        (h, v, d, alts, terrain, law) => {
+          const forecast = alts.map((z) => ({ altitude_m: z, fromDeg: 90, speed_mps: 10 }));
+          const lowest = alts.length ? Math.min(...alts) : 100;
+          const r = blendSurfaceReading(
+            forecast,
+            { height_m: h, speed_mps: v, fromDeg: d },
+            {
+              law,
+              terrain,
+              upTo_m: Math.max(lowest, h + 1),
+            },
+          );
+          const plan = structuredClone(demo) as unknown as PlanFile;
+          plan.winds = { reference: 'AGL', layers: r.layers };
+          const res = validatePlan(plan);
+          // Plan-level drift bounds aside (strong winds over a long fall are the user's call).
+          const issues = res.ok ? [] : res.errors.filter((e) => e.path.startsWith('winds'));
+          expect(issues.slice(0, 3)).toEqual([]);
+        },
+      ),
+      { numRuns: 200 },
+    );
   });
 });
