@@ -2,6 +2,7 @@ import { G0 } from './constants';
 import { FallTable } from './fall-table';
 import { distance_m } from './geodesy';
 import type { Plan, ResolvedVariant } from './plan';
+import schema from './plan.schema.json';
 import { soundingDensity } from './planner';
 import { planWindProfile } from './wind';
 
@@ -221,7 +222,11 @@ export function massIssues(raw: Json): LimitIssue[] {
   variants.forEach((v, i) => {
     if (!isRecord(v)) return;
     const { payloadMass_kg: m, referenceMass_kg: m0, descentRate_mps: w } = v;
-    if (!isNum(m) || !isNum(m0) || !(m > 0) || !(m0 > 0)) return;
+    // A mass outside its own range is reported by the schema already.
+    const range = schema.definitions.variant.properties.referenceMass_kg;
+    const inRange = (x: unknown): x is number =>
+      isNum(x) && x >= range.minimum && x <= range.maximum;
+    if (!inRange(m) || !inRange(m0)) return;
     const at = `variants[${i}].payloadMass_kg`;
     const ratio = m / m0;
     if (!(ratio >= MASS_RATIO_MIN && ratio <= MASS_RATIO_MAX)) {

@@ -286,6 +286,17 @@ describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () 
     expect(errorsOf(demoWith(path, bad))).toEqual([{ path, message: `${path} ${rest}` }]);
   });
 
+  // The inputs that crashed or printed NaN before these ranges: each is now one clear message.
+  it.each([
+    ['variants[0].descentRate_mps', 1e-320, 'must be between 0.05 and 30'],
+    ['carrier.groundSpeed_mps', 1e-320, 'must be 0 or between 0.5 and 100'],
+    ['variants[0].referenceMass_kg', 1e-320, 'must be between 0.001 and 100'],
+    ['variants[1].glideAngle_deg', 1e-320, 'must be between 1 and 90'],
+    ['requiredPHit', 0, 'must be between 0.01 and 1'],
+  ])('%s = %j is refused with the range', (path, bad, rest) => {
+    expect(errorsOf(demoWith(path, bad))).toEqual([{ path, message: `${path} ${rest}` }]);
+  });
+
   // contract: docs/plan-format.md (masses 0.001 to 100 kg)
   it('masses: 1 g and 100 kg are accepted, less or more is refused', () => {
     const masses = (m0: number, m: number) => {
