@@ -10,6 +10,7 @@ import type { Plan } from '../core/plan';
 import type { PlanResult } from '../core/planner';
 import { validatePlan } from '../core/validate';
 import { PlanStore } from './plan-store';
+import { DAMAGED_KEY } from './saved-state';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
 import './sf-map';
@@ -112,6 +113,20 @@ export class SeedfallApp extends LitElement {
       .caution strong {
         color: #7a4d00;
       }
+      .alert {
+        background: #fdecea;
+        border-bottom: 1px solid #f1b5ae;
+        padding: 6px 10px;
+        font-size: 13px;
+        display: flex;
+        gap: 8px;
+        align-items: center;
+        flex-wrap: wrap;
+      }
+      .alert p {
+        margin: 0;
+        flex: 1 1 30em;
+      }
       main {
         display: grid;
         grid-template-columns: minmax(0, 1fr) minmax(380px, 48%);
@@ -201,6 +216,8 @@ export class SeedfallApp extends LitElement {
 
   @property({ attribute: false }) store = new PlanStore(demo as Record<string, unknown>);
   @state() private tab: Tab = 'results';
+  /** CSV downloads start with a UTF-8 byte-order mark (spreadsheets then read accents right). */
+  @state() private csvBom = false;
 
   constructor() {
     super();
@@ -338,8 +355,8 @@ export class SeedfallApp extends LitElement {
         `${base}.kml`,
       ],
       gpx: [toGPX(plan, result), 'application/gpx+xml', `${base}.gpx`],
-      csv: [toScheduleCSV(plan, result), 'text/csv', `${base}-schedule.csv`],
-      sites: [toSitesCSV(plan), 'text/csv', `${base}-sites.csv`],
+      csv: [toScheduleCSV(plan, result, { bom: this.csvBom }), 'text/csv', `${base}-schedule.csv`],
+      sites: [toSitesCSV(plan, { bom: this.csvBom }), 'text/csv', `${base}-sites.csv`],
     };
     const [text, type, name] = out[kind];
     download(text, type, name);
@@ -437,6 +454,15 @@ export class SeedfallApp extends LitElement {
             <button @click=${() => this.exportAs('gpx')}>GPX</button>
             <button @click=${() => this.exportAs('csv')}>Schedule CSV</button>
             <button @click=${() => this.exportAs('sites')}>Sites CSV</button>
+            <label class="muted"
+              ><input
+                type="checkbox"
+                data-export="bom"
+                .checked=${this.csvBom}
+                @change=${(e: Event) => (this.csvBom = (e.target as HTMLInputElement).checked)}
+              />
+              CSV with byte-order mark (for spreadsheets)</label
+            >
           </div>
           ${s.result?.warnings.map((w) => html`<p class="notice-error">${w}</p>`)}
           ${
@@ -466,6 +492,63 @@ export class SeedfallApp extends LitElement {
       case 'settings':
         return this.renderSettings();
     }
+  }
+
+  /** Downloads a damaged saved draft exactly as it was stored. */
+  private downloadDamaged(): void {
+    const d = this.store.damaged;
+    if (!d) return;
+    const stamp = (d.at || new Date().toISOString()).replace(/[^\dT]/g, '').slice(0, 15);
+    download(d.text, 'text/plain', `seedfall-damaged-draft-${stamp}.txt`);
+  }
+
+  /** Standing alerts that must not scroll away: a damaged saved draft, autosave failures. */
+  private renderAlerts() {
+    const s = this.store;
+    const d = s.damaged;
+    const out = [];
+    if (d) {
+      const what = d.earlier
+        ? html`A saved draft that could not be read${d.at ? ` (found ${d.at})` : ''} is still kept
+          in browser storage under ${DAMAGED_KEY}.`
+        : html`Your saved draft could not be read: ${d.reason}. The app started on the demo plan
+          instead.
+          ${
+            d.stored
+              ? html`The damaged draft is kept unchanged in browser storage under ${DAMAGED_KEY}
+                until you delete it.`
+              : html`Browser storage cannot hold a copy of it, so autosave is paused and the damaged
+                draft stays where it was until you download or discard it.`
+          }`;
+      out.push(
+        html`<div class="alert" role="alert" data-testid="damaged-draft">
+          <p>${what}</p>
+          <button data-testid="download-damaged" @click=${this.downloadDamaged}>
+            Download damaged draft
+          </button>
+          ${
+            d.stored
+              ? html`<button data-testid="delete-damaged" @click=${() => s.deleteDamagedCopy()}>
+                    Delete kept copy
+                  </button>
+                  <button data-testid="dismiss-damaged" @click=${() => s.dismissDamaged()}>
+                    Dismiss
+                  </button>`
+              : html`<button data-testid="dismiss-damaged" @click=${() => s.dismissDamaged()}>
+                  Discard it and resume autosave
+                </button>`
+          }
+        </div>`,
+      );
+    }
+    if (s.saveError) {
+      out.push(
+        html`<div class="alert" role="alert" data-testid="save-error">
+          <p>${s.saveError}.</p>
+        </div>`,
+      );
+    }
+    return out;
   }
 
   private renderStatus() {
@@ -537,7 +620,10 @@ export class SeedfallApp extends LitElement {
           Demo plan
         </button>
       </header>
-      <div class="caution" role="note"><strong>Caution:</strong> ${CAUTION_TEXT}</div>
+      <div>
+        <div class="caution" role="note"><strong>Caution:</strong> ${CAUTION_TEXT}</div>
+        ${this.renderAlerts()}
+      </div>
       <main>
         <sf-map .store=${s}></sf-map>
         <aside>

@@ -37,6 +37,23 @@ const KIND_LABEL: Record<ShapeKind, string> = {
 
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
+/** Leaflet rings of a stored polygon's [lon, lat] coordinates, or null when they are not that. */
+function zoneRings(c: unknown): L.LatLngTuple[][] | null {
+  if (!Array.isArray(c) || c.length === 0) return null;
+  const rings: L.LatLngTuple[][] = [];
+  for (const ring of c) {
+    if (!Array.isArray(ring)) return null;
+    const pts: L.LatLngTuple[] = [];
+    for (const p of ring) {
+      const [lon, lat] = Array.isArray(p) ? [num(p[0]), num(p[1])] : [null, null];
+      if (lon === null || lat === null) return null;
+      pts.push([lat, lon]);
+    }
+    rings.push(pts);
+  }
+  return rings;
+}
+
 /**
  * The planning map: coordinate grid and scale (no tiles needed; a tile URL can be set), the
  * release point, carrier track and its handle, the sites (all draggable), and the results.
@@ -222,8 +239,9 @@ export class SfMap extends LitElement {
     const lat = num(s.get('release.lat'));
     const lon = num(s.get('release.lon'));
     if (lat !== null && lon !== null) pts.push([lat, lon]);
-    for (const site of (s.get('sites') as Site[] | undefined) ?? []) {
-      if (num(site.lat) !== null && num(site.lon) !== null) pts.push([site.lat, site.lon]);
+    for (const site of s.rows<Site>('sites')) {
+      const [la, lo] = [num(site.lat), num(site.lon)];
+      if (la !== null && lo !== null) pts.push([la, lo]);
     }
     if (pts.length === 0) {
       this.map.setView([0, 0], 2);
@@ -414,7 +432,7 @@ export class SfMap extends LitElement {
 
   private syncSites(): void {
     const s = this.store!;
-    const sites = (s.get('sites') as Site[] | undefined) ?? [];
+    const sites = s.rows<Site>('sites');
     const result = s.result;
     for (const [i, m] of this.siteMarkers) {
       if (i >= sites.length) {
@@ -471,7 +489,7 @@ export class SfMap extends LitElement {
   }
 
   private colour = (variantId: string): string => {
-    const variants = (this.store?.get('variants') as Variant[] | undefined) ?? [];
+    const variants = this.store?.rows<Variant>('variants') ?? [];
     const i = Math.max(
       0,
       variants.findIndex((v) => v.id === variantId),
@@ -504,17 +522,21 @@ export class SfMap extends LitElement {
       return;
     }
     if (!this.addMode || !this.store) return;
-    const sites = (this.store.get('sites') as Site[] | undefined) ?? [];
+    const sites = this.store.list('sites');
     this.store.edit('sites', [
       ...sites,
-      { id: nextSiteId(sites), lat: +e.latlng.lat.toFixed(7), lon: +e.latlng.lng.toFixed(7) },
+      {
+        id: nextSiteId(this.store.rows<Site>('sites')),
+        lat: +e.latlng.lat.toFixed(7),
+        lon: +e.latlng.lng.toFixed(7),
+      },
     ]);
   }
 
   /** No-drop zones (from the plan) and the hazard area (from the safety checks). */
   private syncSafety(): void {
     const s = this.store!;
-    const zones = JSON.stringify(s.get('safety.noDropZones') ?? []);
+    const zones = JSON.stringify(s.list('safety.noDropZones'));
     const key = `${zones}|${this.showHazard}`;
     if (s.safety === this.drawnSafety && key === this.drawnZones) {
       this.placeDrawing();
@@ -552,20 +574,20 @@ export class SfMap extends LitElement {
       }
     }
     for (const z of JSON.parse(zones) as {
-      properties?: { name?: string };
-      geometry: { coordinates: number[][][] };
+      properties?: { name?: unknown };
+      geometry?: { coordinates?: unknown };
     }[]) {
-      const tip = tipNode([`No-drop zone: ${z.properties?.name || 'unnamed'}`]);
-      L.polygon(
-        z.geometry.coordinates.map((ring) => ring.map(([lon, lat]) => [lat, lon] as L.LatLngTuple)),
-        {
-          color: '#1c2b27',
-          weight: 1.5,
-          fillColor: '#1c2b27',
-          fillOpacity: 0.18,
-          className: 'sf-nodrop',
-        },
-      )
+      // A zone of the wrong shape is not drawn; validation names it under the Safety tab.
+      const rings = zoneRings(z?.geometry?.coordinates);
+      if (!rings) continue;
+      const tip = tipNode([`No-drop zone: ${String(z.properties?.name ?? '') || 'unnamed'}`]);
+      L.polygon(rings, {
+        color: '#1c2b27',
+        weight: 1.5,
+        fillColor: '#1c2b27',
+        fillOpacity: 0.18,
+        className: 'sf-nodrop',
+      })
         .bindTooltip(tip, { sticky: true })
         .addTo(group);
     }
@@ -594,7 +616,7 @@ export class SfMap extends LitElement {
   private finishZone(): void {
     const s = this.store;
     if (s && this.drawPts.length >= 3) {
-      const zones = (s.get('safety.noDropZones') as unknown[] | undefined) ?? [];
+      const zones = s.list('safety.noDropZones');
       const ring = this.drawPts.map((p) => [+p.lng.toFixed(7), +p.lat.toFixed(7)]);
       ring.push([...ring[0]]);
       s.edit('safety.noDropZones', [
@@ -615,7 +637,7 @@ export class SfMap extends LitElement {
   }
 
   render() {
-    const variants = (this.store?.get('variants') as Variant[] | undefined) ?? [];
+    const variants = this.store?.rows<Variant>('variants') ?? [];
     return html`
       <div class="bar" role="toolbar" aria-label="Map layers">
         <button
@@ -690,20 +712,20 @@ export class SfMap extends LitElement {
                 type="checkbox"
                 data-variant=${String(v.id)}
                 ?disabled=${this.vis.chosenOnly}
-                .checked=${this.vis.variants[v.id] !== false}
+                .checked=${this.vis.variants[String(v.id)] !== false}
                 @change=${(e: Event) =>
                   (this.vis = {
                     ...this.vis,
                     variants: {
                       ...this.vis.variants,
-                      [v.id]: (e.target as HTMLInputElement).checked,
+                      [String(v.id)]: (e.target as HTMLInputElement).checked,
                     },
                   })}
               /><span
                 class="swatch"
                 style=${styleMap({ background: VARIANT_COLOURS[i % VARIANT_COLOURS.length] })}
               ></span
-              >${v.id}</label
+              >${String(v.id ?? '')}</label
             >`,
         )}
       </div>

@@ -95,7 +95,19 @@ export class SfResultsTable extends LitElement {
   render() {
     const s = this.store;
     const r = s?.result;
-    if (!s || !r) return html`<p class="muted">Planning…</p>`;
+    if (!s) return html``;
+    if (!r) {
+      // Say why there is no result yet instead of promising one that will not come.
+      if (s.workerError)
+        return html`<p class="bad" data-testid="no-result">
+          No result: planning failed — ${s.workerError}.
+        </p>`;
+      if (!s.plan)
+        return html`<p class="bad" data-testid="no-result">
+          No result: the plan has problems to fix first (listed above and beside the fields).
+        </p>`;
+      return html`<p class="muted">Planning…</p>`;
+    }
     const moving = r.track.groundSpeed_mps > 0;
     const rows = [...r.sites].sort((a, b) => {
       const x = sortValue(a, this.key);

@@ -9,6 +9,12 @@ import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
 import { numberField } from './sf-number-field';
 
+/** Corners of a stored zone's outer ring (0 when the zone has no ring to count). */
+function corners(z: Partial<NoDropZone>): number {
+  const ring = (z.geometry as { coordinates?: unknown } | undefined)?.coordinates;
+  return Array.isArray(ring) && Array.isArray(ring[0]) ? Math.max(0, ring[0].length - 1) : 0;
+}
+
 const STATE_LABEL: Record<string, string> = {
   pass: 'pass',
   fail: 'FAIL',
@@ -144,25 +150,36 @@ export class SfSafetyPanel extends LitElement {
     new StoreController(this, () => this.store);
   }
 
-  private checklist(): ChecklistItem[] {
+  /**
+   * The crew items as stored (entries of any kind, so an edit keeps the others as they were), or
+   * the plan's template when the plan has none.
+   */
+  private checklistRaw(): unknown[] {
     const s = this.store;
-    const own = s?.get('safety.checklist');
-    if (Array.isArray(own)) return own as ChecklistItem[];
+    if (Array.isArray(s?.get('safety.checklist'))) return s!.list('safety.checklist');
     return s?.plan ? checklistOf(s.plan) : DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m }));
   }
 
-  private setChecklist(items: ChecklistItem[]): void {
+  /** The crew items to show: an entry that is not an item shows as an empty one. */
+  private checklist(): Partial<ChecklistItem>[] {
+    return this.checklistRaw().map((m) =>
+      m !== null && typeof m === 'object' && !Array.isArray(m) ? (m as Partial<ChecklistItem>) : {},
+    );
+  }
+
+  private setChecklist(items: unknown[]): void {
     this.store?.edit('safety.checklist', items);
   }
 
   private setItem(i: number, patch: Partial<ChecklistItem>): void {
-    const items = this.checklist().map((m, j) => (j === i ? { ...m, ...patch } : m));
+    const view = this.checklist();
+    const items = this.checklistRaw().map((m, j) => (j === i ? { ...view[j], ...patch } : m));
     this.setChecklist(items);
   }
 
   private setState(i: number, state: ChecklistItem['state']): void {
-    const cur = this.checklist()[i];
-    const who = cur.who || this.signer || undefined;
+    const cur = this.checklist()[i] ?? {};
+    const who = (typeof cur.who === 'string' && cur.who) || this.signer || undefined;
     this.setItem(i, {
       state,
       who,
@@ -174,7 +191,10 @@ export class SfSafetyPanel extends LitElement {
     const items = this.checklist();
     let n = items.length + 1;
     while (items.some((m) => m.id === `item-${n}`)) n++;
-    this.setChecklist([...items, { id: `item-${n}`, text: 'New item', state: 'open' }]);
+    this.setChecklist([
+      ...this.checklistRaw(),
+      { id: `item-${n}`, text: 'New item', state: 'open' },
+    ]);
   }
 
   private signOff(): void {
@@ -278,7 +298,7 @@ export class SfSafetyPanel extends LitElement {
 
   private renderZones() {
     const s = this.store!;
-    const zones = (s.get('safety.noDropZones') as NoDropZone[] | undefined) ?? [];
+    const zones = s.rows<NoDropZone>('safety.noDropZones');
     return html`<h3>No-drop zones (${zones.length})</h3>
       <p class="muted">
         Roads, buildings, water, gatherings: nothing may land within the buffer of these. Draw them
@@ -289,16 +309,16 @@ export class SfSafetyPanel extends LitElement {
           html`<div class="row" data-zone=${i}>
             <input
               aria-label=${`No-drop zone ${i + 1} name`}
-              .value=${z.properties?.name ?? ''}
+              .value=${String(z.properties?.name ?? '')}
               @change=${(e: Event) => s.edit(`safety.noDropZones[${i}].properties`, { name: (e.target as HTMLInputElement).value })}
             />
-            <span class="muted">${z.geometry.coordinates[0].length - 1} corners</span>
+            <span class="muted">${corners(z)} corners</span>
             <button
               aria-label=${`Delete no-drop zone ${i + 1}`}
               @click=${() =>
                 s.edit(
                   'safety.noDropZones',
-                  zones.filter((_, j) => j !== i),
+                  s.list('safety.noDropZones').filter((_, j) => j !== i),
                 )}
             >
               ✕
@@ -331,25 +351,29 @@ export class SfSafetyPanel extends LitElement {
       s.setNotice('error', `${file.name}: not JSON; no zones added.`);
       return;
     }
+    const obj = (v: unknown): Record<string, unknown> =>
+      v !== null && typeof v === 'object' && !Array.isArray(v)
+        ? (v as Record<string, unknown>)
+        : {};
+    const top = obj(data);
     const feats: unknown[] =
-      (data as { type?: string }).type === 'FeatureCollection'
-        ? ((data as { features?: unknown[] }).features ?? [])
-        : [data];
+      top.type === 'FeatureCollection' ? (Array.isArray(top.features) ? top.features : []) : [data];
     const zones: NoDropZone[] = [];
     const skipped: string[] = [];
     feats.forEach((f, i) => {
-      const g =
-        (f as { geometry?: { type?: string; coordinates?: number[][][] | number[][][][] } })
-          .geometry ?? (f as never);
-      const name =
-        (f as { properties?: { name?: string } }).properties?.name ?? `${file.name} ${i + 1}`;
+      const g = (obj(f).geometry ?? obj(f)) as {
+        type?: unknown;
+        coordinates?: number[][][] | number[][][][];
+      };
+      const pname = obj(obj(f).properties).name;
+      const name = typeof pname === 'string' ? pname : `${file.name} ${i + 1}`;
       if (g?.type === 'Polygon')
         zones.push({
           type: 'Feature',
           properties: { name },
           geometry: { type: 'Polygon', coordinates: g.coordinates as number[][][] },
         });
-      else if (g?.type === 'MultiPolygon') {
+      else if (g?.type === 'MultiPolygon' && Array.isArray(g.coordinates)) {
         (g.coordinates as number[][][][]).forEach((c, k) =>
           zones.push({
             type: 'Feature',
@@ -357,9 +381,10 @@ export class SfSafetyPanel extends LitElement {
             geometry: { type: 'Polygon', coordinates: c },
           }),
         );
-      } else skipped.push(`features[${i}] (${g?.type ?? 'no geometry'})`);
+      } else
+        skipped.push(`features[${i}] (${typeof g?.type === 'string' ? g.type : 'no geometry'})`);
     });
-    const cur = (s.get('safety.noDropZones') as NoDropZone[] | undefined) ?? [];
+    const cur = s.list('safety.noDropZones');
     s.edit('safety.noDropZones', [...cur, ...zones]);
     s.setNotice(
       skipped.length ? 'error' : 'info',
@@ -387,7 +412,7 @@ export class SfSafetyPanel extends LitElement {
       <h3>Crew checklist</h3>
       ${items.map(
         (m, i) =>
-          html`<div class="item" data-item=${m.id}>
+          html`<div class="item" data-item=${String(m.id ?? '')}>
             <select
               aria-label=${`State of: ${m.text}`}
               @change=${(e: Event) => this.setState(i, (e.target as HTMLSelectElement).value as ChecklistItem['state'])}
@@ -397,27 +422,27 @@ export class SfSafetyPanel extends LitElement {
             <input
               class="text"
               aria-label=${`Checklist item ${i + 1}`}
-              .value=${m.text}
-              @change=${(e: Event) => this.setItem(i, { text: (e.target as HTMLInputElement).value || m.text })}
+              .value=${String(m.text ?? '')}
+              @change=${(e: Event) => this.setItem(i, { text: (e.target as HTMLInputElement).value || String(m.text ?? '') })}
             />
             <div class="meta">
               <input
                 aria-label=${`Who, item ${i + 1}`}
                 placeholder="who"
-                .value=${m.who ?? ''}
+                .value=${String(m.who ?? '')}
                 @change=${(e: Event) => this.setItem(i, { who: (e.target as HTMLInputElement).value || undefined })}
               />
-              <span class="muted">${m.when ?? ''}</span>
+              <span class="muted">${String(m.when ?? '')}</span>
               <input
                 aria-label=${`Note, item ${i + 1}`}
                 placeholder="note"
-                .value=${m.note ?? ''}
+                .value=${String(m.note ?? '')}
                 @change=${(e: Event) => this.setItem(i, { note: (e.target as HTMLInputElement).value || undefined })}
               />
               <button
                 aria-label=${`Delete item ${i + 1}`}
                 title="Delete this item"
-                @click=${() => this.setChecklist(items.filter((_, j) => j !== i))}
+                @click=${() => this.setChecklist(this.checklistRaw().filter((_, j) => j !== i))}
               >
                 ✕
               </button>

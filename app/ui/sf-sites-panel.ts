@@ -69,11 +69,12 @@ export class SfSitesPanel extends LitElement {
     const s = this.store;
     if (!s) return;
     const sites = this.sites();
+    const ids = s.rows<Site>('sites');
     const lat = Number(s.get('release.lat')) || 0;
     const lon = Number(s.get('release.lon')) || 0;
     // A new site starts 100 m east of the release point; drag it or type its position.
     const dLon = 100 / (111320 * Math.cos((lat * Math.PI) / 180) || 1);
-    s.edit('sites', [...sites, { id: nextSiteId(sites), lat, lon: +(lon + dLon).toFixed(6) }]);
+    s.edit('sites', [...sites, { id: nextSiteId(ids), lat, lon: +(lon + dLon).toFixed(6) }]);
   }
 
   /** Adds the sites of a CSV, GeoJSON or KML file; bad rows are listed, good ones kept. */
@@ -107,8 +108,9 @@ export class SfSitesPanel extends LitElement {
   render() {
     const s = this.store;
     if (!s) return html``;
-    const sites = this.sites();
-    const variants = (s.get('variants') as Variant[] | undefined) ?? [];
+    // rows(): an entry that is not an object shows as an empty row, never breaks the table.
+    const sites = s.rows<Site>('sites');
+    const variants = s.rows<Variant>('variants');
     const u = s.settings.units;
     const text = (i: number, key: 'id' | 'name', cls: string) => {
       const path = `sites[${i}].${key}`;
@@ -182,7 +184,7 @@ export class SfSitesPanel extends LitElement {
                     }}
                   >
                     <option value="" ?selected=${site.variant === undefined}>recommended</option>
-                    ${variants.map((v) => html`<option value=${v.id} ?selected=${site.variant === v.id}>${v.id}</option>`)}
+                    ${variants.map((v) => html`<option value=${String(v.id)} ?selected=${site.variant === v.id}>${String(v.id)}</option>`)}
                   </select>
                   ${pinMsg ? html`<div class="field-error" role="alert">${pinMsg}</div>` : ''}
                 </td>

@@ -58,8 +58,9 @@ export class SfVariantsPanel extends LitElement {
 
   private add(): void {
     const v = this.variants();
+    const ids = this.store?.rows<Variant>('variants').map((x) => x.id) ?? [];
     let n = v.length + 1;
-    while (v.some((x) => x.id === `variant-${n}`)) n++;
+    while (ids.includes(`variant-${n}`)) n++;
     this.store?.edit('variants', [
       ...v,
       { id: `variant-${n}`, guidance: 'passive', descentRate_mps: 3, maxWind_mps: 10 },
@@ -84,7 +85,8 @@ export class SfVariantsPanel extends LitElement {
   render() {
     const s = this.store;
     if (!s) return html``;
-    const list = this.variants();
+    // Read through rows(): an entry that is not an object shows as an empty card.
+    const list = s.rows<Variant>('variants');
     const n = (
       i: number,
       key: string,

@@ -40,12 +40,12 @@ export class SfWindPanel extends LitElement {
 
   private add(): void {
     const l = this.layers();
-    const last = l[l.length - 1];
+    const last = this.store?.rows<WindLayer>('winds.layers')[l.length - 1];
     const next: WindLayer = last
       ? {
           altitude_m: (Number(last.altitude_m) || 0) + 100,
-          fromDeg: last.fromDeg,
-          speed_mps: last.speed_mps,
+          fromDeg: Number(last.fromDeg) || 0,
+          speed_mps: Number(last.speed_mps) || 0,
         }
       : { altitude_m: 10, fromDeg: 270, speed_mps: 3 };
     this.store?.edit('winds.layers', [...l, next]);

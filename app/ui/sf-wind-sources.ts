@@ -76,6 +76,8 @@ export class SfWindSources extends LitElement {
   @state() private sweepVariant = '';
   @state() private sweep: { key: string; points: SweepPoint[] } | null = null;
   @state() private sweeping = false;
+  /** Why the last sweep or timeline could not run (shown beside its button). */
+  @state() private sweepError = '';
   @state() private timeline: TimelineEntry[] | null = null;
   @state() private forecastTime = '';
   private sweepWorker?: Worker;
@@ -94,8 +96,8 @@ export class SfWindSources extends LitElement {
     what: string,
   ): void {
     const s = this.store!;
-    const winds = (s.get('winds') as Record<string, unknown>) ?? {};
-    const atmosphere = (s.get('atmosphere') as Record<string, unknown>) ?? {};
+    const winds = s.obj('winds');
+    const atmosphere = s.obj('atmosphere');
     const next = structuredClone(s.draft);
     next.winds = { ...winds, reference, layers };
     if (temperatures.length) {
@@ -165,7 +167,7 @@ export class SfWindSources extends LitElement {
       this.problems = bad;
       return;
     }
-    const layers = ((s.get('winds.layers') as WindLayer[] | undefined) ?? []).slice();
+    const layers = s.list<WindLayer>('winds.layers').slice();
     const ref = String(s.get('winds.reference') ?? 'AGL');
     const ground = Number(s.get('groundElevation_m')) || 0;
     // The surface profile is above ground; compare in the plan's reference.
@@ -233,17 +235,35 @@ export class SfWindSources extends LitElement {
 
   /** Sends one request to the sweep worker; only the latest request's answer is kept. */
   private ask(req: SweepRequest, done: (reply: SweepReply) => void): void {
-    this.sweepWorker ??= new Worker(new URL('../worker/sweep-worker.ts', import.meta.url), {
-      type: 'module',
-    });
+    // A worker that cannot start or stops says so, and the next request starts a new one.
+    const failed = (why: string): void => {
+      this.sweepWorker?.terminate();
+      this.sweepWorker = undefined;
+      this.sweeping = false;
+      this.sweepError = `The computation could not run: ${why}. Try again, or reload the page.`;
+    };
+    try {
+      this.sweepWorker ??= new Worker(new URL('../worker/sweep-worker.ts', import.meta.url), {
+        type: 'module',
+      });
+    } catch (e) {
+      failed(`its worker could not start (${e instanceof Error ? e.message : String(e)})`);
+      return;
+    }
     const id = ++this.sweepId;
     this.sweeping = true;
+    this.sweepError = '';
     this.sweepWorker.onmessage = (ev: MessageEvent<SweepReply>) => {
       if (ev.data.id !== this.sweepId) return;
       this.sweeping = false;
       if ('error' in ev.data) this.problems = [ev.data.error];
       else done(ev.data);
     };
+    this.sweepWorker.onerror = (ev: ErrorEvent) => {
+      ev.preventDefault();
+      failed(ev.message || 'its worker could not start (its script did not load)');
+    };
+    this.sweepWorker.onmessageerror = () => failed('its answer could not be read');
     this.sweepWorker.postMessage({ ...req, id });
   }
 
@@ -266,15 +286,15 @@ export class SfWindSources extends LitElement {
       ];
       return;
     }
-    const layers = structuredClone((s.get('winds.layers') as WindLayer[] | undefined) ?? []);
-    const list = (
-      (s.get('winds.forecasts') as { time: string; layers: WindLayer[] }[] | undefined) ?? []
-    ).filter((f) => f.time !== time);
+    const layers = structuredClone(s.list<WindLayer>('winds.layers'));
+    const list = s
+      .rows<{ time: string; layers: WindLayer[] }>('winds.forecasts')
+      .filter((f) => f.time !== time);
     this.problems = [];
     s.edit(
       'winds.forecasts',
       [...list, { time, reference: String(s.get('winds.reference') ?? 'AGL'), layers }].sort(
-        (a, b) => Date.parse(a.time) - Date.parse(b.time),
+        (a, b) => Date.parse(String(a.time)) - Date.parse(String(b.time)),
       ),
     );
   }
@@ -313,6 +333,7 @@ export class SfWindSources extends LitElement {
         <button ?disabled=${this.sweeping} @click=${this.runSweep}>
           ${this.sweeping ? 'Computing…' : 'Compute'}
         </button>
+        ${this.sweepError ? html`<span class="field-error" role="alert" data-testid="sweep-error">${this.sweepError}</span>` : ''}
       </div>
       ${
         this.sweep
@@ -345,18 +366,16 @@ export class SfWindSources extends LitElement {
           site, the clock times at which a release meets the required P(hit).
         </p>
         <ul>
-          ${(
-            (s.get('winds.forecasts') as { time: string; layers: unknown[] }[] | undefined) ?? []
-          ).map(
+          ${s.rows<{ time: string; layers: unknown[] }>('winds.forecasts').map(
             (f, i) =>
               html`<li data-forecast=${i}>
-                ${f.time} · ${f.layers.length} layer(s)
+                ${String(f.time ?? '')} · ${Array.isArray(f.layers) ? f.layers.length : 0} layer(s)
                 <button
                   aria-label=${`Delete forecast ${f.time}`}
                   @click=${() =>
                     s.edit(
                       'winds.forecasts',
-                      ((s.get('winds.forecasts') as unknown[]) ?? []).filter((_, j) => j !== i),
+                      s.list('winds.forecasts').filter((_, j) => j !== i),
                     )}
                 >
                   ✕
@@ -376,6 +395,7 @@ export class SfWindSources extends LitElement {
           /></label>
           <button @click=${this.addForecast}>Store current layers as forecast</button>
           <button ?disabled=${this.sweeping} @click=${this.runTimeline}>Timeline</button>
+          ${this.sweepError ? html`<span class="field-error" role="alert">${this.sweepError}</span>` : ''}
         </div>
         ${
           this.timeline && s.plan
