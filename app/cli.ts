@@ -2,7 +2,7 @@
  * Headless Seedfall: plan file in, results out.
  *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
  *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
- *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>]
+ *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
  * Exit codes: 0 done, 1 usage or file error, 2 invalid plan, 3 internal error (one line, no trace).
  *
  * Everything is written through the `CliIO` given to `runCli` and the exit code is returned, never
@@ -52,6 +52,8 @@ interface Args {
   paper: 'A4' | 'Letter';
   /** SITE or SITE:VARIANT for the brief's P(hit)-against-altitude plot. */
   sweep?: string;
+  /** CSV export starts with a UTF-8 byte-order mark (for spreadsheets). */
+  bom?: boolean;
 }
 
 /** Where the CLI writes: the process's stdout/stderr, or a test's buffers. */
@@ -73,13 +75,13 @@ const USAGE = `usage:
   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
                              [--sweep SITE[:VARIANT]]
-  npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>]
+  npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
 `;
 
 const OPTIONS: Record<Command, string[]> = {
   plan: ['--format', '--samples', '--seed'],
   brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep'],
-  export: ['--format', '--out', '--samples', '--seed'],
+  export: ['--format', '--out', '--samples', '--seed', '--bom'],
 };
 
 const FORMATS: Record<Command, Format[]> = {
@@ -160,6 +162,8 @@ function parseArgs(argv: string[], io: CliIO): Args {
       else args.seed = n;
     } else if (a === '--sweep') {
       args.sweep = value();
+    } else if (a === '--bom') {
+      args.bom = true;
     } else if (a === '--out') {
       args.out = value();
     } else if (a === '--pdf') {
@@ -176,6 +180,7 @@ function parseArgs(argv: string[], io: CliIO): Args {
     }
   }
   if (!args.file) fail(`no plan file given\n${USAGE}`, 1);
+  if (args.bom && args.format !== 'csv') fail('--bom applies to --format csv only', 1);
   if (command === 'brief' && !args.out && !args.pdf)
     fail('brief needs --out <file.html> and/or --pdf <file.pdf>', 1);
   return args;
@@ -458,15 +463,16 @@ async function main(argv: string[], io: CliIO): Promise<void> {
   }
 
   if (args.command === 'export') {
-    const safety = planSafety(plan, result);
+    // Only GeoJSON and KML carry the hazard area, so only they run the safety analysis.
+    const hazard = () => ({ hazardArea: planSafety(plan, result).hazardArea });
     const text =
       args.format === 'geojson'
-        ? `${JSON.stringify(toGeoJSON(plan, result, { hazardArea: safety.hazardArea }), null, 1)}\n`
+        ? `${JSON.stringify(toGeoJSON(plan, result, hazard()), null, 1)}\n`
         : args.format === 'kml'
-          ? toKML(plan, result, { hazardArea: safety.hazardArea })
+          ? toKML(plan, result, hazard())
           : args.format === 'gpx'
             ? toGPX(plan, result)
-            : toScheduleCSV(plan, result);
+            : toScheduleCSV(plan, result, { bom: args.bom });
     if (args.out) write(args.out, text);
     else io.out(text);
     return;

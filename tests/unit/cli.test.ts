@@ -1,8 +1,9 @@
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { MAX_LISTED_PROBLEMS, runCli as runInProcess } from '../../app/cli';
 import { CAUTION_TEXT } from '../../app/core/caution';
 import demo from '../../data/demo-plan.json';
 
@@ -162,5 +163,115 @@ describe('CLI errors', () => {
     expect(run.status).not.toBe(0);
     expect(run.stderr).toMatch(/not valid JSON/);
     expect(run.stderr).not.toMatch(STACK_LINE);
+  }, 60_000);
+});
+
+/** The CLI's own entry in this process: exit code and what it wrote. */
+async function inProcess(...args: string[]): Promise<Run> {
+  const run: Run = { status: -1, stdout: '', stderr: '' };
+  run.status = await runInProcess(args, {
+    out: (t) => void (run.stdout += t),
+    err: (t) => void (run.stderr += t),
+  });
+  return run;
+}
+
+describe('CLI file reading', () => {
+  const oneLine = (run: Run) => {
+    expect(run.stderr.trim().split('\n')).toHaveLength(1);
+    expect(run.stderr).not.toMatch(STACK_LINE);
+  };
+
+  it('reads a plan after a UTF-8 byte-order mark, as the site importers do', async () => {
+    // Unicode 15 §23.8: U+FEFF at the start of UTF-8 text is a signature, not content.
+    const run = await inProcess(
+      writePlan('bom.json', `\uFEFF${JSON.stringify(demo)}`),
+      '--samples',
+      '50',
+    );
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+  });
+
+  it('stops reading an endless device at the 32 MiB bound with a one-line file error', async () => {
+    // common practice (bounded reads)
+    const run = await inProcess('/dev/zero');
+    expect(run.status).toBe(1);
+    expect(run.stderr).toMatch(/larger than 32 MiB/);
+    oneLine(run);
+  });
+
+  it('refuses a directory, UTF-16 text and bytes that are not UTF-8 as file errors', async () => {
+    // RFC 3629 §3 (0xE9 alone is not UTF-8); Unicode 15 §23.8 (FF FE starts UTF-16LE)
+    const dirRun = await inProcess(dir);
+    expect(dirRun.status).toBe(1);
+    expect(dirRun.stderr).toMatch(/is a directory/);
+    const utf16 = join(dir, 'utf16.json');
+    writeFileSync(utf16, Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from('{}', 'utf16le')]));
+    const u = await inProcess(utf16);
+    expect(u.status).toBe(1);
+    expect(u.stderr).toMatch(/UTF-16/);
+    const latin1 = join(dir, 'latin1.json');
+    writeFileSync(latin1, Buffer.from([0x7b, 0x0a, 0x22, 0xe9, 0x22, 0x7d]));
+    const l = await inProcess(latin1);
+    expect(l.status).toBe(1);
+    expect(l.stderr).toMatch(/not UTF-8 text \(line 2, byte 4\)/);
+    for (const run of [dirRun, u, l]) oneLine(run);
+  });
+
+  it('names the line and column of a JSON syntax error', async () => {
+    // RFC 8259 §4: a value must follow the name separator; the "}" at line 3, column 8 is the error.
+    const run = await inProcess(writePlan('syntax.json', '{\n  "a": 1,\n  "b": }\n'));
+    expect(run.status).toBe(2);
+    expect(run.stderr).toMatch(/expected a value, found '}' at line 3, column 8/);
+    const empty = await inProcess(writePlan('empty.json', ''));
+    expect(empty.status).toBe(2);
+    expect(empty.stderr).toMatch(/is empty/);
+  });
+
+  it('shows control characters and bidi overrides from the file as escapes, not raw', async () => {
+    // Unicode TR #36 §2.1 (bidirectional spoofing); ECMA-48 (ESC starts a control sequence)
+    const bad = { ...structuredClone(demo), ['\u001b[2J\u202Ex']: 1 };
+    const run = await inProcess(writePlan('controls.json', bad));
+    expect(run.status).toBe(2);
+    expect(run.stderr.includes('\u001b') || run.stderr.includes('\u202e')).toBe(false);
+    expect(run.stderr).toContain('\\u{202E}');
+  });
+
+  it('reports an unexpected error in one line with exit 3 and no stack trace', async () => {
+    // common practice: the documented exit code for internal errors
+    const lines: string[] = [];
+    const code = await runInProcess(['data/demo-plan.json', '--samples', '20'], {
+      out: () => {
+        throw new TypeError('stdout went away');
+      },
+      err: (t) => void lines.push(t),
+    });
+    expect(code).toBe(3);
+    expect(lines.join('')).toBe('seedfall: internal error: TypeError: stdout went away\n');
+  });
+
+  it('lists the first problems of a 10,000-problem plan completely when stderr is a pipe', () => {
+    // common practice: output to a pipe is flushed before exit (no process.exit() mid-write)
+    const bad = structuredClone(demo) as Record<string, unknown>;
+    bad.sites = Array.from({ length: 2500 }, (_, i) => ({
+      id: `x${i}`,
+      lat: 123,
+      lon: 456,
+      tolerance_m: -1,
+      elevation_m: 1e9,
+    }));
+    const r = spawnSync(TSX, ['app/cli.ts', writePlan('many.json', bad)], {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'pipe'],
+      timeout: 60_000,
+    });
+    expect(r.status).toBe(2);
+    const lines = r.stderr.split('\n');
+    expect(lines.pop()).toBe(''); // ends with a newline: the last line is whole
+    const total = Number(/\((\d+) problems\)/.exec(lines[0])?.[1]);
+    expect(total).toBeGreaterThanOrEqual(10000);
+    expect(lines.filter((l) => l.startsWith('  - '))).toHaveLength(MAX_LISTED_PROBLEMS);
+    expect(lines.at(-1)).toBe(`  … and ${total - MAX_LISTED_PROBLEMS} more problems`);
   }, 60_000);
 });
