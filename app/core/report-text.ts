@@ -50,12 +50,15 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
     ],
   ];
   for (const s of r.sites) {
+    // An edge at the search limit is marked: the window or zone reaches at least that far.
+    const w = s.releaseWindow;
+    const z = s.releaseZone;
     const win = moving
-      ? s.releaseWindow
-        ? `${fix(s.releaseWindow.open_s)}..${fix(s.releaseWindow.close_s)}`
+      ? w
+        ? `${w.openUnbounded ? '<' : ''}${fix(w.open_s)}..${w.closeUnbounded ? '>' : ''}${fix(w.close_s)}`
         : 'none'
-      : s.releaseZone
-        ? `r ${fix(s.releaseZone.radius_m, 0)}`
+      : z
+        ? `r ${z.unbounded ? '>' : ''}${fix(z.radius_m, 0)}`
         : 'none';
     rows.push([
       s.id,
@@ -73,6 +76,12 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
     ]);
   }
   const foot = ['', '! = below the required P(hit)'];
+  const limitHit = r.sites.some(
+    (s) =>
+      s.releaseWindow?.openUnbounded || s.releaseWindow?.closeUnbounded || s.releaseZone?.unbounded,
+  );
+  if (limitHit)
+    foot.push('< > = the search stopped at its limit; the window or zone reaches farther');
   for (const w of r.warnings) foot.push(`Warning: ${w}`);
   foot.push('', `CAUTION: ${CAUTION_TEXT}`, '');
   return [...head, table(rows), ...foot].join('\n');

@@ -4,8 +4,10 @@ import { FallTable } from '../../app/core/fall-table';
 import { FRAME_LIMIT_M, variantExtent } from '../../app/core/plan-limits';
 import { planDrop, type PlanResult } from '../../app/core/planner';
 import { hitProfile, runAround, searchEdge } from '../../app/core/release-window';
+import { formatPlanText } from '../../app/core/report-text';
 import { validatePlan } from '../../app/core/validate';
 import { WindProfile } from '../../app/core/wind';
+import demo from '../../data/demo-plan.json';
 import { NOW, geodesicDistance_m } from './helpers';
 
 // `+ 0` turns -0 into 0, which is what JSON gives back.
@@ -214,5 +216,22 @@ describe('core guards against non-finite or oversized input', () => {
     expect(() => new FallTable({ ...base, descentRateSL_mps: 1e-320 * 0 })).toThrow(RangeError);
     expect(() => new FallTable({ ...base, descentRateSL_mps: Infinity })).toThrow(RangeError);
     expect(new FallTable(base).fallTime_s).toBeGreaterThan(0);
+  });
+});
+
+describe('unbounded edges in the text report', () => {
+  it('an edge at the search limit is marked and explained; a found edge is not', () => {
+    const v = validatePlan({ ...demo, monteCarlo: { samples: 50, seed: 1 } }, { now: NOW });
+    if (!v.ok) throw new Error('demo plan invalid');
+    const r = planDrop(v.plan, { probeSamples: 16 });
+    const site = r.sites.find((s) => s.releaseWindow)!;
+    expect(formatPlanText(v.plan, r)).not.toContain('search stopped at its limit');
+    site.releaseWindow = { ...site.releaseWindow!, closeUnbounded: true };
+    const text = formatPlanText(v.plan, r);
+    const row = text.split('\n').find((l) => l.startsWith(`${site.id} `))!;
+    expect(row).toContain(`..>${site.releaseWindow.close_s.toFixed(1)}`);
+    expect(text).toContain(
+      '< > = the search stopped at its limit; the window or zone reaches farther',
+    );
   });
 });
