@@ -1050,7 +1050,7 @@ function sitesCases(): HostileCase[] {
       '<?xml version="1.0"?><kml:kml xmlns:kml="http://www.opengis.net/kml/2.2"><kml:Document><kml:Placemark><kml:name>p1</kml:name><kml:Point><kml:coordinates>21.08,47.49</kml:coordinates></kml:Point></kml:Placemark><kml:Placemark><kml:name>p2</kml:name><kml:Point><kml:coordinates>21.081,47.491</kml:coordinates></kml:Point></kml:Placemark></kml:Document></kml:kml>',
       2,
       'KML written with a kml: namespace prefix',
-      'Namespaces in XML 1.0 §6',
+      'Namespaces in XML 1.0 // from memory',
     ),
     k(
       'kml-payload-name',
@@ -1097,7 +1097,7 @@ function sitesCases(): HostileCase[] {
       ),
       4,
       'letters, latitude 95, empty coordinates and no geometry',
-      'OGC KML 2.2 §16.9.1',
+      'OGC KML 2.2 (07-147r2) kml:coordinates // from memory',
     ),
   ];
 }
