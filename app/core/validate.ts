@@ -66,7 +66,8 @@ function rangeText(s: SchemaNode): string {
 function numberText(s: SchemaNode, fallbackType: string): string {
   const noun = (s.type ?? fallbackType) === 'integer' ? 'an integer' : 'a number';
   const range = rangeText(s);
-  return range ? `${noun} ${range}` : noun;
+  // "a number, 0 or between 0.5 and 100" reads better than running the value on from the noun.
+  return range ? `${noun}${/^-?\d/.test(range) ? ',' : ''} ${range}` : noun;
 }
 
 function editDistance(a: string, b: string): number {

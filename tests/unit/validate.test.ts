@@ -5,7 +5,7 @@ import { DEFAULT_SURFACE_EXPONENT } from '../../app/core/constants';
 import type { PlanFile } from '../../app/core/plan';
 import { DEFAULTS, resolvePlan } from '../../app/core/plan-defaults';
 import schema from '../../app/core/plan.schema.json';
-import { validatePlan, type PlanIssue } from '../../app/core/validate';
+import { allowedRange, validatePlan, type PlanIssue } from '../../app/core/validate';
 import { destination } from '../../app/core/geodesy';
 import { naiveFlight } from '../../app/core/naive-integrator';
 import { WindProfile } from '../../app/core/wind';
@@ -295,6 +295,14 @@ describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () 
     ['requiredPHit', 0, 'must be between 0.01 and 1'],
   ])('%s = %j is refused with the range', (path, bad, rest) => {
     expect(errorsOf(demoWith(path, bad))).toEqual([{ path, message: `${path} ${rest}` }]);
+  });
+
+  it('a carrier speed given as text names the range with its gap; form hints say the same', () => {
+    expect(messagesOf(demoWith('carrier.groundSpeed_mps', '3'))).toEqual([
+      'carrier.groundSpeed_mps must be a number, 0 or between 0.5 and 100',
+    ]);
+    expect(allowedRange('carrier.groundSpeed_mps')).toBe('a number, 0 or between 0.5 and 100');
+    expect(allowedRange('variants[0].descentRate_mps')).toBe('a number between 0.05 and 30');
   });
 
   // contract: docs/plan-format.md (masses 0.001 to 100 kg)
