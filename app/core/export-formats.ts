@@ -48,7 +48,12 @@ export interface GeoJSONOptions {
     | { type: 'Feature'; geometry: PolygonInput; properties?: Record<string, unknown> | null };
 }
 
-export interface ScheduleOptions {
+export interface CsvOptions {
+  /** Start with a UTF-8 byte-order mark, so spreadsheets read accented names as UTF-8. */
+  bom?: boolean;
+}
+
+export interface ScheduleOptions extends CsvOptions {
   /** Coordinate columns to write; all three forms when absent. */
   coords?: 'decimal' | 'utm' | 'mgrs';
 }
@@ -519,9 +524,29 @@ export function toGPX(plan: Plan, result: PlanResult): string {
 
 const CSV_CONFIG = { newline: '\r\n', quotes: false } as const;
 
-/** RFC 4180 text: papaparse quotes fields holding a comma, quote, CR or LF and doubles quotes; every record ends CRLF. */
-function csv(fields: string[], rows: unknown[][]): string {
-  return Papa.unparse({ fields, data: rows }, CSV_CONFIG) + '\r\n';
+/** The UTF-8 byte-order mark (U+FEFF) that `bom: true` puts first. */
+export const UTF8_BOM = '\uFEFF';
+
+// OWASP "CSV Injection": a cell starting with =, +, -, @, tab or carriage return is read as a
+// formula by spreadsheets; OWASP ASVS 5.0 V1.2.10 adds NUL.
+const FORMULA_START = /^[=+\-@\t\r\0]/;
+
+/**
+ * A text cell made inert for spreadsheets: a single quote put before text that starts with
+ * = + - @, tab, carriage return or NUL (OWASP CSV Injection). Other text is unchanged.
+ */
+export function neutraliseCell(text: string): string {
+  return FORMULA_START.test(text) ? `'${text}` : text;
+}
+
+/**
+ * RFC 4180 text: papaparse quotes fields holding a comma, quote, CR or LF and doubles quotes;
+ * every record ends CRLF. Text cells (ids, names) are neutralised; numbers the exporter writes
+ * itself (a longitude of -12.5) are numbers, not text, and stay as they are.
+ */
+function csv(fields: string[], rows: unknown[][], opts: CsvOptions = {}): string {
+  const data = rows.map((row) => row.map((c) => (typeof c === 'string' ? neutraliseCell(c) : c)));
+  return (opts.bom ? UTF8_BOM : '') + Papa.unparse({ fields, data }, CSV_CONFIG) + '\r\n';
 }
 
 const blank = (x: number | null | undefined, d: number): number | string =>
@@ -597,11 +622,11 @@ export function toScheduleCSV(plan: Plan, result: PlanResult, opts: ScheduleOpti
       round(r.ellipse95.azimuth_deg, 1),
     ];
   });
-  return csv(fields, data);
+  return csv(fields, data, opts);
 }
 
 /** The plan's sites as CSV (id, name, lat, lon, elevation_m, tolerance_m, variant), readable by importSites. */
-export function toSitesCSV(plan: Plan): string {
+export function toSitesCSV(plan: Plan, opts: CsvOptions = {}): string {
   const fields = ['id', 'name', 'lat', 'lon', 'elevation_m', 'tolerance_m', 'variant'];
   const data = plan.sites.map((s) => [
     s.id,
@@ -612,5 +637,5 @@ export function toSitesCSV(plan: Plan): string {
     s.tolerance_m,
     s.variant ?? '',
   ]);
-  return csv(fields, data);
+  return csv(fields, data, opts);
 }

@@ -470,9 +470,11 @@ function readRow(
     );
     return;
   }
+  // A quote before = + - @ tab CR NUL is the CSV exports' formula guard (OWASP CSV Injection),
+  // not part of the value: read it off, as a spreadsheet does.
   const get = (c: Col): string => {
     const i = cols.get(c);
-    return i === undefined ? '' : (cells[i] ?? '').trim();
+    return i === undefined ? '' : (cells[i] ?? '').trim().replace(/^'(?=[=+\-@\t\r\0])/, '');
   };
   const pos = csvPosition(get, cols, dc);
   if ('message' in pos) {

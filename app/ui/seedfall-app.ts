@@ -216,6 +216,8 @@ export class SeedfallApp extends LitElement {
 
   @property({ attribute: false }) store = new PlanStore(demo as Record<string, unknown>);
   @state() private tab: Tab = 'results';
+  /** CSV downloads start with a UTF-8 byte-order mark (spreadsheets then read accents right). */
+  @state() private csvBom = false;
 
   constructor() {
     super();
@@ -353,8 +355,8 @@ export class SeedfallApp extends LitElement {
         `${base}.kml`,
       ],
       gpx: [toGPX(plan, result), 'application/gpx+xml', `${base}.gpx`],
-      csv: [toScheduleCSV(plan, result), 'text/csv', `${base}-schedule.csv`],
-      sites: [toSitesCSV(plan), 'text/csv', `${base}-sites.csv`],
+      csv: [toScheduleCSV(plan, result, { bom: this.csvBom }), 'text/csv', `${base}-schedule.csv`],
+      sites: [toSitesCSV(plan, { bom: this.csvBom }), 'text/csv', `${base}-sites.csv`],
     };
     const [text, type, name] = out[kind];
     download(text, type, name);
@@ -452,6 +454,15 @@ export class SeedfallApp extends LitElement {
             <button @click=${() => this.exportAs('gpx')}>GPX</button>
             <button @click=${() => this.exportAs('csv')}>Schedule CSV</button>
             <button @click=${() => this.exportAs('sites')}>Sites CSV</button>
+            <label class="muted"
+              ><input
+                type="checkbox"
+                data-export="bom"
+                .checked=${this.csvBom}
+                @change=${(e: Event) => (this.csvBom = (e.target as HTMLInputElement).checked)}
+              />
+              CSV with byte-order mark (for spreadsheets)</label
+            >
           </div>
           ${s.result?.warnings.map((w) => html`<p class="notice-error">${w}</p>`)}
           ${

@@ -2,14 +2,18 @@ import { check } from '@placemarkio/check-geojson';
 import { kml as kmlToGeoJSON } from '@tmcw/togeojson';
 import { DOMParser } from '@xmldom/xmldom';
 import { XMLParser } from 'fast-xml-parser';
+import fc from 'fast-check';
 import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { runCli } from '../../app/cli';
 import {
+  neutraliseCell,
   toGeoJSON,
   toGPX,
   toKML,
   toScheduleCSV,
   toSitesCSV,
+  UTF8_BOM,
   type FeatureCollection,
   type Position,
 } from '../../app/core/export-formats';
@@ -409,4 +413,98 @@ describe('round trips through importSites', () => {
     expect(r.problems).toEqual([]);
     same(r.sites, plan);
   });
+});
+
+describe('CSV cells and spreadsheets', () => {
+  // OWASP "CSV Injection": cells starting with =, +, -, @, tab or carriage return are read as
+  // formulas; prefix them with a single quote. OWASP ASVS 5.0 V1.2.10 lists NUL as well.
+  const TRIGGERS = ['=', '+', '-', '@', '\t', '\r', '\0'];
+  const hostile = [
+    '=HYPERLINK("http://example.invalid","x")',
+    '+1+1',
+    '-2+3',
+    '@SUM(A1:A2)',
+    '\t=1',
+    '\r=1',
+  ];
+
+  function hostilePlan(): Plan {
+    return demoPlan((d) => {
+      d.sites = d.sites.slice(0, hostile.length);
+      d.sites.forEach((s, i) => (s.name = hostile[i]));
+      d.sites[0].id = '=cmd';
+      d.sites[1].id = '-north';
+      return d;
+    });
+  }
+
+  it('puts a single quote before names and ids that start a formula (OWASP CSV Injection)', () => {
+    const p = hostilePlan();
+    const back = Papa.parse<Record<string, string>>(toSitesCSV(p).trimEnd(), { header: true });
+    expect(back.errors).toEqual([]);
+    expect(back.data.map((r) => r.name)).toEqual(hostile.map((h) => `'${h}`));
+    expect(back.data[0].id).toBe("'=cmd");
+    expect(back.data[1].id).toBe("'-north");
+    for (const row of back.data) {
+      for (const cell of Object.values(row)) {
+        expect(TRIGGERS.includes(cell.charAt(0)), `cell ${JSON.stringify(cell)}`).toBe(false);
+      }
+    }
+  });
+
+  it('reads the guarded names and ids back unchanged through importSites', () => {
+    const p = hostilePlan();
+    const r = importSites(toSitesCSV(p, { bom: true }), 'auto');
+    expect(r.sites.map((x) => x.id)).toEqual(p.sites.map((x) => x.id));
+    // Names keep their text; the importer trims blanks and reads a lone CR as a line break, so
+    // the last name (it starts with CR) is left out here.
+    const names = (xs: { name?: string }[]) => xs.slice(0, -1).map((x) => x.name!.trim());
+    expect(names(r.sites)).toEqual(names(p.sites));
+  });
+
+  it('neutralises the schedule too but leaves negative numbers it writes as numbers', () => {
+    const p = hostilePlan();
+    const r = planDrop(p);
+    const text = toScheduleCSV(p, r);
+    const back = Papa.parse<Record<string, string>>(text.trimEnd(), { header: true });
+    expect(back.data.map((row) => row.name).sort()).toEqual(hostile.map((h) => `'${h}`).sort());
+    // Window times before passing the release point are negative numbers, written bare.
+    const opens = back.data.map((row) => row.window_open_s).filter((c) => c !== '');
+    expect(opens.some((c) => c.startsWith('-'))).toBe(true);
+    for (const c of opens) expect(Number.isFinite(Number(c)), c).toBe(true);
+  });
+
+  it('neutralises any text and changes nothing else (property, fast-check)', () => {
+    fc.assert(
+      fc.property(fc.string({ maxLength: 12 }), (text) => {
+        const out = neutraliseCell(text);
+        if (TRIGGERS.includes(text.charAt(0))) expect(out).toBe(`'${text}`);
+        else expect(out).toBe(text);
+      }),
+    );
+  });
+
+  it('starts with the UTF-8 byte-order mark EF BB BF only when asked (Unicode 15, §23.8)', () => {
+    const p = demoPlan((d) => {
+      d.sites[0].name = 'Rétköz szél';
+      return d;
+    });
+    const plain = toSitesCSV(p);
+    const marked = toSitesCSV(p, { bom: true });
+    expect(plain.startsWith('id,')).toBe(true);
+    expect([...Buffer.from(marked, 'utf8').subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
+    expect(marked).toBe(UTF8_BOM + plain);
+    expect(toScheduleCSV(p, result, { bom: true })).toBe(UTF8_BOM + toScheduleCSV(p, result));
+  });
+
+  it('writes the byte-order mark from the command line with export --bom, for CSV only', async () => {
+    const out: string[] = [];
+    const err: string[] = [];
+    const io = { out: (t: string) => void out.push(t), err: (t: string) => void err.push(t) };
+    const args = ['export', 'data/demo-plan.json', '--samples', '100'];
+    expect(await runCli([...args, '--format', 'csv', '--bom'], io)).toBe(0);
+    expect(out.join('').startsWith(`${UTF8_BOM}order,site,`)).toBe(true);
+    expect(await runCli([...args, '--format', 'geojson', '--bom'], io)).toBe(1);
+    expect(err.join('')).toContain('--bom applies to --format csv only');
+  }, 120_000);
 });
