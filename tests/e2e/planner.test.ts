@@ -236,7 +236,7 @@ describe('the map planner in Chromium', () => {
     await page.locator('input[data-testid=open-file]').setInputFiles(bad);
     await expect
       .poll(() => page.locator('[data-testid=notice]').innerText())
-      .toContain('variants[0].descentRate_mps must be > 0');
+      .toContain('variants[0].descentRate_mps must be between 0.05 and 30');
     expect(await count('.sf-site')).toBe(12);
     expect(await page.locator('sf-results-table tbody tr').count()).toBe(12);
     await shot(page, 'planner-broken-file');
