@@ -4,7 +4,7 @@ import { distance_m } from './geodesy';
 import type { Plan, ResolvedVariant } from './plan';
 import schema from './plan.schema.json';
 import { soundingDensity } from './planner';
-import { planWindProfile } from './wind';
+import { planWindProfile, type WindProfile } from './wind';
 
 const DEG = Math.PI / 180;
 
@@ -44,6 +44,16 @@ export function massFactor(v: { payloadMass_kg?: number; referenceMass_kg?: numb
     : 1;
 }
 
+/** The plan's wind profile and air density, built once for all its variants. */
+export interface PlanAir {
+  wind: WindProfile;
+  density?: (z_m: number) => number;
+}
+
+export function planAir(plan: Plan): PlanAir {
+  return { wind: planWindProfile(plan), density: soundingDensity(plan) };
+}
+
 /**
  * Farthest a variant's nominal landing can be from its release point for any site of the plan,
  * m, with the numbers behind it: forward throw + the largest drift to any ground between the
@@ -52,18 +62,19 @@ export function massFactor(v: { payloadMass_kg?: number; referenceMass_kg?: numb
 export function variantExtent(
   plan: Plan,
   v: ResolvedVariant,
+  planAirOnce: PlanAir = planAir(plan),
 ): { extent_m: number; fallTime_s: number; drift_m: number; reach_m: number; throw_m: number } {
+  const { wind, density } = planAirOnce;
   const ground = plan.groundElevation_m;
   const top = plan.release.altitude_m + (plan.release.reference === 'AGL' ? ground : 0);
   const lowest = plan.sites.reduce((lo, s) => Math.min(lo, s.elevation_m), Infinity);
-  const wind = planWindProfile(plan);
   const table = new FallTable({
     top_m: top,
     bottom_m: lowest,
     descentRateSL_mps: v.descentRate_mps * massFactor(v),
     entryLoss_m: v.entryLoss_m,
     isaOffset_K: plan.atmosphere.isaOffset_K,
-    density: soundingDensity(plan),
+    density,
     wind,
     cell_m: Math.max(1, (top - lowest) / BOUND_CELLS),
   });
@@ -114,8 +125,9 @@ export function frameLimitIssues(plan: Plan): LimitIssue[] {
     }
   });
   if (plan.sites.length === 0 || out.length > 0) return out;
+  const air = planAir(plan);
   plan.variants.forEach((v, i) => {
-    const e = variantExtent(plan, v);
+    const e = variantExtent(plan, v, air);
     if (e.extent_m <= FRAME_LIMIT_M) return;
     const at = `variants[${i}]`;
     const steer =
