@@ -248,25 +248,37 @@ export function unionLocal(polys: readonly (readonly XY[])[]): PolyTreeD {
   return tree;
 }
 
-/** GeoJSON polygons ([lon, lat], closed, outer counter-clockwise, holes clockwise) of a union tree. */
+/** [lon, lat] order: west to east, then south to north. */
+const westFirst = (a: Position, b: Position): number => a[0] - b[0] || a[1] - b[1];
+
+/**
+ * GeoJSON polygons ([lon, lat], closed, outer counter-clockwise, holes clockwise) of a union tree,
+ * in a fixed order whatever the union's internals: each ring starts at its westernmost vertex,
+ * holes and parts are sorted west to east.
+ */
 function treePolygons(frame: LocalFrame, tree: PolyTreeD): Position[][][] {
   const out: Position[][][] = [];
   const ring = (path: readonly XY[], outer: boolean): Position[] => {
     const pts = Clipper.isPositiveD(path as PathD) === outer ? path : [...path].reverse();
-    return toRing(frame, pts);
+    const open = toRing(frame, pts).slice(0, -1);
+    let k = 0;
+    for (let i = 1; i < open.length; i++) if (westFirst(open[i], open[k]) < 0) k = i;
+    const rotated = [...open.slice(k), ...open.slice(0, k)];
+    return [...rotated, [...rotated[0]]];
   };
   const visitOuter = (node: PolyPathD): void => {
     if (!node.poly) return;
-    const rings = [ring(node.poly, true)];
+    const holes: Position[][] = [];
     for (let i = 0; i < node.count; i++) {
       const hole = node.child(i);
-      if (hole.poly) rings.push(ring(hole.poly, false));
+      if (hole.poly) holes.push(ring(hole.poly, false));
       for (let j = 0; j < hole.count; j++) visitOuter(hole.child(j)); // islands inside holes
     }
-    out.push(rings);
+    holes.sort((a, b) => westFirst(a[0], b[0]));
+    out.push([ring(node.poly, true), ...holes]);
   };
   for (let i = 0; i < tree.count; i++) visitOuter(tree.child(i));
-  return out;
+  return out.sort((a, b) => westFirst(a[0][0], b[0][0]));
 }
 
 /**
