@@ -1374,6 +1374,15 @@ export function largeCases(): HostileCase[] {
       { separate: true },
     ),
     big(
+      'unknown-fields-20000',
+      'ranges',
+      withPlan((p) => {
+        for (let i = 0; i < 20_000; i++) p[`${i}-${'x'.repeat(1000)}`] = 1;
+      }),
+      '20,000 unknown fields with 1,000-character names (a 20 MB file, under the read bound)',
+      { source: 'common practice (nothing grows without bound)' },
+    ),
+    big(
       'sites-1001',
       'ranges',
       withPlan((p) => (p.sites = grid(1001))),

@@ -112,6 +112,7 @@ function runBatch(
       let buffered = '';
       let timer: NodeJS.Timeout | undefined;
       let hung = false;
+      let started = false;
       child.stderr
         .setEncoding('utf8')
         .on('data', (t: string) => (stderr = (stderr + t).slice(-4000)));
@@ -127,6 +128,7 @@ function runBatch(
           };
           buffered = buffered.slice(nl + 1);
           if (msg.start !== undefined) {
+            started = true;
             current = { i: msg.start, run: msg.run };
             stderr = '';
             clearTimeout(timer);
@@ -156,8 +158,14 @@ function runBatch(
               : `${current.run}: crash (exit ${code ?? signal}): ${tail}`,
           );
           rest = rest.filter((x) => x !== current!.i);
+        } else if (rest.length && !started) {
+          // The runner could not load (e.g. a module that does not compile): every case left fails with why.
+          const why = stderr.trim().split('\n').slice(0, 3).join(' | ').slice(0, 300);
+          for (const i of rest)
+            results[i].push(`runner could not start (exit ${code ?? signal}): ${why}`);
+          rest = [];
         } else if (rest.length) {
-          // Died between cases (e.g. while loading): blame the next case so the run moves on.
+          // Died between cases: blame the next case so the run moves on.
           results[rest[0]].push(
             `runner died before the case (exit ${code ?? signal}): ${stderr.slice(-300)}`,
           );

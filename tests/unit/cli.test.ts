@@ -252,14 +252,20 @@ describe('CLI file reading', () => {
   });
 
   it('lists the first problems of a 10,000-problem plan completely when stderr is a pipe', () => {
-    // common practice: output to a pipe is flushed before exit (no process.exit() mid-write)
+    // common practice: output to a pipe is flushed before exit (no process.exit() mid-write).
+    // Each problem names an unknown variant and lists 12 known 64-character ids, so the 200
+    // listed lines (about 180 KB) are more than a pipe buffer (64 KiB on Linux, pipe(7)).
     const bad = structuredClone(demo) as Record<string, unknown>;
-    bad.sites = Array.from({ length: 2500 }, (_, i) => ({
+    bad.variants = Array.from({ length: 12 }, (_, i) => ({
+      id: `${i}`.padStart(64, 'v'),
+      guidance: 'passive',
+      descentRate_mps: 3,
+    }));
+    bad.sites = Array.from({ length: 10_000 }, (_, i) => ({
       id: `x${i}`,
-      lat: 123,
-      lon: 456,
-      tolerance_m: -1,
-      elevation_m: 1e9,
+      lat: 47.49,
+      lon: 21.08,
+      variant: 'u'.repeat(64),
     }));
     const r = spawnSync(TSX, ['app/cli.ts', writePlan('many.json', bad)], {
       encoding: 'utf8',
@@ -273,5 +279,7 @@ describe('CLI file reading', () => {
     expect(total).toBeGreaterThanOrEqual(10000);
     expect(lines.filter((l) => l.startsWith('  - '))).toHaveLength(MAX_LISTED_PROBLEMS);
     expect(lines.at(-1)).toBe(`  … and ${total - MAX_LISTED_PROBLEMS} more problems`);
+    expect(lines.at(-2)).toMatch(/^ {2}- sites\[\d+\]\.variant .*\(known: .*\)$/);
+    expect(r.stderr.length).toBeGreaterThan(128 * 1024);
   }, 60_000);
 });
