@@ -187,7 +187,7 @@ line(
     const [, t] = ms(f);
     const total = tPlan + tSafety + t;
     line(
-      `  ${label} (plan + safety + output, target < 10 s)`,
+      `  ${label}: plan + safety + output (< 10 s)`,
       `${sec(total)}  output ${sec(t)} = ${ratio(t)}`,
       total < 10_000,
     );
