@@ -518,9 +518,8 @@ async function main(argv: string[], io: CliIO): Promise<void> {
       );
     }
   }
-  io.err(
-    `seedfall: brief written${args.out ? ` to ${oneLine(args.out)}` : ''}${args.pdf ? ` and ${oneLine(args.pdf)}` : ''}\n`,
-  );
+  const written = [args.out, args.pdf].filter((x): x is string => x !== undefined);
+  io.err(`seedfall: brief written to ${written.map(oneLine).join(' and ')}\n`);
 }
 
 /** First line of an unexpected error, for the one-line "internal error" report. */

@@ -282,4 +282,15 @@ describe('CLI file reading', () => {
     expect(lines.at(-2)).toMatch(/^ {2}- sites\[\d+\]\.variant .*\(known: .*\)$/);
     expect(r.stderr.length).toBeGreaterThan(128 * 1024);
   }, 60_000);
+
+  it('prints a brief to PDF in which a script payload from the plan is plain text', () => {
+    // OWASP XSS Filter Evasion Cheat Sheet; text read back with poppler's pdftotext
+    const plan = { ...structuredClone(demo), name: '<img src=x onerror=alert(1)>' };
+    const pdf = join(dir, 'payload.pdf');
+    const run = runCli('brief', writePlan('payload.json', plan), '--pdf', pdf, '--samples', '50');
+    expect(run.status).toBe(0);
+    expect(execFileSync('pdftotext', [pdf, '-']).toString()).toContain(
+      'Drop brief: <img src=x onerror=alert(1)>',
+    );
+  }, 90_000);
 });
