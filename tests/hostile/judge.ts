@@ -267,10 +267,10 @@ export function judgeCli(c: CaseMeta, o: CliOutcome, mustReject: string[]): stri
     if (o.run === 'brief' || o.run === 'kml' || o.run === 'gpx') {
       if (rawPayload(text, c.payload)) f.push(`${o.run}: the payload reaches the output unescaped`);
     }
-    if (o.run === 'brief') {
+    if (o.run === 'brief' || o.run === 'plan-text') {
       const visible = text.replace(/<style[\s\S]*?<\/style>/g, '').replace(/<[^>]*>/g, ' ');
-      const m = /\b(NaN|Infinity|undefined)\b/.exec(visible);
-      if (m) f.push(`brief: prints "${m[1]}"`);
+      const m = /\b(NaN|Infinity|undefined|null)\b/.exec(visible);
+      if (m) f.push(`${o.run}: prints "${m[1]}"`);
     }
     if (o.run === 'csv') {
       const cells = formulaCells(text);

@@ -223,6 +223,20 @@ function fieldCases(): HostileCase[] {
           source,
           path: leaf.path,
           ...(typeof value === 'string' && /[<>"&]/.test(value) ? { payload: value } : {}),
+          // Extremes that may be valid also go through the text table and, where they steer the
+          // results, the brief (NaN, Infinity or undefined must never be printed).
+          ...(isNum && /^(min|max|denormal|huge)$/.test(label)
+            ? {
+                runs: [
+                  'plan-json',
+                  'plan-text',
+                  ...(/^(min|max)$/.test(label) &&
+                  /^(variants|carrier|requiredPHit|uncertainty|release)/.test(leaf.path)
+                    ? (['brief'] as const)
+                    : []),
+                ] as CliRun[],
+              }
+            : {}),
           // The crash-prone tiny values named in the issue run as real processes.
           ...(label === 'denormal' &&
           /descentRate_mps|groundSpeed_mps|referenceMass_kg|glideAngle_deg/.test(leaf.path)

@@ -67,6 +67,15 @@ describe('the corpus judge', () => {
     expect(judgeCli(meta(), outcome({ timedOut: true }), [])).toEqual([
       expect.stringContaining('hang'),
     ]);
+    const brief = outcome({
+      run: 'brief',
+      stdout: '',
+      output: '<td>reach</td><td>Infinity m</td>',
+    });
+    expect(judgeCli(meta(), brief, [])).toEqual(['brief: prints "Infinity"']);
+    const payload = '<img src=x onerror=alert(1)>';
+    const kml = outcome({ run: 'kml', stdout: '', output: `<name>${payload}</name>` });
+    expect(judgeCli(meta({ payload }), kml, [])).toEqual([expect.stringContaining('unescaped')]);
   });
 
   it('fails an invalid-plan report whose problem names no field, and passes one that does', () => {
