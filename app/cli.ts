@@ -14,6 +14,7 @@ import {
   fstatSync,
   openSync,
   readSync,
+  realpathSync,
   writeFileSync,
   writeSync,
 } from 'node:fs';
@@ -445,8 +446,29 @@ function write(path: string, text: string): void {
   }
 }
 
+/** The same file as `a`, by real path where both exist (links included), else by resolved path. */
+function sameFile(a: string, b: string): boolean {
+  const real = (p: string) => {
+    try {
+      return realpathSync(p);
+    } catch {
+      return resolve(p);
+    }
+  };
+  return real(a) === real(b);
+}
+
 async function main(argv: string[], io: CliIO): Promise<void> {
   const args = parseArgs(argv, io);
+  // Writing the brief or an export over the plan itself would lose the plan.
+  for (const [flag, out] of [
+    ['--out', args.out],
+    ['--pdf', args.pdf],
+  ] as const) {
+    if (out !== undefined && sameFile(out, args.file!)) {
+      fail(`${flag} ${oneLine(out)} is the plan file itself; choose another file`, 1);
+    }
+  }
   const { plan, warnings } = readPlan(args.file!);
   if (args.samples !== undefined) plan.monteCarlo.samples = args.samples;
   if (args.seed !== undefined) plan.monteCarlo.seed = args.seed;

@@ -1468,6 +1468,21 @@ export function largeCases(): HostileCase[] {
         source: 'plan.schema.json maxItems (sites)',
       },
     ),
+    big(
+      'all-at-maximum',
+      'scale',
+      withPlan((p) => {
+        p.sites = grid(1000);
+        p.variants = Array.from({ length: 100 }, (_, i) => ({
+          id: `v${i}`,
+          guidance: 'passive',
+          descentRate_mps: 2 + i * 0.01,
+        }));
+        p.monteCarlo = { samples: 100_000, seed: 1 };
+      }),
+      '1,000 sites × 100 variants × 100,000 samples: every count at its documented maximum',
+      { source: 'plan.schema.json maxItems and maximum' },
+    ),
     {
       ...imp(
         'sites',

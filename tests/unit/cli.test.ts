@@ -1,5 +1,5 @@
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -236,6 +236,19 @@ describe('CLI file reading', () => {
     expect(run.status).toBe(2);
     expect(run.stderr.includes('\u001b') || run.stderr.includes('\u202e')).toBe(false);
     expect(run.stderr).toContain('\\u{202E}');
+  });
+
+  it('refuses to write the brief or an export over the plan file itself', async () => {
+    // common practice: bad input loses nothing, the plan included
+    const path = writePlan('keep.json', demo);
+    const before = JSON.stringify(demo);
+    const viaDot = join(dir, '.', 'keep.json');
+    const run = await inProcess('export', path, '--format', 'csv', '--out', viaDot);
+    expect(run.status).toBe(1);
+    expect(run.stderr).toMatch(/is the plan file itself/);
+    const brief = await inProcess('brief', path, '--out', path);
+    expect(brief.status).toBe(1);
+    expect(readFileSync(path, 'utf8')).toBe(before);
   });
 
   it('reports an unexpected error in one line with exit 3 and no stack trace', async () => {
