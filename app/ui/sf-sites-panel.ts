@@ -1,6 +1,7 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { importSites } from '../core/import-sites';
+import { schemaMaxItems } from '../core/import-limits';
+import { importSitesFile, tooLarge } from './import-file';
 import type { Site, Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -55,6 +56,8 @@ export class SfSitesPanel extends LitElement {
 
   @property({ attribute: false }) store?: PlanStore;
   @state() private problems: string[] = [];
+  /** Name of the file being imported, '' when none. */
+  @state() private importing = '';
 
   constructor() {
     super();
@@ -77,24 +80,64 @@ export class SfSitesPanel extends LitElement {
     s.edit('sites', [...sites, { id: nextSiteId(ids), lat, lon: +(lon + dLon).toFixed(6) }]);
   }
 
-  /** Adds the sites of a CSV, GeoJSON or KML file; bad rows are listed, good ones kept. */
+  /**
+   * Adds the sites of a CSV, GeoJSON or KML file; bad rows are listed, good ones kept. Large files
+   * are read in a worker; reading stops at the plan's site limit, and the notice says so.
+   */
   private async importFile(e: Event): Promise<void> {
     const s = this.store;
     const input = e.target as HTMLInputElement;
     const file = input.files?.[0];
     input.value = '';
     if (!s || !file) return;
+    const big = tooLarge(file);
+    if (big) {
+      this.problems = [big];
+      s.setNotice('error', `${file.name}: ${big}; the plan is unchanged.`);
+      return;
+    }
+    const before = this.sites();
+    const variants = s.list<Variant>('variants').map((v) => String(v.id));
+    this.importing = file.name;
+    let r;
+    try {
+      r = await importSitesFile(
+        file,
+        before.map((x) => String(x.id)),
+        variants,
+      );
+    } catch (err) {
+      const why = err instanceof Error ? err.message : String(err);
+      this.problems = [`${file.name}: the file could not be read: ${why}`];
+      s.setNotice(
+        'error',
+        `${file.name}: the file could not be read (${why}); the plan is unchanged.`,
+      );
+      return;
+    } finally {
+      this.importing = '';
+    }
+    const problems = r.problems.map((p) => p.message);
+    // Sites added while the file was read leave less room: keep the first that still fit.
     const sites = this.sites();
-    const variants = ((s.get('variants') as Variant[] | undefined) ?? []).map((v) => String(v.id));
-    const r = importSites(await file.text(), 'auto', {
-      existingIds: sites.map((x) => String(x.id)),
-      variantIds: variants,
-    });
-    this.problems = r.problems.map((p) => p.message);
-    if (r.sites.length) s.edit('sites', [...sites, ...r.sites]);
+    const max = schemaMaxItems('sites');
+    let added = r.sites;
+    if (sites.length + added.length > max) {
+      added = added.slice(0, Math.max(0, max - sites.length));
+      problems.push(
+        `only the first ${added.length} sites were read (the plan holds at most ${max}, ${sites.length} already in it)`,
+      );
+    }
+    this.problems = problems;
+    if (added.length) s.edit('sites', [...sites, ...added]);
+    const limit = problems.find(
+      (p) => p.startsWith('only the first') || p.startsWith('the plan already holds'),
+    );
     s.setNotice(
-      r.problems.length ? 'error' : 'info',
-      `${file.name}: ${r.sites.length} site(s) added${r.problems.length ? `, ${r.problems.length} problem(s) listed under Sites` : ''}.`,
+      problems.length ? 'error' : 'info',
+      `${file.name}: ${added.length} site(s) added` +
+        (limit ? `; ${limit}` : '') +
+        (problems.length ? `. ${problems.length} problem(s) listed under Sites.` : '.'),
     );
   }
 
@@ -213,14 +256,16 @@ export class SfSitesPanel extends LitElement {
             type="file"
             accept=".csv,.txt,.json,.geojson,.kml"
             data-testid="import-sites"
+            ?disabled=${this.importing !== ''}
             @change=${this.importFile}
           />
         </label>
+        ${this.importing ? html`<span class="muted" role="status">Reading ${this.importing}…</span>` : ''}
       </div>
       ${
         this.problems.length
           ? html`<div class="problems" role="alert">
-              <h3>Rows not imported (${this.problems.length})</h3>
+              <h3>Import problems (${this.problems.length})</h3>
               <ul>
                 ${this.problems.map((p) => html`<li>${p}</li>`)}
               </ul>

@@ -7,15 +7,11 @@ import { timelineSvg } from '../core/timeline-svg';
 import { hodographSvg, sweepHeightsAGL, sweepSvg, type SweepPoint } from '../core/wind-plots';
 import type { SweepReply, SweepRequest } from '../worker/sweep-worker';
 import type { WindLayer } from '../core/plan';
-import { importSounding } from '../core/sounding-csv';
-import {
-  mergeSurfaceProfile,
-  surfaceProfile,
-  TERRAIN,
-  type TerrainClass,
-} from '../core/surface-wind';
+import { rangeProblem } from '../core/import-limits';
+import { blendSurfaceReading, TERRAIN, type TerrainClass } from '../core/surface-wind';
 import { fromDisplaySpeed, parseNumber } from '../core/units';
 import { decodeWindsAloft, stationLayers, type WindsAloft } from '../core/winds-aloft';
+import { importSoundingFile, tooLarge } from './import-file';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';
@@ -88,12 +84,16 @@ export class SfWindSources extends LitElement {
     new StoreController(this, () => this.store);
   }
 
-  /** Puts layers (and optionally temperatures) into the plan as one undo step. */
+  /**
+   * Puts layers (and optionally temperatures) into the plan as one undo step. The notice says
+   * "in use" only for what went in, and counts what the import left out (`notUsed`).
+   */
   private useLayers(
     reference: 'AGL' | 'MSL',
     layers: WindLayer[],
     temperatures: { altitude_m: number; temperature_K: number }[],
     what: string,
+    notUsed = 0,
   ): void {
     const s = this.store!;
     const winds = s.obj('winds');
@@ -104,9 +104,13 @@ export class SfWindSources extends LitElement {
       next.atmosphere = { ...atmosphere, sounding: { reference, levels: temperatures } };
     }
     const keptSounding = !temperatures.length && (atmosphere as { sounding?: unknown }).sounding;
-    s.replace(
-      next,
+    s.replace(next);
+    s.setNotice(
+      notUsed > 0 ? 'error' : 'info',
       `${what}: ${layers.length} wind layer(s)${temperatures.length ? ` and ${temperatures.length} temperature(s)` : ''} in use.` +
+        (notUsed > 0
+          ? ` ${notUsed} value(s) were not used: outside the plan's ranges or over its limits (listed under Problems).`
+          : '') +
         (keptSounding
           ? ' The earlier sounding’s temperatures still set the air density (remove them with “Use the ISA offset instead”).'
           : ''),
@@ -118,15 +122,32 @@ export class SfWindSources extends LitElement {
     const file = input.files?.[0];
     input.value = '';
     if (!file) return;
-    const r = importSounding(await file.text());
-    this.problems = r.problems.map((p) => `line ${p.line}: ${p.message}`);
+    const big = tooLarge(file);
+    if (big) {
+      this.problems = [`${file.name}: ${big}`];
+      this.store?.setNotice('error', `${file.name}: ${big}; the plan is unchanged.`);
+      return;
+    }
+    let r;
+    try {
+      r = await importSoundingFile(file);
+    } catch (err) {
+      const why = err instanceof Error ? err.message : String(err);
+      this.problems = [`${file.name}: the file could not be read: ${why}`];
+      this.store?.setNotice(
+        'error',
+        `${file.name}: the file could not be read (${why}); the plan is unchanged.`,
+      );
+      return;
+    }
+    this.problems = r.problems.map((p) => (p.line ? `line ${p.line}: ${p.message}` : p.message));
     if (r.layers.length === 0) {
       this.store?.setNotice('error', `${file.name}: no usable wind rows; the plan is unchanged.`);
       return;
     }
     const ref =
       r.reference ?? (String(this.store?.get('winds.reference') ?? 'AGL') as 'AGL' | 'MSL');
-    this.useLayers(ref, r.layers, r.temperatures, file.name);
+    this.useLayers(ref, r.layers, r.temperatures, file.name, r.notUsed);
   }
 
   private decode(): void {
@@ -149,7 +170,7 @@ export class SfWindSources extends LitElement {
       this.store?.setNotice('error', `Station ${this.station}: no layers above the ground.`);
       return;
     }
-    this.useLayers('MSL', r.layers, r.temperatures, `Winds aloft ${this.station}`);
+    this.useLayers('MSL', r.layers, r.temperatures, `Winds aloft ${this.station}`, r.notUsed);
   }
 
   private blendSurface(): void {
@@ -160,9 +181,18 @@ export class SfWindSources extends LitElement {
     const bad: string[] = [];
     if (!h.ok || h.value <= 0 || h.value > 100)
       bad.push('reading height must be a number between 0 and 100 m');
-    if (!v.ok || v.value < 0 || v.value > 100) bad.push('reading speed must be a number ≥ 0');
-    if (!d.ok || d.value < 0 || d.value > 360)
-      bad.push('reading direction must be a number between 0 and 360°');
+    const speed = v.ok ? fromDisplaySpeed(v.value, s.settings.units.speed) : NaN;
+    // Speed and direction become plan wind layers: the plan schema's ranges apply.
+    if (!v.ok) bad.push('reading speed must be a number');
+    else {
+      const p = rangeProblem('winds.layers[].speed_mps', speed);
+      if (p) bad.push(`reading ${p}`);
+    }
+    if (!d.ok) bad.push('reading direction must be a number');
+    else {
+      const p = rangeProblem('winds.layers[].fromDeg', d.value);
+      if (p) bad.push(`reading ${p}`);
+    }
     if (bad.length || !h.ok || !v.ok || !d.ok) {
       this.problems = bad;
       return;
@@ -176,23 +206,25 @@ export class SfWindSources extends LitElement {
       altitude_m: ref === 'MSL' ? l.altitude_m - ground : l.altitude_m,
     }));
     const lowest = agl.length ? Math.min(...agl.map((l) => l.altitude_m)) : 100;
-    const surface = surfaceProfile(
-      {
-        height_m: h.value,
-        speed_mps: fromDisplaySpeed(v.value, s.settings.units.speed),
-        fromDeg: d.value,
-      },
+    const r = blendSurfaceReading(
+      agl,
+      { height_m: h.value, speed_mps: speed, fromDeg: d.value },
       { law: this.law, terrain: this.terrain, upTo_m: Math.max(lowest, h.value + 1) },
     );
-    const merged = mergeSurfaceProfile(agl, surface).map((l) => ({
+    this.problems = r.problems;
+    if (!r.added) {
+      s.setNotice('error', `Surface reading not used: ${r.problems[0] ?? 'no layers'}.`);
+      return;
+    }
+    const merged = r.layers.map((l) => ({
       ...l,
       altitude_m: ref === 'MSL' ? l.altitude_m + ground : l.altitude_m,
     }));
-    this.problems = [];
     s.edit('winds.layers', merged);
     s.setNotice(
       'info',
-      `Surface reading extended to ${Math.round(lowest)} m with the ${this.law} law over ${TERRAIN[this.terrain].label}.`,
+      `Surface reading extended to ${Math.round(lowest)} m with the ${this.law} law over ${TERRAIN[this.terrain].label}` +
+        (r.problems.length ? `; ${r.problems.join('; ')}.` : '.'),
     );
   }
 
