@@ -92,11 +92,26 @@ export {
 export { SoundingAtmosphere, type SoundingAtmosphereOptions } from './sounding-atmosphere';
 export { importSounding, type Sounding, type SoundingProblem } from './sounding-csv';
 export {
+  fmt as formatCount,
+  inSchemaRange,
+  MAX_IMPORT_BYTES,
+  MAX_LISTED_PROBLEMS,
+  onlyFirstMessage,
+  rangeProblem,
+  schemaBounds,
+  schemaMaxItems,
+  schemaMaxLength,
+  WORKER_IMPORT_BYTES,
+  type Bounds,
+} from './import-limits';
+export {
+  blendSurfaceReading,
   HELLMANN_NEUTRAL,
   mergeSurfaceProfile,
   speedRatio,
   surfaceProfile,
   TERRAIN,
+  type SurfaceBlend,
   type SurfaceProfileOptions,
   type SurfaceReading,
   type Terrain,
