@@ -256,7 +256,7 @@ const PATH_FIRST = /^(plan|[A-Za-z_$][\w$]*(\[\d+\])*(\.[A-Za-z_$][\w$]*(\[\d+\]
 export function judgeCli(c: CaseMeta, o: CliOutcome, mustReject: string[]): string[] {
   const f: string[] = [];
   const tail = o.stderr.trim().split('\n').slice(-2).join(' | ').slice(0, 300);
-  if (o.timedOut) return [`${o.run}: hang: no answer within 20 s`];
+  if (o.timedOut) return [`${o.run}: hang: no answer within 20 s of CPU time (60 s of wall time)`];
   if (o.crashed) return [`${o.run}: crash (runner died, exit ${o.code}): ${tail}`];
   if (TRACE.test(o.stderr)) f.push(`${o.run}: stack trace or internal error on stderr: ${tail}`);
   if (o.code === 0) {
@@ -365,7 +365,7 @@ function covered(p: ImportOutcome['problems'][number]): number {
 
 /** Holds when the importer returns, its output validates inside the demo plan, and every dropped item is reported. */
 export function judgeImport(c: CaseMeta, o: ImportOutcome): string[] {
-  if (o.timedOut) return ['hang: no answer within 20 s'];
+  if (o.timedOut) return ['hang: no answer within 20 s of CPU time (60 s of wall time)'];
   if (o.crashed) return [`crash: ${o.crash ?? ''}`.slice(0, 300)];
   if (o.threw) return [`threw: ${o.threw}`];
   const f: string[] = [];

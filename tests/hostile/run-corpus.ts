@@ -1,6 +1,6 @@
 /**
  * Runs the whole bad-input corpus and returns one verdict per case. Batched cases run in
- * run-batch.ts children (two at a time, 1 GiB heap each); a child that stays 20 s on one step is
+ * run-batch.ts children (two at a time, 1 GiB heap each); a child past the hang limit on one step is
  * killed (a hang) and one that dies is a crash; either way a new child goes on with the next case.
  * Cases marked `separate` run as real CLI processes with their output piped.
  *
@@ -18,6 +18,41 @@ import { caseText, cliArgs, type Job } from './run-batch';
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 /** Longest a single step may take before it counts as a hang, ms. */
 export const HANG_MS = 20_000;
+/** Wall-clock limit of a step that uses little CPU (e.g. blocked on a read), ms. */
+const WALL_MS = 60_000;
+// Linux clock ticks per second for /proc/<pid>/stat times (getconf CLK_TCK; 100 on Linux).
+const CLK_TCK = 100;
+
+/** CPU time (user + system) of a process, ms; null where /proc cannot be read. */
+function cpuMs(pid: number | undefined): number | null {
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    // proc(5): utime and stime are fields 14 and 15, i.e. 12 and 13 after "pid (comm) ".
+    return ((Number(f[11]) + Number(f[12])) * 1000) / CLK_TCK;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Watches one step of a child: a hang is HANG_MS of the child's own CPU time (so a machine
+ * busy with other work does not turn a slow step into a hang) or WALL_MS of wall-clock time.
+ */
+function watchdog(pid: number | undefined, onHang: () => void): () => void {
+  const t0 = Date.now();
+  const cpu0 = cpuMs(pid);
+  const timer = setInterval(() => {
+    const cpu = cpuMs(pid);
+    const wall = Date.now() - t0;
+    const used = cpu !== null && cpu0 !== null ? cpu - cpu0 : wall;
+    if (used >= HANG_MS || wall >= WALL_MS) {
+      clearInterval(timer);
+      onHang();
+    }
+  }, 500);
+  return () => clearInterval(timer);
+}
 const NODE_ARGS = ['--max-old-space-size=1024', '--import', 'tsx'];
 
 export interface Verdict {
@@ -58,12 +93,12 @@ function runProcess(run: CliRun, path: string, out: string): Promise<CliOutcome>
     const o: CliOutcome = { run, code: null, stdout: '', stderr: '' };
     child.stdout.setEncoding('utf8').on('data', (t: string) => (o.stdout += t));
     child.stderr.setEncoding('utf8').on('data', (t: string) => (o.stderr += t));
-    const timer = setTimeout(() => {
+    const stop = watchdog(child.pid, () => {
       o.timedOut = true;
       child.kill('SIGKILL');
-    }, HANG_MS);
+    });
     child.on('close', (code, signal) => {
-      clearTimeout(timer);
+      stop();
       o.code = code;
       if (signal && !o.timedOut) o.crashed = true;
       if (run !== 'plan-json' && run !== 'plan-text') {
@@ -110,7 +145,7 @@ function runBatch(
       let current: { i: number; run: string } | null = null;
       let stderr = '';
       let buffered = '';
-      let timer: NodeJS.Timeout | undefined;
+      let stop = () => {};
       let hung = false;
       let started = false;
       child.stderr
@@ -131,13 +166,13 @@ function runBatch(
             started = true;
             current = { i: msg.start, run: msg.run };
             stderr = '';
-            clearTimeout(timer);
-            timer = setTimeout(() => {
+            stop();
+            stop = watchdog(child.pid, () => {
               hung = true;
               child.kill('SIGKILL');
-            }, HANG_MS);
+            });
           } else if (msg.ran !== undefined) {
-            clearTimeout(timer);
+            stop();
             results[msg.ran].push(...(msg.failures ?? []));
             // The case is finished once its last run has reported.
             const runs = jobs[msg.ran].meta.runs ?? ['plan-json'];
@@ -149,12 +184,12 @@ function runBatch(
         }
       });
       child.on('close', (code, signal) => {
-        clearTimeout(timer);
+        stop();
         if (current) {
           const tail = stderr.trim().split('\n').slice(-3).join(' | ').slice(0, 300);
           results[current.i].push(
             hung
-              ? `${current.run}: hang: no answer within ${HANG_MS / 1000} s`
+              ? `${current.run}: hang: no answer within ${HANG_MS / 1000} s of CPU time (${WALL_MS / 1000} s of wall time)`
               : `${current.run}: crash (exit ${code ?? signal}): ${tail}`,
           );
           rest = rest.filter((x) => x !== current!.i);

@@ -149,7 +149,7 @@ describe('the committed corpus', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
-  });
+  }, 60_000);
 });
 
 describe('every case of the bad-input corpus holds', () => {
