@@ -3,7 +3,8 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { MAX_LISTED_PROBLEMS, runCli as runInProcess } from '../../app/cli';
+import fc from 'fast-check';
+import { jsonSyntaxError, MAX_LISTED_PROBLEMS, runCli as runInProcess } from '../../app/cli';
 import { CAUTION_TEXT } from '../../app/core/caution';
 import demo from '../../data/demo-plan.json';
 
@@ -227,6 +228,26 @@ describe('CLI file reading', () => {
     const empty = await inProcess(writePlan('empty.json', ''));
     expect(empty.status).toBe(2);
     expect(empty.stderr).toMatch(/is empty/);
+  });
+
+  it('finds a JSON syntax error exactly when JSON.parse does', () => {
+    // Reference parser: V8's JSON.parse (ECMA-262 §25.5.1, RFC 8259 grammar); texts are valid JSON,
+    // cut short, or with up to three characters put in.
+    fc.assert(
+      fc.property(fc.json(), fc.nat(), fc.string({ maxLength: 3 }), (text, at, extra) => {
+        const k = at % (text.length + 1);
+        for (const t of [text, text.slice(0, k), text.slice(0, k) + extra + text.slice(k)]) {
+          let parses = true;
+          try {
+            JSON.parse(t);
+          } catch {
+            parses = false;
+          }
+          expect(jsonSyntaxError(t) === null, JSON.stringify(t)).toBe(parses);
+        }
+      }),
+      { numRuns: 1000 },
+    );
   });
 
   it('shows control characters and bidi overrides from the file as escapes, not raw', async () => {
