@@ -264,6 +264,7 @@ export function importSounding(text: string): Sounding {
   const maxLevels = schemaMaxItems('atmosphere.sounding.levels');
 
   let columns: Map<Kind, Column> | undefined;
+  let headerWidth = 0;
   let cursor = 0;
   let line = head.index + 1;
   const firstAt = new Map<number, number>();
@@ -285,6 +286,19 @@ export function importSounding(text: string): Sounding {
     const tmp = cols.get('temperature');
     const prs = cols.get('pressure');
     if (cells.every((c) => c.trim() === '') || /^\s*#/.test(cells[0] ?? '')) return true;
+    // "100,27,0,5,5" under four columns: decimal commas split numbers into more fields.
+    let width = cells.length;
+    while (width > 0 && cells[width - 1].trim() === '') width--;
+    if (width > headerWidth) {
+      problems.push({
+        line,
+        message:
+          `row has ${width} fields, header has ${headerWidth}` +
+          (delimiter === ',' ? ' — decimal commas? use ; as separator or . as decimal point' : '') +
+          '; row skipped',
+      });
+      return true;
+    }
     const windsFull = !dir || !spd || winds >= maxLayers;
     const tempsFull = !tmp || temps >= maxLevels;
     if (windsFull && tempsFull && winds + temps > 0) {
@@ -412,6 +426,8 @@ export function importSounding(text: string): Sounding {
         const cells = res.data.map((c) => String(c ?? ''));
         if (!columns) {
           columns = headerColumns(cells, start, out, problems);
+          headerWidth = cells.length;
+          while (headerWidth > 0 && cells[headerWidth - 1].trim() === '') headerWidth--;
           if (!columns.has('altitude')) {
             problems.push({ line: start, message: 'no altitude column in the header row' });
             parser.abort();

@@ -7,7 +7,7 @@ import { timelineSvg } from '../core/timeline-svg';
 import { hodographSvg, sweepHeightsAGL, sweepSvg, type SweepPoint } from '../core/wind-plots';
 import type { SweepReply, SweepRequest } from '../worker/sweep-worker';
 import type { WindLayer } from '../core/plan';
-import { rangeProblem } from '../core/import-limits';
+import { rangeProblem, schemaMaxItems } from '../core/import-limits';
 import { blendSurfaceReading, TERRAIN, type TerrainClass } from '../core/surface-wind';
 import { fromDisplaySpeed, parseNumber } from '../core/units';
 import { decodeWindsAloft, stationLayers, type WindsAloft } from '../core/winds-aloft';
@@ -322,6 +322,13 @@ export class SfWindSources extends LitElement {
     const list = s
       .rows<{ time: string; layers: WindLayer[] }>('winds.forecasts')
       .filter((f) => f.time !== time);
+    const max = schemaMaxItems('winds.forecasts');
+    if (list.length >= max) {
+      this.problems = [
+        `the plan holds at most ${max} forecasts; delete one before storing another`,
+      ];
+      return;
+    }
     this.problems = [];
     s.edit(
       'winds.forecasts',

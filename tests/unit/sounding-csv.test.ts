@@ -208,3 +208,22 @@ describe('sounding import stays inside the plan schema', () => {
     );
   });
 });
+
+describe('sounding rows with more fields than the header', () => {
+  it('are skipped with a decimal-comma hint, not read as other numbers', () => {
+    // "27,5" with a comma separator is two fields (RFC 4180 §2.4).
+    const r = importSounding('altitude_m,direction_deg,speed_mps\n100,270,5\n200,280,7,5\n');
+    expect(r.layers).toEqual([{ altitude_m: 100, fromDeg: 270, speed_mps: 5 }]);
+    expect(r.problems).toEqual([
+      {
+        line: 3,
+        message:
+          'row has 4 fields, header has 3 — decimal commas? use ; as separator or . as decimal point; row skipped',
+      },
+    ]);
+    // The same numbers with ';' and decimal commas read.
+    const ok = importSounding('altitude_m;direction_deg;speed_mps\n200;280;7,5\n');
+    expect(ok.problems).toEqual([]);
+    expect(ok.layers).toEqual([{ altitude_m: 200, fromDeg: 280, speed_mps: 7.5 }]);
+  });
+});
