@@ -34,6 +34,7 @@ import {
   toKML,
   toScheduleCSV,
   validatePlan,
+  workIssue,
   type Plan,
   type PlanResult,
   type SweepPoint,
@@ -472,6 +473,8 @@ async function main(argv: string[], io: CliIO): Promise<void> {
   const { plan, warnings } = readPlan(args.file!);
   if (args.samples !== undefined) plan.monteCarlo.samples = args.samples;
   if (args.seed !== undefined) plan.monteCarlo.seed = args.seed;
+  const work = workIssue(plan);
+  if (work) fail(`--samples: ${oneLine(work.message)}`, 2);
   const result: PlanResult = planDrop(plan);
   result.warnings.unshift(...warnings);
 

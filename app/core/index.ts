@@ -63,6 +63,7 @@ export {
 export { formatPlanText } from './report-text';
 export { Rng, streamSeed } from './rng';
 export { validatePlan, type PlanIssue, type PlanValidation } from './validate';
+export { MAX_PLAN_FLIGHTS, workIssue } from './plan-limits';
 export {
   planWindOptions,
   planWindProfile,

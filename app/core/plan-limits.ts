@@ -146,6 +146,30 @@ export function frameLimitIssues(plan: Plan): LimitIssue[] {
   return out;
 }
 
+/**
+ * Most Monte Carlo flights one plan may ask for: sites × variants × monteCarlo.samples. Every site
+ * is planned with every variant; 20 million flights (1,000 sites × 10 variants × 2,000 samples) is
+ * about ten seconds on one core (npm run bench), so a plan can never ask for hours of work.
+ */
+export const MAX_PLAN_FLIGHTS = 20_000_000;
+
+/** The work limit above, or null when the plan is within it. */
+export function workIssue(plan: Plan): LimitIssue | null {
+  const sites = plan.sites.length;
+  const variants = plan.variants.length;
+  const samples = plan.monteCarlo.samples;
+  const flights = sites * variants * samples;
+  if (flights <= MAX_PLAN_FLIGHTS) return null;
+  return {
+    path: 'monteCarlo.samples',
+    message:
+      `monteCarlo.samples ${samples} with ${sites} sites and ${variants} variants asks for ` +
+      `${flights.toExponential(2)} Monte Carlo flights (sites × variants × samples); at most ` +
+      `${MAX_PLAN_FLIGHTS.toLocaleString('en-US')} are allowed: lower the samples to at most ` +
+      `${Math.max(1, Math.floor(MAX_PLAN_FLIGHTS / Math.max(1, sites * variants)))} or split the plan`,
+  };
+}
+
 /** Deepest nesting a plan file may have; a plan needs 8 (a zone vertex's coordinate). */
 export const MAX_PLAN_DEPTH = 32;
 

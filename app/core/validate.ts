@@ -1,7 +1,13 @@
 import type { ErrorObject } from 'ajv';
 import type { Plan, PlanFile } from './plan';
 import { resolvePlan } from './plan-defaults';
-import { frameLimitIssues, massIssues, nestingIssue, zoneLatitudeIssues } from './plan-limits';
+import {
+  frameLimitIssues,
+  massIssues,
+  nestingIssue,
+  workIssue,
+  zoneLatitudeIssues,
+} from './plan-limits';
 import schema from './plan.schema.json';
 // Precompiled by `npm run gen:validator` (ajv standalone, options allErrors + verbose): no code
 // is compiled at run time, so the page's Content-Security-Policy can forbid eval.
@@ -82,8 +88,12 @@ function editDistance(a: string, b: string): number {
   return prev[b.length];
 }
 
+const MAX_SUGGEST_LENGTH = 40;
+
 /** The known field a typo most likely meant, if one is close enough. */
 function suggestion(unknown: string, node: SchemaNode): string {
+  // A typo is short; a long name is no typo, and comparing it costs its length squared.
+  if (unknown.length > MAX_SUGGEST_LENGTH) return '';
   let best = '';
   let bestD = Infinity;
   for (const name of Object.keys(node.properties ?? {})) {
@@ -300,6 +310,8 @@ export function validatePlan(raw: unknown, opts: { now?: Date } = {}): PlanValid
     const file = raw as unknown as PlanFile;
     const plan = resolvePlan(file, opts);
     // Limits across fields that need the model (docs/plan-format.md, "Limits across fields").
+    const work = workIssue(plan);
+    if (work) return { ok: false, errors: [work] };
     const far = frameLimitIssues(plan);
     if (far.length > 0) return { ok: false, errors: far };
     return { ok: true, plan, warnings: warningsFor(file) };

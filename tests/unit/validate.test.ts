@@ -414,6 +414,45 @@ describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () 
 });
 
 describe('limits across fields (docs/plan-format.md, "Limits across fields")', () => {
+  // Work bound (docs/plan-format.md): sites × variants × samples ≤ 20 million flights.
+  it('a plan asking for more than 20 million Monte Carlo flights is refused naming monteCarlo.samples', () => {
+    // 100 sites × the demo's variants: the bound falls inside the schema's sample range.
+    const withSamples = (samples: number) => {
+      const p = plan();
+      p.sites = Array.from({ length: 100 }, (_, i) => ({
+        ...demo.sites[i % demo.sites.length],
+        id: `s${i}`,
+      }));
+      p.monteCarlo = { ...(p.monteCarlo ?? {}), samples };
+      return p;
+    };
+    const most = Math.floor(20_000_000 / (100 * demo.variants.length));
+    expect(most).toBeLessThan(100_000);
+    expect(errorsOf(withSamples(most))).toEqual([]);
+    const over = errorsOf(withSamples(most + 1));
+    expect(over).toHaveLength(1);
+    expect(over[0].path).toBe('monteCarlo.samples');
+    expect(over[0].message).toContain(`lower the samples to at most ${most}`);
+    expectHouseForm(over);
+    // 1,000 sites × 100 variants × 100,000 samples, every count at its maximum: refused at once.
+    const big = plan();
+    big.sites = Array.from({ length: 1000 }, (_, i) => ({ ...demo.sites[0], id: `s${i}` }));
+    big.variants = Array.from({ length: 100 }, (_, i) => ({ ...demo.variants[0], id: `v${i}` }));
+    big.monteCarlo = { samples: 100_000, seed: 1 };
+    for (const s of big.sites) delete s.variant;
+    const e = errorsOf(big);
+    expect(e.map((x) => x.path)).toEqual(['monteCarlo.samples']);
+  });
+
+  it('long unknown field names get no suggestion, short typos do', () => {
+    const p = plan();
+    p.releese = 1;
+    p['x'.repeat(1000)] = 1;
+    const m = messagesOf(p);
+    expect(m).toContain('plan has an unknown field "releese" (did you mean "release"?)');
+    expect(m).toContain(`plan has an unknown field "${'x'.repeat(1000)}"`);
+  });
+
   it('a site farther than 50 km from the release point is refused', () => {
     const at = (km: number) => {
       const p = plan();
