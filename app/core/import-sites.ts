@@ -14,6 +14,7 @@ import { kmlGen } from '@tmcw/togeojson';
 import { DOMParser as XmldomParser } from '@xmldom/xmldom';
 import Papa from 'papaparse';
 import { fromUTM, parseCoordinate } from './coords';
+import { distance_m } from './geodesy';
 import {
   fmt,
   MAX_IMPORT_BYTES,
@@ -51,6 +52,12 @@ export interface ImportOptions {
   delimiter?: ',' | ';' | '\t';
   /** XML parser for KML (see the module comment). */
   parseXml?: XmlParser;
+  /**
+   * The plan's release point and how far from it sites may lie (the plan's limit across fields,
+   * FRAME_LIMIT_M in plan-limits.ts): farther sites are not imported, with the distance and, when
+   * swapping latitude and longitude would bring them in range, that hint.
+   */
+  near?: { lat: number; lon: number; maxDistance_m: number };
 }
 
 type Problems = ProblemList<ImportProblem>;
@@ -61,7 +68,24 @@ class Sink {
   readonly sites: Site[] = [];
   /** Set when more sites followed after the sink was full: reading stopped there. */
   cut = false;
-  constructor(readonly room: number) {}
+  constructor(
+    readonly room: number,
+    private near?: ImportOptions['near'],
+  ) {}
+  /** Why a position cannot be a site of this plan (too far from the release), or undefined. */
+  tooFar(p: { lat: number; lon: number }, order?: string): string | undefined {
+    const n = this.near;
+    if (!n) return undefined;
+    const d = distance_m(n, p);
+    if (d <= n.maxDistance_m) return undefined;
+    const km = (m: number) => `${(m / 1000).toFixed(1)} km`;
+    const swapped = { lat: p.lon, lon: p.lat };
+    const hint =
+      Math.abs(swapped.lat) <= 90 && distance_m(n, swapped) <= n.maxDistance_m
+        ? ` — latitude and longitude swapped?${order ? ` (${order})` : ''}`
+        : '';
+    return `the site is ${km(d)} from the release point; the plan holds sites within ${km(n.maxDistance_m)} of it${hint}`;
+  }
   /** False (and `cut` set) when the plan has no room for another site. */
   accepts(): boolean {
     if (this.sites.length < this.room) return true;
@@ -79,7 +103,7 @@ export function importSites(
   const problems: Problems = new ProblemList();
   const ids = new IdPool(opts, problems);
   const max = schemaMaxItems('sites');
-  const sink = new Sink(Math.max(0, max - ids.existing));
+  const sink = new Sink(Math.max(0, max - ids.existing), opts.near);
   const raw = String(text ?? '');
   if (raw.length > MAX_IMPORT_BYTES) {
     problems.push({
@@ -484,6 +508,8 @@ function readRow(
     );
     return;
   }
+  const far = sink.tooFar(pos);
+  if (far) return bad(far);
   const ele = optionalNumber(get('elevation'), 'elevation_m', dc);
   if (!ele.ok) return bad(ele.message);
   const tol = optionalNumber(get('tolerance'), 'tolerance_m', dc);
@@ -728,6 +754,11 @@ function readFeature(
     (typeof f.id === 'string' || typeof f.id === 'number' ? String(f.id) : undefined);
   const name = str(props.name);
   for (let k = 0; k < points.length; k++) {
+    const far = sink.tooFar(points[k], 'GeoJSON and KML give longitude first');
+    if (far) {
+      skip(points.length > 1 ? `position ${k + 1}: ${far}` : far);
+      continue;
+    }
     if (!sink.accepts()) return false;
     const id = points.length > 1 && rawId !== undefined ? `${rawId}-${k + 1}` : rawId;
     sink.sites.push(makeSite(ids, where, id, name, true, points[k], ele.value, tol.value, variant));

@@ -1,4 +1,4 @@
-import { importSites, type ImportResult } from '../core/import-sites';
+import { importSites, type ImportOptions, type ImportResult } from '../core/import-sites';
 import { fmt, MAX_IMPORT_BYTES, WORKER_IMPORT_BYTES } from '../core/import-limits';
 import { importSounding, type Sounding } from '../core/sounding-csv';
 import type { ImportReply, ImportRequest } from '../worker/import-worker';
@@ -58,15 +58,14 @@ export function tooLarge(file: Blob): string | undefined {
 /** Sites from a file: in a worker when large (WORKER_IMPORT_BYTES), else on this thread. */
 export async function importSitesFile(
   file: Blob,
-  existingIds: string[],
-  variantIds: string[],
+  opts: Pick<ImportOptions, 'near'> & { existingIds: string[]; variantIds: string[] },
 ): Promise<ImportResult> {
   if (file.size > WORKER_IMPORT_BYTES) {
-    const r = await inWorker({ kind: 'sites', file, existingIds, variantIds });
+    const r = await inWorker({ kind: 'sites', file, opts });
     if (r.kind !== 'sites') throw new Error('the import worker answered another request');
     return r.result;
   }
-  return importSites(await file.text(), 'auto', { existingIds, variantIds });
+  return importSites(await file.text(), 'auto', opts);
 }
 
 /** A sounding from a file: in a worker when large, else on this thread. */

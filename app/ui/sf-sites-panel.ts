@@ -1,6 +1,7 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { schemaMaxItems } from '../core/import-limits';
+import { FRAME_LIMIT_M } from '../core/plan-limits';
 import { importSitesFile, tooLarge } from './import-file';
 import type { Site, Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
@@ -101,11 +102,16 @@ export class SfSitesPanel extends LitElement {
     this.importing = file.name;
     let r;
     try {
-      r = await importSitesFile(
-        file,
-        before.map((x) => String(x.id)),
-        variants,
-      );
+      const lat = s.get('release.lat');
+      const lon = s.get('release.lon');
+      r = await importSitesFile(file, {
+        existingIds: before.map((x) => String(x.id)),
+        variantIds: variants,
+        // Sites the plan could not hold (too far from the release) are reported, not added.
+        ...(typeof lat === 'number' && typeof lon === 'number'
+          ? { near: { lat, lon, maxDistance_m: FRAME_LIMIT_M } }
+          : {}),
+      });
     } catch (err) {
       const why = err instanceof Error ? err.message : String(err);
       this.problems = [`${file.name}: the file could not be read: ${why}`];

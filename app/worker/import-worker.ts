@@ -1,11 +1,16 @@
 /// <reference lib="webworker" />
 // Reads and parses large import files (sites, soundings) off the main thread, so the page keeps
 // responding; the importers stop at the plan's limits (app/core/import-limits.ts).
-import { importSites, type ImportResult } from '../core/import-sites';
+import { importSites, type ImportOptions, type ImportResult } from '../core/import-sites';
 import { importSounding, type Sounding } from '../core/sounding-csv';
 
 export type ImportRequest =
-  | { id: number; kind: 'sites'; file: Blob; existingIds: string[]; variantIds: string[] }
+  | {
+      id: number;
+      kind: 'sites';
+      file: Blob;
+      opts: Pick<ImportOptions, 'near'> & { existingIds: string[]; variantIds: string[] };
+    }
   | { id: number; kind: 'sounding'; file: Blob };
 
 export type ImportReply =
@@ -20,10 +25,7 @@ self.onmessage = async (ev: MessageEvent<ImportRequest>) => {
   try {
     const text = await req.file.text();
     if (req.kind === 'sites') {
-      const result = importSites(text, 'auto', {
-        existingIds: req.existingIds,
-        variantIds: req.variantIds,
-      });
+      const result = importSites(text, 'auto', req.opts);
       post({ id: req.id, kind: 'sites', result });
     } else {
       post({ id: req.id, kind: 'sounding', result: importSounding(text) });

@@ -12,6 +12,7 @@ import {
 } from '../../app/core/import-limits';
 import { importSites, type ImportResult } from '../../app/core/import-sites';
 import type { PlanFile } from '../../app/core/plan';
+import { FRAME_LIMIT_M } from '../../app/core/plan-limits';
 import { allowedRange, validatePlan } from '../../app/core/validate';
 import { expectClose } from './helpers';
 
@@ -572,6 +573,66 @@ describe('imported sites always fit the plan', () => {
         },
       ),
       { numRuns: 300 },
+    );
+  });
+});
+
+describe('sites far from the release', () => {
+  // The plan's limit across fields: sites within FRAME_LIMIT_M of the release point.
+  const near = { lat: 47.493, lon: 21.079, maxDistance_m: FRAME_LIMIT_M };
+
+  it('are not imported when the plan could not hold them, with a swapped-order hint', () => {
+    // RFC 7946 §3.1.1: a GeoJSON position is [longitude, latitude]; [47.5, 21.1] is the swap.
+    const gj = JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: { name: 'ok' },
+          geometry: { type: 'Point', coordinates: [21.08, 47.5] },
+        },
+        {
+          type: 'Feature',
+          properties: { name: 'sw' },
+          geometry: { type: 'Point', coordinates: [47.5, 21.08] },
+        },
+      ],
+    });
+    const r = importSites(gj, 'auto', { near });
+    expect(r.sites.map((s) => s.id)).toEqual(['ok']);
+    expect(r.problems).toHaveLength(1);
+    expect(r.problems[0].message).toMatch(
+      /^features\[1\]: the site is [\d.]+ km from the release point; the plan holds sites within 50\.0 km of it — latitude and longitude swapped\? \(GeoJSON and KML give longitude first\); not imported$/,
+    );
+    const csv = importSites('lat,lon\n47.5,21.08\n10,10\n', 'csv', { near });
+    expect(csv.sites).toHaveLength(1);
+    expect(csv.problems[0].message).toMatch(
+      /^line 3: the site is [\d.]+ km from the release point; the plan holds sites within 50\.0 km of it; row not imported$/,
+    );
+  });
+
+  it('validate in the demo plan whatever the position', () => {
+    // Property: with the release given, any in-range position either fits the plan or is refused.
+    fc.assert(
+      fc.property(
+        fc.double({ min: -90, max: 90, noNaN: true }),
+        fc.double({ min: -180, max: 180, noNaN: true }),
+        fc.boolean(),
+        (lat, lon, close) => {
+          const p = close
+            ? { lat: near.lat + lat / 1000, lon: near.lon + lon / 1000 }
+            : { lat, lon };
+          const plan = structuredClone(demo) as unknown as PlanFile;
+          const r = importSites(`lat,lon\n${p.lat},${p.lon}\n`, 'csv', {
+            near,
+            existingIds: plan.sites.map((s) => s.id),
+          });
+          plan.sites = [...plan.sites, ...r.sites];
+          const v = validatePlan(plan);
+          expect(v.ok ? [] : v.errors.slice(0, 3)).toEqual([]);
+        },
+      ),
+      { numRuns: 200 },
     );
   });
 });
