@@ -11,11 +11,8 @@ import { fileURLToPath } from 'node:url';
 import { runCli } from '../../app/cli';
 import { importSites } from '../../app/core/import-sites';
 import { importSounding } from '../../app/core/sounding-csv';
-import {
-  mergeSurfaceProfile,
-  surfaceProfile,
-  type TerrainClass,
-} from '../../app/core/surface-wind';
+import { FRAME_LIMIT_M } from '../../app/core/plan-limits';
+import { blendSurfaceReading, type TerrainClass } from '../../app/core/surface-wind';
 import { validatePlan } from '../../app/core/validate';
 import { decodeWindsAloft, stationLayers } from '../../app/core/winds-aloft';
 import type { WindLayer } from '../../app/core/plan';
@@ -111,9 +108,12 @@ function importCase(job: Job): ImportOutcome {
   try {
     if (job.meta.target === 'sites') {
       const sites = demo.sites as Json[];
+      // As the app calls it (sf-sites-panel.ts): with the plan's release point.
+      const release = demo.release as { lat: number; lon: number };
       const r = importSites(text, 'auto', {
         existingIds: sites.map((s) => String(s.id)),
         variantIds: (demo.variants as Json[]).map((v) => String(v.id)),
+        near: { lat: release.lat, lon: release.lon, maxDistance_m: FRAME_LIMIT_M },
       });
       o.kept = r.sites.length;
       o.problems = r.problems.map((p) => ({
@@ -173,12 +173,16 @@ function importCase(job: Job): ImportOutcome {
       if (c.lowestLayer_m !== undefined)
         winds.layers = [{ altitude_m: c.lowestLayer_m, fromDeg: 270, speed_mps: 10 }];
       const lowest = Math.min(...winds.layers.map((l) => l.altitude_m));
-      const surface = surfaceProfile(
+      const before = winds.layers.length;
+      // As the app blends it (sf-wind-sources.ts): within the plan's limits.
+      const blend = blendSurfaceReading(
+        winds.layers,
         { height_m: c.height_m, speed_mps: c.speed_mps, fromDeg: c.fromDeg },
         { law: c.law, terrain: c.terrain, upTo_m: Math.max(lowest, c.height_m + 1) },
       );
-      winds.layers = mergeSurfaceProfile(winds.layers, surface);
-      o.kept = surface.length;
+      winds.layers = blend.layers;
+      o.kept = blend.added ? blend.layers.length - before : 0;
+      o.problems = blend.problems.map((m) => ({ message: m }));
       o.planErrors = planErrors(p);
     }
   } catch (e) {
