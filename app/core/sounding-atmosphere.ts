@@ -19,6 +19,9 @@ export interface SoundingAtmosphereOptions {
   groundElevation_m?: number;
 }
 
+/** Least separation of two sounding levels, m: closer ones are one level. */
+const MIN_LEVEL_GAP_M = 0.001;
+
 /** Pressure at H from (H1, T1, p1) along a layer of lapse L, K per geopotential m. */
 function layerPressure(p1: number, T1: number, L: number, dH: number): number {
   const x = (L * dH) / T1;
@@ -30,7 +33,8 @@ function layerPressure(p1: number, T1: number, L: number, dH: number): number {
 /**
  * Atmosphere of a sounding: `densityAt(z_m)` plays the role of atmosphere.ts's densityAt
  * (geometric altitude, m MSL → kg/m³). With no usable temperatures it is the USSA 1976 atmosphere.
- * Temperatures that are not finite and positive are ignored; of repeated altitudes the first is used.
+ * Temperatures that are not finite and positive are ignored; of levels closer than 1 mm the lowest
+ * (of equal altitudes, the first given) is used.
  */
 export class SoundingAtmosphere {
   /** Level geopotential altitudes, m, ascending. */
@@ -43,15 +47,21 @@ export class SoundingAtmosphere {
     opts: SoundingAtmosphereOptions = {},
   ) {
     const offset = opts.reference === 'AGL' ? (opts.groundElevation_m ?? 0) : 0;
-    const levels: { z: number; T: number }[] = [];
+    let levels: { z: number; T: number }[] = [];
     for (const t of Array.isArray(temperatures) ? temperatures : []) {
       const z = (t?.altitude_m ?? NaN) + offset;
       const T = t?.temperature_K ?? NaN;
-      if (Number.isFinite(z) && Number.isFinite(T) && T > 0 && !levels.some((l) => l.z === z)) {
-        levels.push({ z, T });
-      }
+      if (Number.isFinite(z) && Number.isFinite(T) && T > 0) levels.push({ z, T });
     }
-    levels.sort((a, b) => a.z - b.z);
+    // Stable sort keeps the first of repeated altitudes first; a level within MIN_LEVEL_GAP_M of
+    // the one kept below it is dropped, so no layer has a zero (or denormal) thickness and a lapse
+    // of ±Infinity or NaN.
+    const sorted = levels.sort((a, b) => a.z - b.z);
+    levels = [];
+    for (const l of sorted) {
+      if (levels.length === 0 || l.z - levels[levels.length - 1].z >= MIN_LEVEL_GAP_M)
+        levels.push(l);
+    }
     const n = levels.length;
     this.H = Float64Array.from(levels, (l) => geopotentialAltitude(l.z));
     this.T = Float64Array.from(levels, (l) => l.T);

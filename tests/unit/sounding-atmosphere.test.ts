@@ -106,3 +106,28 @@ describe('hydrostatic density from a sounding', () => {
     );
   });
 });
+
+describe('degenerate soundings', () => {
+  // Hydrostatic balance (USSA 1976 eq. 33a) gives a finite density wherever the temperature is
+  // finite and positive; two levels a denormal apart must not make a layer of zero thickness.
+  it('levels closer than 1 mm count once and keep every density finite', () => {
+    const a = new SoundingAtmosphere([
+      { altitude_m: 0, temperature_K: 288 },
+      { altitude_m: 5e-324, temperature_K: 250 },
+      { altitude_m: 0.0004, temperature_K: 240 },
+      { altitude_m: 1000, temperature_K: 281.5 },
+    ]);
+    expect(Array.from(a.T)).toEqual([288, 281.5]);
+    for (const z of [-100, 0, 1e-320, 0.0002, 500, 1000, 3000]) {
+      expect(Number.isFinite(a.densityAt(z)), `z = ${z}`).toBe(true);
+    }
+  });
+
+  it('of equal altitudes the first given is used', () => {
+    const a = new SoundingAtmosphere([
+      { altitude_m: 100, temperature_K: 280 },
+      { altitude_m: 100, temperature_K: 300 },
+    ]);
+    expect(Array.from(a.T)).toEqual([280]);
+  });
+});
