@@ -98,10 +98,10 @@ function scheduleRows(plan: Plan, result: PlanResult): string {
         : (s.releaseZone?.center ?? s.release);
       const when = moving
         ? s.releaseWindow
-          ? `<b class="big">${signed(s.releaseWindow.open_s)} … ${signed(s.releaseWindow.close_s)} s</b><br>best ${signed(s.releaseWindow.best_s)} s`
+          ? `<b class="big">${s.releaseWindow.openUnbounded ? 'before ' : ''}${signed(s.releaseWindow.open_s)} … ${s.releaseWindow.closeUnbounded ? 'after ' : ''}${signed(s.releaseWindow.close_s)} s</b><br>best ${signed(s.releaseWindow.best_s)} s`
           : `<span class="bad">no window</span><br>closest ${signed(s.release.time_s)} s`
         : s.releaseZone
-          ? `hover within <b class="big">${f(s.releaseZone.radius_m, 0)} m</b>`
+          ? `hover within <b class="big">${s.releaseZone.unbounded ? 'more than ' : ''}${f(s.releaseZone.radius_m, 0)} m</b>`
           : '<span class="bad">no hover zone</span>';
       const prog =
         s.headingTrue_deg === undefined

@@ -39,6 +39,18 @@ describe('the drop brief', () => {
     }
   });
 
+  // common practice: a schedule never prints an edge the search did not find as if it were exact.
+  it('marks a window edge at the search limit as "before" / "after"', () => {
+    const r = structuredClone(result);
+    const s = r.sites.find((x) => x.releaseWindow)!;
+    s.releaseWindow!.openUnbounded = true;
+    s.releaseWindow!.closeUnbounded = true;
+    const marked = briefHtml(plan, r, { generatedAt: new Date('2026-12-01T07:00:00Z') });
+    const row = marked.slice(marked.indexOf(`<tr data-site="${s.id}">`));
+    expect(row.slice(0, row.indexOf('</tr>'))).toMatch(/before [+−][\d.]+ … after [+−][\d.]+ s/);
+    expect(html).not.toContain('before +');
+  });
+
   it('draws the wind profile and the hodograph', () => {
     expect(html).toContain('aria-label="Wind profile"');
     expect(html).toContain('aria-label="Hodograph"');
