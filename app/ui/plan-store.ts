@@ -26,6 +26,8 @@ const HISTORY_LIMIT = 200;
  * bounded (characters; twice that in bytes), so a few large plans cannot fill the memory.
  */
 const HISTORY_CHARS = 20_000_000;
+/** Least time between two progress redraws (ms). */
+const PROGRESS_EMIT_MS = 250;
 
 /** A saved draft that could not be read, kept so that nothing is lost. */
 export interface DamagedDraft {
@@ -115,6 +117,7 @@ export class PlanStore extends EventTarget {
   private workerDead = false;
   private nextId = 1;
   private inFlight = 0;
+  private progressShownAt = -Infinity;
   private pending: Plan | null = null;
   private sentPlan: Plan | null = null;
   private computeTimer: ReturnType<typeof setTimeout> | undefined;
@@ -480,6 +483,11 @@ export class PlanStore extends EventTarget {
     if (m.id !== this.inFlight) return;
     if (m.type === 'progress') {
       this.progress = m.done / m.total;
+      // The worker reports every site; each change event re-renders the map and the panels, so
+      // the bar is redrawn at most every PROGRESS_EMIT_MS (the result itself is always shown).
+      const now = performance.now();
+      if (now - this.progressShownAt < PROGRESS_EMIT_MS) return;
+      this.progressShownAt = now;
       this.emit();
       return;
     }

@@ -5,6 +5,7 @@ import { customElement, property, state } from 'lit/decorators.js';
 import { styleMap } from 'lit/directives/style-map.js';
 import { bearingDeg, distance_m } from '../core/geodesy';
 import type { Site, Variant } from '../core/plan';
+import type { SiteResult } from '../core/planner';
 import { formatCoord, formatLength } from '../core/units';
 import { bearingHandle, trackSegment } from '../map/geometry';
 import { Graticule } from '../map/graticule';
@@ -15,7 +16,7 @@ import {
   type LayerVisibility,
   type ShapeKind,
 } from '../map/plan-layers';
-import { escapeHtml, tipNode } from '../map/tooltip';
+import { escapeHtml, lazyTip, tipNode } from '../map/tooltip';
 import { getAt } from './paths';
 import type { PlanStore } from './plan-store';
 import { nextSiteId } from './sf-sites-panel';
@@ -52,6 +53,19 @@ function zoneRings(c: unknown): L.LatLngTuple[][] | null {
     rings.push(pts);
   }
   return rings;
+}
+
+/** A site's marker icon; its id comes from a file, so the label is a text node, never HTML. */
+function siteIcon(label: string, bad: boolean): L.DivIcon {
+  // The label sits inside the dot, which is not positioned, so it is still placed against the
+  // icon box.
+  const dot = document.createElement('div');
+  dot.className = bad ? 'site-dot bad' : 'site-dot';
+  const text = document.createElement('span');
+  text.className = 'site-label';
+  text.textContent = label;
+  dot.append(text);
+  return L.divIcon({ className: `sf-site-icon sf-site`, html: dot, iconSize: [14, 14] });
 }
 
 /**
@@ -178,6 +192,8 @@ export class SfMap extends LitElement {
   private trackLine?: L.Polyline;
   private siteLayer = L.layerGroup();
   private siteMarkers = new Map<number, L.Marker>();
+  /** What each site marker shows (icon label and status, tooltip text), to skip what is unchanged. */
+  private siteDrawn = new Map<number, { icon: string; tip: string }>();
   private dragging = false;
   private drawnResult: unknown = null;
   private drawnVis = '';
@@ -430,39 +446,48 @@ export class SfMap extends LitElement {
     this.requestUpdate();
   }
 
+  /**
+   * Site markers in line with the draft and the result. Only what changed is touched: a marker's
+   * icon is rebuilt when its label or status changes and its tooltip when its text does, so a
+   * store change (a progress tick, an edit) costs one pass over the sites, not a rebuild of every
+   * marker with its DOM and listeners.
+   */
   private syncSites(): void {
     const s = this.store!;
     const sites = s.rows<Site>('sites');
     const result = s.result;
+    const byId = new Map<string, SiteResult>();
+    for (const r of result?.sites ?? []) if (!byId.has(r.id)) byId.set(r.id, r);
     for (const [i, m] of this.siteMarkers) {
       if (i >= sites.length) {
         m.remove();
         this.siteMarkers.delete(i);
+        this.siteDrawn.delete(i);
       }
     }
+    const u = s.settings.units;
     sites.forEach((site, i) => {
       const at = this.position(`sites[${i}]`);
       if (!at) return;
-      const r = result?.sites.find((x) => x.id === site.id);
+      const r = byId.get(String(site.id));
       const bad = r ? !r.meetsRequired : false;
       const label = String(site.id ?? '');
-      // Site ids come from files: the label is a text node, never HTML. It sits inside the dot,
-      // which is not positioned, so it is still placed against the icon box.
-      const dot = document.createElement('div');
-      dot.className = bad ? 'site-dot bad' : 'site-dot';
-      const text = document.createElement('span');
-      text.className = 'site-label';
-      text.textContent = label;
-      dot.append(text);
-      const icon = L.divIcon({ className: `sf-site-icon sf-site`, html: dot, iconSize: [14, 14] });
+      const tipText = r
+        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
+        : `Site ${label}`;
+      const iconKey = `${bad ? 'bad' : 'ok'}|${label}`;
       let m = this.siteMarkers.get(i);
+      const drawn = this.siteDrawn.get(i);
       if (!m) {
-        m = L.marker([at.lat, at.lon], { draggable: true, keyboard: true, icon }).addTo(
-          this.siteLayer,
-        );
+        m = L.marker([at.lat, at.lon], {
+          draggable: true,
+          keyboard: true,
+          icon: siteIcon(label, bad),
+        }).addTo(this.siteLayer);
+        const marker = m;
         m.on('dragstart', () => (this.dragging = true));
         m.on('drag', () => {
-          const p = m!.getLatLng();
+          const p = marker.getLatLng();
           const cur = (this.store!.get(`sites[${i}]`) as Record<string, unknown>) ?? {};
           this.store!.edit(
             `sites[${i}]`,
@@ -473,18 +498,19 @@ export class SfMap extends LitElement {
         m.on('dragend', () => this.endDrag());
         this.siteMarkers.set(i, m);
       } else {
-        m.setLatLng([at.lat, at.lon]);
-        m.setIcon(icon);
+        const ll = m.getLatLng();
+        if (ll.lat !== at.lat || ll.lng !== at.lon) m.setLatLng([at.lat, at.lon]);
+        if (drawn?.icon !== iconKey) m.setIcon(siteIcon(label, bad));
       }
-      m.getElement()?.setAttribute('data-site', label);
-      m.getElement()?.setAttribute('aria-label', `Site ${label}`);
-      const u = s.settings.units;
-      const tip = tipNode([
-        r
-          ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
-          : `Site ${label}`,
-      ]);
-      m.unbindTooltip().bindTooltip(tip, { direction: 'top', offset: [0, -8] });
+      if (drawn?.icon !== iconKey) {
+        m.getElement()?.setAttribute('data-site', label);
+        m.getElement()?.setAttribute('aria-label', `Site ${label}`);
+      }
+      if (drawn?.tip !== tipText) {
+        // Site ids and names come from files: the tooltip is text nodes, built when it opens.
+        m.unbindTooltip().bindTooltip(lazyTip(tipText), { direction: 'top', offset: [0, -8] });
+      }
+      this.siteDrawn.set(i, { icon: iconKey, tip: tipText });
     });
   }
 
