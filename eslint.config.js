@@ -9,7 +9,7 @@ export default tseslint.config(
       'test-output/**',
       'scratch/**',
       // Written by scripts/gen-validator.ts (ajv standalone output), checked by a unit test.
-      'app/core/plan-validator.generated.js',
+      'app/plan/plan-validator.generated.js',
     ],
   },
   js.configs.recommended,
@@ -32,7 +32,7 @@ export default tseslint.config(
   },
   {
     // The core is pure: no DOM, no map, no UI (see CONVENTIONS layout).
-    files: ['app/core/**/*.ts'],
+    files: ['app/{model,plan,planner,safety,formats,brief}/**/*.ts'],
     rules: {
       'no-restricted-imports': [
         'error',

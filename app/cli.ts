@@ -23,22 +23,14 @@ import { fileURLToPath } from 'node:url';
 import {
   altitudeSweep,
   sweepHeightsAGL,
-  briefHtml,
-  briefSafety,
-  CAUTION_TEXT,
-  formatPlanText,
   planDrop,
-  planSafety,
-  toGeoJSON,
-  toGPX,
-  toKML,
-  toScheduleCSV,
-  validatePlan,
-  workIssue,
-  type Plan,
   type PlanResult,
   type SweepPoint,
-} from './core/index';
+} from './planner';
+import { briefHtml, briefSafety, CAUTION_TEXT, formatPlanText } from './brief';
+import { planSafety } from './safety';
+import { toGeoJSON, toGPX, toKML, toScheduleCSV } from './formats';
+import { validatePlan, workIssue, type Plan } from './plan';
 
 type Command = 'plan' | 'brief' | 'export';
 type Format = 'json' | 'text' | 'geojson' | 'kml' | 'gpx' | 'csv';

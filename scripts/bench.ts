@@ -8,27 +8,23 @@
  * under 10 s (issue #9), and as ratios to the planning time.
  */
 import { readFileSync } from 'node:fs';
+import { briefHtml } from '../app/brief/brief-html';
+import { briefSafety } from '../app/brief/brief-safety';
+import { FallTable } from '../app/model/fall-table';
 import {
-  briefHtml,
-  briefSafety,
-  FallTable,
   fixedHeadingProgramme,
   flySamples,
-  naiveFlight,
   passiveOffset,
-  planDrop,
-  planSafety,
-  Rng,
-  toGeoJSON,
-  toGPX,
-  toKML,
-  toScheduleCSV,
-  toSitesCSV,
-  validatePlan,
-  WindProfile,
   type FlightSetup,
-  type Uncertainty,
-} from '../app/core/index';
+} from '../app/model/flight';
+import { naiveFlight } from '../app/model/naive-integrator';
+import { planDrop } from '../app/planner/planner';
+import { planSafety } from '../app/safety/plan-safety';
+import { Rng } from '../app/model/rng';
+import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../app/formats/export-formats';
+import { validatePlan } from '../app/plan/validate';
+import { WindProfile } from '../app/model/wind';
+import { type Uncertainty } from '../app/model/types';
 import { makeField } from '../tests/support/make-field';
 
 const layers = Array.from({ length: 40 }, (_, i) => ({

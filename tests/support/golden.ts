@@ -2,12 +2,13 @@
 // comparison (tests/unit/golden.test.ts; `npx tsx scripts/golden.ts` rewrites the files).
 import { fileURLToPath } from 'node:url';
 import { runCli } from '../../app/cli';
-import { briefHtml } from '../../app/core/brief-html';
-import { toSitesCSV } from '../../app/core/export-formats';
-import { briefSafety, planSafety } from '../../app/core/plan-safety';
-import { planDrop } from '../../app/core/planner';
-import { validatePlan } from '../../app/core/validate';
-import { altitudeSweep, sweepHeightsAGL } from '../../app/core/wind-plots';
+import { briefHtml } from '../../app/brief/brief-html';
+import { toSitesCSV } from '../../app/formats/export-formats';
+import { briefSafety } from '../../app/brief/brief-safety';
+import { planSafety } from '../../app/safety/plan-safety';
+import { planDrop } from '../../app/planner/planner';
+import { validatePlan } from '../../app/plan/validate';
+import { altitudeSweep, sweepHeightsAGL } from '../../app/planner/sweeps';
 
 /** Where the golden files live. */
 export const GOLDEN_DIR = fileURLToPath(new URL('../fixtures/golden/', import.meta.url));

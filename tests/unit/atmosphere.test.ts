@@ -5,7 +5,7 @@ import {
   densityAt,
   geopotentialAltitude,
   isaAtGeopotential,
-} from '../../app/core/atmosphere';
+} from '../../app/model/atmosphere';
 import { expectClose } from './helpers';
 import ussa from '../fixtures/atmosphere/ussa1976.json';
 

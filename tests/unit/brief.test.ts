@@ -3,9 +3,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { briefHtml, briefTimes, scheduleOrder } from '../../app/core/brief-html';
-import { planDrop } from '../../app/core/planner';
-import { validatePlan } from '../../app/core/validate';
+import { briefHtml, briefTimes, scheduleOrder } from '../../app/brief/brief-html';
+import { planDrop } from '../../app/planner/planner';
+import { validatePlan } from '../../app/plan/validate';
 import demo from '../../data/demo-plan.json';
 
 function demoPlan(patch: (d: typeof demo) => void = () => {}) {

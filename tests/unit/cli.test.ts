@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { jsonSyntaxError, MAX_LISTED_PROBLEMS, runCli as runInProcess } from '../../app/cli';
-import { CAUTION_TEXT } from '../../app/core/caution';
+import { CAUTION_TEXT } from '../../app/brief/caution';
 import demo from '../../data/demo-plan.json';
 
 // The CLI contract (app/cli.ts header): JSON or text on stdout, exit 0

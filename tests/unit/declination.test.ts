@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import geomagnetism from 'geomagnetism';
-import { WMM_VALIDITY, magneticDeclination, magneticHeading } from '../../app/core/declination';
+import { WMM_VALIDITY, magneticDeclination, magneticHeading } from '../../app/model/declination';
 
 /** Decimal year (WMM convention: fraction of that calendar year) → Date (UTC). */
 function fromDecimalYear(y: number): Date {

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { airAt } from '../../app/core/atmosphere';
-import { FallTable } from '../../app/core/fall-table';
+import { airAt } from '../../app/model/atmosphere';
+import { FallTable } from '../../app/model/fall-table';
 import {
   fixedHeadingProgramme,
   forwardThrow,
@@ -9,11 +9,11 @@ import {
   reachRadius,
   type FlightSetup,
   type Vec,
-} from '../../app/core/flight';
-import { naiveFlight } from '../../app/core/naive-integrator';
-import type { Guidance, WindLayer } from '../../app/core/plan';
-import { planDrop } from '../../app/core/planner';
-import { WindProfile } from '../../app/core/wind';
+} from '../../app/model/flight';
+import { naiveFlight } from '../../app/model/naive-integrator';
+import type { Guidance, WindLayer } from '../../app/model/types';
+import { planDrop } from '../../app/planner/planner';
+import { WindProfile } from '../../app/model/wind';
 import { expectClose, makePlan } from './helpers';
 
 // Sea-level standard density, USSA 1976 (REFERENCES.md, SEEN): the reference of descentRate_mps.

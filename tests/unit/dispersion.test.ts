@@ -1,18 +1,18 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { covarianceEllipse, ellipseScale, median } from '../../app/core/dispersion';
-import { FallTable } from '../../app/core/fall-table';
+import { covarianceEllipse, ellipseScale, median } from '../../app/model/dispersion';
+import { FallTable } from '../../app/model/fall-table';
 import {
   fixedHeadingProgramme,
   flySamples,
   passiveOffset,
   reachRadius,
   type FlightSetup,
-} from '../../app/core/flight';
-import { naiveFlight } from '../../app/core/naive-integrator';
-import { planDrop } from '../../app/core/planner';
-import { Rng } from '../../app/core/rng';
-import { WindProfile } from '../../app/core/wind';
+} from '../../app/model/flight';
+import { naiveFlight } from '../../app/model/naive-integrator';
+import { planDrop } from '../../app/planner/planner';
+import { Rng } from '../../app/model/rng';
+import { WindProfile } from '../../app/model/wind';
 import { RELEASE, expectClose, geodesicDistance_m, makePlan, offsetLatLng } from './helpers';
 
 const DEG = Math.PI / 180;

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { airAt, densityAt } from '../../app/core/atmosphere';
-import { SoundingAtmosphere } from '../../app/core/sounding-atmosphere';
+import { airAt, densityAt } from '../../app/model/atmosphere';
+import { SoundingAtmosphere } from '../../app/model/sounding-atmosphere';
 import { expectClose } from './helpers';
 import ussa from '../fixtures/atmosphere/ussa1976.json';
 

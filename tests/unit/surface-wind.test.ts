@@ -1,18 +1,18 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import demo from '../../data/demo-plan.json';
-import { schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
-import type { PlanFile } from '../../app/core/plan';
-import { validatePlan } from '../../app/core/validate';
+import { schemaBounds, schemaMaxItems } from '../../app/formats/import-limits';
+import type { PlanFile } from '../../app/plan/plan';
+import { validatePlan } from '../../app/plan/validate';
+import { blendSurfaceReading } from '../../app/formats/surface-reading';
 import {
-  blendSurfaceReading,
   HELLMANN_NEUTRAL,
   mergeSurfaceProfile,
   surfaceProfile,
   TERRAIN,
   type TerrainClass,
-} from '../../app/core/surface-wind';
-import { windComponents } from '../../app/core/wind';
+} from '../../app/model/surface-wind';
+import { windComponents } from '../../app/model/wind';
 import { expectClose } from './helpers';
 
 const reading = { height_m: 10, speed_mps: 5, fromDeg: 240 };

@@ -5,11 +5,11 @@ import {
   decodeWindsAloft,
   stationLayers,
   type WindsAloftLayer,
-} from '../../app/core/winds-aloft';
+} from '../../app/formats/winds-aloft';
 import demo from '../../data/demo-plan.json';
-import { inSchemaRange, schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
-import type { PlanFile } from '../../app/core/plan';
-import { allowedRange, validatePlan } from '../../app/core/validate';
+import { inSchemaRange, schemaBounds, schemaMaxItems } from '../../app/formats/import-limits';
+import type { PlanFile } from '../../app/plan/plan';
+import { allowedRange, validatePlan } from '../../app/plan/validate';
 import { expectClose } from './helpers';
 
 // Invented bulletin in the NWS winds-aloft ("FB") layout (REFERENCES.md): levels in ft MSL, each

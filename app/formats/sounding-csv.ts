@@ -1,0 +1,492 @@
+/**
+ * Import of a wind/temperature sounding from a delimited text file (CSV, semicolon or tab) by
+ * papaparse. Units and the altitude reference come from the header ("altitude_ft_agl",
+ * "speed (kt)", "temp °C", "p hPa"); values are converted to SI. Never throws: bad rows are
+ * reported by line with the reason, good rows are kept. Winds and temperatures follow the
+ * importers' one rule (import-limits.ts): a value outside the plan schema's range is left out and
+ * reported with its line, field and range; rows past the plan's layer limits are not read.
+ */
+import Papa from 'papaparse';
+import { type AltitudeReference, M_PER_FT, MPS_PER_KT, type WindLayer } from '../model';
+import {
+  fmt,
+  MAX_IMPORT_BYTES,
+  onlyFirstMessage,
+  ProblemList,
+  rangeProblem,
+  schemaMaxItems,
+} from './import-limits';
+
+export interface SoundingProblem {
+  /** 1-based line of the file. */
+  line: number;
+  message: string;
+}
+
+export interface Sounding {
+  /** Altitude reference named in the header ("agl", "msl", "hAGL"…), else null. */
+  reference: AltitudeReference | null;
+  /** Wind layers, ascending altitude, SI. */
+  layers: WindLayer[];
+  /** Temperatures, altitude per `reference`, K, ascending. */
+  temperatures: { altitude_m: number; temperature_K: number }[];
+  /** Present when the file has a pressure column; Pa, ascending altitude. */
+  pressures?: { altitude_m: number; pressure_Pa: number }[];
+  /** Winds and temperatures read but not handed on (out of the plan's range or over its limits). */
+  notUsed: number;
+  problems: SoundingProblem[];
+}
+
+type Kind = 'altitude' | 'direction' | 'speed' | 'temperature' | 'pressure';
+
+interface Column {
+  kind: Kind;
+  index: number;
+  /** Multiplier (and for temperature an offset) to SI. */
+  scale: number;
+  offset: number;
+  unit: string;
+}
+
+// Kelvin at 0 °C (SI definition of the Celsius scale).
+const ZERO_C_K = 273.15;
+// Metres per statute mile (exact, international yard).
+const M_PER_MILE = 1609.344;
+// Pascal per inch of mercury at 0 °C (NIST SP 811, B.8).
+const PA_PER_INHG = 3386.389;
+
+const ALT_WORDS = [
+  'alt',
+  'altitude',
+  'height',
+  'hgt',
+  'h',
+  'z',
+  'hagl',
+  'hmsl',
+  'level',
+  'agl',
+  'msl',
+  'amsl',
+  'asl',
+];
+const DIR_WORDS = ['dir', 'direction', 'wdir', 'drct', 'wd', 'from', 'fromdeg'];
+const SPEED_WORDS = ['speed', 'spd', 'ws', 'wspd', 'sknt', 'ff', 'wind', 'velocity'];
+const TEMP_WORDS = ['t', 'temp', 'temperature', 'tmp', 'ta', 'tc', 'tk'];
+const PRES_WORDS = ['p', 'pres', 'press', 'pressure'];
+
+const splitWords = (cell: string): string[] =>
+  cell
+    .toLowerCase()
+    .split(/[^a-z0-9°/]+/)
+    .filter((w) => w !== '');
+
+function kindOf(words: string[]): Kind | null {
+  const has = (list: string[]) => words.some((w) => list.includes(w));
+  // Direction before speed: "wind dir" is a direction, "wind" alone a speed; speed before
+  // altitude: "speed km h" is a speed although "h" alone names a height.
+  if (has(DIR_WORDS)) return 'direction';
+  if (has(SPEED_WORDS)) return 'speed';
+  if (has(ALT_WORDS)) return 'altitude';
+  if (has(TEMP_WORDS)) return 'temperature';
+  if (has(PRES_WORDS)) return 'pressure';
+  return null;
+}
+
+/** Unit of a header cell for its kind; null = not stated (a default is assumed and reported). */
+function unitOf(kind: Kind, words: string[]): Omit<Column, 'kind' | 'index'> | null | 'unknown' {
+  const has = (...ws: string[]) => ws.some((w) => words.includes(w));
+  const pair = (a: string, b: string) => {
+    const i = words.indexOf(a);
+    return i >= 0 && words[i + 1] === b;
+  };
+  const u = (unit: string, scale: number, offset = 0) => ({ unit, scale, offset });
+  switch (kind) {
+    case 'altitude':
+      if (has('ft', 'feet', 'foot')) return u('ft', M_PER_FT);
+      if (has('km')) return u('km', 1000);
+      if (has('m', 'meter', 'meters', 'metre', 'metres')) return u('m', 1);
+      return null;
+    case 'direction':
+      if (has('rad', 'radians')) return 'unknown';
+      return u('deg', 1);
+    case 'speed':
+      if (has('kt', 'kts', 'knot', 'knots', 'kn', 'sknt')) return u('kt', MPS_PER_KT);
+      if (has('km/h', 'kmh', 'kph', 'kmph') || pair('km', 'h')) return u('km/h', 1000 / 3600);
+      if (has('mph')) return u('mph', M_PER_MILE / 3600);
+      if (has('m/s', 'mps', 'ms') || pair('m', 's')) return u('m/s', 1);
+      return null;
+    case 'temperature':
+      if (has('k', 'kelvin', 'tk')) return u('K', 1);
+      if (has('°f', 'f', 'degf', 'fahrenheit')) return u('°F', 5 / 9, ZERO_C_K - (32 * 5) / 9);
+      if (has('°c', 'c', 'degc', 'celsius', 'tc')) return u('°C', 1, ZERO_C_K);
+      return null;
+    case 'pressure':
+      if (has('hpa', 'mb', 'mbar', 'millibar', 'millibars')) return u('hPa', 100);
+      if (has('kpa')) return u('kPa', 1000);
+      if (has('inhg')) return u('inHg', PA_PER_INHG);
+      if (has('pa')) return u('Pa', 1);
+      return null;
+  }
+}
+
+function referenceOf(words: string[]): AltitudeReference | null {
+  if (words.some((w) => w === 'agl' || w === 'hagl')) return 'AGL';
+  if (words.some((w) => w === 'msl' || w === 'amsl' || w === 'asl' || w === 'hmsl')) return 'MSL';
+  return null;
+}
+
+const MISSING = new Set(['', 'na', 'n/a', 'nan', '-', '--', 'null', 'missing']);
+
+/** A number cell: '.' decimals, or ',' when the delimiter is not a comma. undefined = empty. */
+function numberCell(cell: string | undefined, decimalComma: boolean): number | undefined | null {
+  const t = (cell ?? '').trim().replace(/^[−–]/, '-');
+  if (MISSING.has(t.toLowerCase())) return undefined;
+  const s = decimalComma ? t.replace(',', '.') : t;
+  if (!/^[+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?$/i.test(s)) return null;
+  return Number(s);
+}
+
+// Pressure is not a plan field: a plausible span for the troposphere and lower stratosphere
+// (about 1 hPa near 48 km, 1200 hPa above any surface; U.S. Standard Atmosphere 1976).
+const PRESSURE_PA: [number, number] = [100, 120000];
+
+function detectDelimiter(line: string): string {
+  if (line.includes('\t')) return '\t';
+  if (line.includes(';')) return ';';
+  return ',';
+}
+
+/** The first line (0-based index and start offset) for which `test` holds, scanning lazily. */
+function findLine(body: string, test: (line: string) => boolean): { index: number; start: number } {
+  let at = 0;
+  for (let index = 0; at <= body.length; index++) {
+    const nl = body.indexOf('\n', at);
+    const end = nl < 0 ? body.length : nl;
+    if (test(body.slice(at, end))) return { index, start: at };
+    if (nl < 0) break;
+    at = nl + 1;
+  }
+  return { index: -1, start: -1 };
+}
+
+const DEFAULTS: Record<Kind, [string, number, number]> = {
+  altitude: ['m', 1, 0],
+  direction: ['deg', 1, 0],
+  speed: ['m/s', 1, 0],
+  temperature: ['°C', 1, ZERO_C_K],
+  pressure: ['hPa', 100, 0],
+};
+
+/** Columns of the header row; problems about units are reported on its line. */
+function headerColumns(
+  cells: string[],
+  line: number,
+  out: Sounding,
+  problems: ProblemList<SoundingProblem>,
+): Map<Kind, Column> {
+  const columns = new Map<Kind, Column>();
+  for (const [index, cell] of cells.entries()) {
+    const words = splitWords(cell);
+    const kind = kindOf(words);
+    if (!kind || columns.has(kind)) continue;
+    if (kind === 'altitude') out.reference = referenceOf(words);
+    const unit = unitOf(kind, words);
+    if (unit === 'unknown') {
+      problems.push({
+        line,
+        message: `column "${cell.trim()}": unit not supported; column ignored`,
+      });
+      continue;
+    }
+    if (unit === null && kind === 'temperature') {
+      columns.set(kind, { kind, index, scale: NaN, offset: NaN, unit: '?' });
+      continue;
+    }
+    const [du, ds, dof] = DEFAULTS[kind];
+    if (unit === null) {
+      problems.push({
+        line,
+        message: `column "${cell.trim()}": no unit in the header; assumed ${du}`,
+      });
+    }
+    columns.set(kind, {
+      kind,
+      index,
+      scale: unit?.scale ?? ds,
+      offset: unit?.offset ?? dof,
+      unit: unit?.unit ?? du,
+    });
+  }
+  return columns;
+}
+
+/** Imports a sounding from delimited text with a header row. Never throws. */
+export function importSounding(text: string): Sounding {
+  const out: Sounding = { reference: null, layers: [], temperatures: [], notUsed: 0, problems: [] };
+  const problems = new ProblemList<SoundingProblem>();
+  const finish = (): Sounding => {
+    out.problems = problems.items;
+    const tail = problems.tail();
+    if (tail) out.problems.push({ line: 0, message: tail });
+    return out;
+  };
+  if (typeof text !== 'string') {
+    problems.push({ line: 1, message: 'no text to import' });
+    return finish();
+  }
+  if (text.length > MAX_IMPORT_BYTES) {
+    problems.push({
+      line: 1,
+      message: `the file is larger than ${fmt(MAX_IMPORT_BYTES / 1048576)} MB, the most an import reads; nothing was read`,
+    });
+    return finish();
+  }
+  const body = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
+  const head = findLine(body, (l) => {
+    const ws = l.split(/[,;\t]/).map((c) => kindOf(splitWords(c)));
+    return !/^\s*#/.test(l) && ws.includes('altitude') && !/^[\s\d.,;+\-\t]*$/.test(l);
+  });
+  if (head.index < 0) {
+    problems.push({
+      line: 1,
+      message:
+        'no header row naming an altitude column (e.g. "altitude_m,direction_deg,speed_mps,temperature_C")',
+    });
+    return finish();
+  }
+  const rest = body.slice(head.start);
+  const nl = rest.indexOf('\n');
+  const delimiter = detectDelimiter(nl < 0 ? rest : rest.slice(0, nl));
+  const decimalComma = delimiter !== ',';
+  const maxLayers = schemaMaxItems('winds.layers');
+  const maxLevels = schemaMaxItems('atmosphere.sounding.levels');
+
+  let columns: Map<Kind, Column> | undefined;
+  let headerWidth = 0;
+  let cursor = 0;
+  let line = head.index + 1;
+  const firstAt = new Map<number, number>();
+  type Row = { z: number; wind?: WindLayer; t?: number; p?: number };
+  const kept: Row[] = [];
+  let winds = 0;
+  let temps = 0;
+  let cutWinds = 0;
+  let cutTemps = 0;
+  let lastWindLine = 0;
+  let lastTempLine = 0;
+  let stoppedAt = 0;
+
+  const readRow = (cells: string[], line: number, error: string | undefined): boolean => {
+    const cols = columns!;
+    const alt = cols.get('altitude')!;
+    const dir = cols.get('direction');
+    const spd = cols.get('speed');
+    const tmp = cols.get('temperature');
+    const prs = cols.get('pressure');
+    if (cells.every((c) => c.trim() === '') || /^\s*#/.test(cells[0] ?? '')) return true;
+    // "100,27,0,5,5" under four columns: decimal commas split numbers into more fields.
+    let width = cells.length;
+    while (width > 0 && cells[width - 1].trim() === '') width--;
+    if (width > headerWidth) {
+      problems.push({
+        line,
+        message:
+          `row has ${width} fields, header has ${headerWidth}` +
+          (delimiter === ',' ? ' — decimal commas? use ; as separator or . as decimal point' : '') +
+          '; row skipped',
+      });
+      return true;
+    }
+    const windsFull = !dir || !spd || winds >= maxLayers;
+    const tempsFull = !tmp || temps >= maxLevels;
+    if (windsFull && tempsFull && winds + temps > 0) {
+      stoppedAt = line;
+      return false;
+    }
+    const problem = (message: string) => problems.push({ line, message });
+    if (error) {
+      problem(`${error}; row skipped`);
+      return true;
+    }
+    const raw = (col: Column) => (cells[col.index] ?? '').trim();
+    const read = (col: Column | undefined): number | undefined | string => {
+      if (!col) return undefined;
+      const v = numberCell(cells[col.index], decimalComma);
+      if (v === null) return `${col.kind} "${raw(col)}" is not a number`;
+      if (v === undefined) return undefined;
+      const si = v * col.scale + col.offset;
+      return Number.isFinite(si) ? si : `${col.kind} "${raw(col)}" is not a finite number`;
+    };
+    if (tmp && tmp.unit === '?') {
+      // Unitless temperatures: Kelvin when the first value reads like one, else Celsius.
+      const first = numberCell(cells[tmp.index], decimalComma);
+      if (typeof first === 'number') {
+        Object.assign(
+          tmp,
+          first > 100
+            ? { unit: 'K', scale: 1, offset: 0 }
+            : { unit: '°C', scale: 1, offset: ZERO_C_K },
+        );
+        problems.push({
+          line: head.index + 1,
+          message: `temperature column has no unit in the header; assumed ${tmp.unit}`,
+        });
+      }
+    }
+    // Altitudes to the millimetre: no sounding is finer, and levels a few ulp apart (1e-300 m)
+    // would give the hydrostatic integration a meaningless lapse rate.
+    const zRaw = read(alt);
+    const z = typeof zRaw === 'number' ? Math.round(zRaw * 1000) / 1000 + 0 : zRaw;
+    if (typeof z !== 'number') {
+      problem(`${typeof z === 'string' ? z : 'altitude is empty'}; row skipped`);
+      return true;
+    }
+    if (out.reference === 'AGL' && z < 0) {
+      problem(`altitude ${fmt(z)} m is below ground; row skipped`);
+      return true;
+    }
+    if (firstAt.has(z)) {
+      problem(`altitude ${fmt(z)} m repeats line ${firstAt.get(z)}; kept the first`);
+      return true;
+    }
+    firstAt.set(z, line);
+    const r: Row = { z };
+    // The plan field's range problem, with the value as the file wrote it.
+    const check = (path: string, v: number, col?: Column): string | undefined => {
+      const m = rangeProblem(path, v);
+      return m && col ? `${m} (${raw(col)} ${col.unit} in the file)` : m;
+    };
+    const d = read(dir);
+    const s = read(spd);
+    for (const v of [d, s]) if (typeof v === 'string') problem(`${v}; wind left out`);
+    if (typeof d === 'number' && typeof s === 'number') {
+      const bad =
+        check('winds.layers[].altitude_m', z) ??
+        check('winds.layers[].fromDeg', d, dir) ??
+        check('winds.layers[].speed_mps', s, spd);
+      if (bad) {
+        problem(`${bad}; wind left out`);
+        out.notUsed++;
+      } else if (winds >= maxLayers) cutWinds++;
+      else {
+        r.wind = { altitude_m: z, fromDeg: d, speed_mps: s };
+        winds++;
+        lastWindLine = line;
+      }
+    } else if (
+      dir &&
+      spd &&
+      typeof d !== 'string' &&
+      typeof s !== 'string' &&
+      (d ?? s) !== undefined
+    ) {
+      problem(`${d === undefined ? 'direction' : 'speed'} is empty; wind left out`);
+    }
+    const t = read(tmp);
+    if (typeof t === 'string') problem(`${t}; temperature left out`);
+    else if (t !== undefined) {
+      const bad =
+        check('atmosphere.sounding.levels[].altitude_m', z) ??
+        check('atmosphere.sounding.levels[].temperature_K', t, tmp);
+      if (bad) {
+        problem(`${bad}; temperature left out`);
+        out.notUsed++;
+      } else if (temps >= maxLevels) cutTemps++;
+      else {
+        r.t = t;
+        temps++;
+        lastTempLine = line;
+      }
+    }
+    const p = read(prs);
+    if (typeof p === 'string') problem(`${p}; pressure left out`);
+    else if (p !== undefined) {
+      if (p >= PRESSURE_PA[0] && p <= PRESSURE_PA[1]) r.p = p;
+      else
+        problem(
+          `pressure ${raw(prs!)} ${prs!.unit} is outside ${fmt(PRESSURE_PA[0])}…${fmt(PRESSURE_PA[1])} Pa; pressure left out`,
+        );
+    }
+    if (r.wind || r.t !== undefined || r.p !== undefined) kept.push(r);
+    return true;
+  };
+
+  try {
+    Papa.parse<string[]>(rest, {
+      delimiter,
+      newline: '\n',
+      skipEmptyLines: false,
+      step: (res, parser) => {
+        const start = line;
+        const end = res.meta.cursor;
+        for (let i = cursor; i < end && i < rest.length; i++) if (rest.charCodeAt(i) === 10) line++;
+        cursor = end;
+        const cells = res.data.map((c) => String(c ?? ''));
+        if (!columns) {
+          columns = headerColumns(cells, start, out, problems);
+          headerWidth = cells.length;
+          while (headerWidth > 0 && cells[headerWidth - 1].trim() === '') headerWidth--;
+          if (!columns.has('altitude')) {
+            problems.push({ line: start, message: 'no altitude column in the header row' });
+            parser.abort();
+            return;
+          }
+          if (!columns.has('direction') || !columns.has('speed')) {
+            problems.push({
+              line: start,
+              message: `no ${!columns.has('direction') ? 'direction' : 'speed'} column; no wind layers read`,
+            });
+          }
+          if (columns.has('pressure')) out.pressures = [];
+          return;
+        }
+        if (!readRow(cells, start, res.errors[0]?.message)) parser.abort();
+      },
+    });
+  } catch (e) {
+    problems.push({ line: head.index + 1, message: `could not read: ${(e as Error).message}` });
+    return finish();
+  }
+  const notRead = stoppedAt ? `rows from line ${stoppedAt} on were not read` : '';
+  if (
+    cutWinds > 0 ||
+    (stoppedAt && columns?.has('direction') && columns?.has('speed') && winds >= maxLayers)
+  ) {
+    problems.push({
+      line: lastWindLine,
+      message: onlyFirstMessage(
+        winds,
+        'wind layers',
+        maxLayers,
+        0,
+        [cutWinds ? `the wind of ${fmt(cutWinds)} later row(s) was left out` : '', notRead]
+          .filter(Boolean)
+          .join('; '),
+      ),
+    });
+    out.notUsed += cutWinds;
+  }
+  if (cutTemps > 0 || (stoppedAt && columns?.has('temperature') && temps >= maxLevels)) {
+    problems.push({
+      line: lastTempLine,
+      message: onlyFirstMessage(
+        temps,
+        'temperatures',
+        maxLevels,
+        0,
+        [cutTemps ? `the temperature of ${fmt(cutTemps)} later row(s) was left out` : '', notRead]
+          .filter(Boolean)
+          .join('; '),
+      ),
+    });
+    out.notUsed += cutTemps;
+  }
+  kept.sort((a, b) => a.z - b.z);
+  for (const r of kept) {
+    if (r.wind) out.layers.push(r.wind);
+    if (r.t !== undefined) out.temperatures.push({ altitude_m: r.z, temperature_K: r.t });
+    if (r.p !== undefined) out.pressures?.push({ altitude_m: r.z, pressure_Pa: r.p });
+  }
+  return finish();
+}
