@@ -178,7 +178,7 @@ line(
   console.log(`\n1,000-site plan (${plan.sites.length} sites, ${plan.monteCarlo.samples} samples)`);
   line('  plan (planDrop)', sec(tPlan), true);
   line('  safety analysis (planSafety)', `${sec(tSafety)}  ${ratio(tSafety)}`, true);
-  // The CLI's export and brief each plan and run the safety analysis, then write (app/cli.ts).
+  // The CLI's export and brief each plan and run the safety analysis, then write (app/cli/).
   for (const [label, f] of outputs) {
     const [, t] = ms(f);
     const total = tPlan + tSafety + t;

@@ -97,7 +97,7 @@ describe('the brief from the command line', () => {
     const out = join(dir, 'brief.html');
     execFileSync(
       'node_modules/.bin/tsx',
-      ['app/cli.ts', 'brief', 'data/demo-plan.json', '--out', out],
+      ['app/cli/main.ts', 'brief', 'data/demo-plan.json', '--out', out],
       {
         stdio: 'pipe',
       },
@@ -110,7 +110,7 @@ describe('the brief from the command line', () => {
     execFileSync(
       'node_modules/.bin/tsx',
       [
-        'app/cli.ts',
+        'app/cli/main.ts',
         'brief',
         'data/demo-plan.json',
         '--out',
@@ -129,7 +129,7 @@ describe('the brief from the command line', () => {
     writeFileSync(bad, '{"format":"seedfall-plan","version":1}');
     let err = '';
     try {
-      execFileSync('node_modules/.bin/tsx', ['app/cli.ts', 'brief', bad, '--out', out], {
+      execFileSync('node_modules/.bin/tsx', ['app/cli/main.ts', 'brief', bad, '--out', out], {
         stdio: 'pipe',
       });
     } catch (e) {
@@ -140,7 +140,7 @@ describe('the brief from the command line', () => {
     try {
       execFileSync(
         'node_modules/.bin/tsx',
-        ['app/cli.ts', 'brief', 'data/demo-plan.json', '--paper', 'A5', '--out', out],
+        ['app/cli/main.ts', 'brief', 'data/demo-plan.json', '--paper', 'A5', '--out', out],
         {
           stdio: 'pipe',
         },

@@ -1,6 +1,6 @@
 /**
  * Node-only: prints an HTML document to PDF in Debian's Chromium through playwright-core (the
- * same browser the tests use). Kept out of app/core because it starts a browser.
+ * same browser the tests use). Only the CLI uses it: it starts a browser.
  */
 
 /** Chromium flags for this kind of machine: headless, sandbox-less as root, no background traffic. */
