@@ -21,7 +21,7 @@ import { naiveFlight } from '../app/model/naive-integrator';
 import { planDrop } from '../app/planner/planner';
 import { planSafety } from '../app/safety/plan-safety';
 import { Rng } from '../app/model/rng';
-import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../app/formats/export-formats';
+import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../app/formats';
 import { validatePlan } from '../app/plan/validate';
 import { WindProfile } from '../app/model/wind';
 import { type Uncertainty } from '../app/model/types';

@@ -1,24 +1,26 @@
 // Outside formats in and out: site import, GeoJSON/KML/GPX/CSV export, winds-aloft text, sounding CSV, surface readings.
 // The public face of app/formats/: other folders import from here only.
 export {
+  neutraliseCell,
+  toScheduleCSV,
+  toSitesCSV,
+  UTF8_BOM,
   type CsvOptions,
+  type ScheduleOptions,
+} from './csv';
+export { xmlEscape } from './export-shared';
+export {
+  toGeoJSON,
   type Feature,
   type FeatureCollection,
   type GeoJSONOptions,
   type Geometry,
-  neutraliseCell,
   type PolygonGeometry,
   type PolygonInput,
   type Position,
-  type ScheduleOptions,
-  toGeoJSON,
-  toGPX,
-  toKML,
-  toScheduleCSV,
-  toSitesCSV,
-  UTF8_BOM,
-  xmlEscape,
-} from './export-formats';
+} from './geojson';
+export { toGPX } from './gpx';
+export { toKML } from './kml';
 export {
   type Bounds,
   fmt,

@@ -3,7 +3,7 @@
 import { fileURLToPath } from 'node:url';
 import { runCli } from '../../app/cli';
 import { briefHtml } from '../../app/brief/brief-html';
-import { toSitesCSV } from '../../app/formats/export-formats';
+import { toSitesCSV } from '../../app/formats';
 import { briefSafety } from '../../app/brief/brief-safety';
 import { planSafety } from '../../app/safety/plan-safety';
 import { planDrop } from '../../app/planner/planner';

@@ -16,7 +16,7 @@ import {
   UTF8_BOM,
   type FeatureCollection,
   type Position,
-} from '../../app/formats/export-formats';
+} from '../../app/formats';
 import { importSites } from '../../app/formats/import-sites';
 import type { Plan } from '../../app/plan/plan';
 import { hazardArea } from '../../app/safety/hazard-area';
