@@ -13,14 +13,8 @@ import {
   usedVariants,
   windSpeeds,
 } from './check-result';
-import {
-  boxGap,
-  boxOf,
-  circumscribed,
-  clearanceLocal,
-  hazardPieces,
-  localZone,
-} from './hazard-area';
+import { boxGap, boxOf, clearanceLocal, localZone } from './clearance';
+import { circumscribed, hazardPieces } from './hazard-area';
 
 export function windCheck(plan: Plan, result: PlanResult): CheckResult {
   const w = windSpeeds(plan, result);

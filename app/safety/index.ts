@@ -1,12 +1,7 @@
 // Automatic safety checks, hazard area, crew checklist, readiness and sign-off.
 // The public face of app/safety/: other folders import from here only.
-export {
-  circumscribed,
-  clearance_m,
-  type ConvexPiece,
-  hazardArea,
-  hazardPieces,
-} from './hazard-area';
+export { clearance_m } from './clearance';
+export { circumscribed, type ConvexPiece, hazardArea, hazardPieces } from './hazard-area';
 export {
   blockingText,
   checklistOf,
