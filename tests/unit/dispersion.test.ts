@@ -111,7 +111,7 @@ describe('Monte Carlo of a circular-normal passive drop', () => {
   });
   const result = planDrop(plan);
 
-  // Rayleigh (REFERENCES.md): P(r < R) = 1 − exp(−R²/2σ²). A proportion's standard error is
+  // Rayleigh (docs/references.md): P(r < R) = 1 − exp(−R²/2σ²). A proportion's standard error is
   // √(p(1−p)/n); 4 standard errors (two-sided 6e-5) is the tolerance: 0.014 at n = 20000.
   for (const [i, R] of [
     [0, sigma],
@@ -123,7 +123,7 @@ describe('Monte Carlo of a circular-normal passive drop', () => {
     });
   }
 
-  // CEP = √(2 ln 2)·σ = 1.1774σ (REFERENCES.md). Standard error of a sample median:
+  // CEP = √(2 ln 2)·σ = 1.1774σ (docs/references.md). Standard error of a sample median:
   // 1/(2 f(m) √n) with the Rayleigh density f(m) = (m/σ²)·exp(−m²/2σ²) = 0.5887/σ at the median,
   // i.e. 0.849σ/√n; tolerance 4 standard errors (0.024σ at n = 20000).
   it('CEP ≈ 1.1774σ (circular normal)', () => {

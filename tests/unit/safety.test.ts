@@ -461,7 +461,7 @@ describe('readiness', () => {
 
 describe('impact energy with a sounding', () => {
   it('uses the sounding’s air: warmer, thinner air gives a faster touchdown and more energy', () => {
-    // Momentum theory (Leishman ch. 12, via REFERENCES.md): w ∝ ρ^−½, so E = ½m(w² + u²) grows
+    // Momentum theory (Leishman ch. 12, via docs/references.md): w ∝ ρ^−½, so E = ½m(w² + u²) grows
     // when the sounding is warmer than the ISA at the same pressure.
     const base = {
       release: { ...RELEASE, altitude_m: 100, reference: 'AGL' as const },

@@ -21,7 +21,7 @@ const at = (layers: { altitude_m: number; speed_mps: number }[], z: number) =>
 
 describe('terrain classes', () => {
   it('carry the Davenport–Wieringa roughness lengths', () => {
-    // Davenport–Wieringa roughness classification (WMO), REFERENCES.md.
+    // Davenport–Wieringa roughness classification (WMO), docs/references.md.
     const z0: Record<TerrainClass, number> = {
       sea: 0.0002,
       smooth: 0.005,
@@ -78,7 +78,7 @@ describe('power law', () => {
 
 describe('log law', () => {
   it('matches a hand calculation for z0 = 0.03 m', () => {
-    // Log law u = (u*/κ) ln(z/z0), κ ≈ 0.4 (REFERENCES.md); κ and u* cancel in the ratio:
+    // Log law u = (u*/κ) ln(z/z0), κ ≈ 0.4 (docs/references.md); κ and u* cancel in the ratio:
     // u(100)/u(10) = ln(100/0.03)/ln(10/0.03) = ln(3333.33…)/ln(333.33…)
     //              = 8.111728083308073 / 5.809142990314028 = 1.3963725969275156.
     const l = surfaceProfile(reading, { law: 'log', terrain: 'open', upTo_m: 100 });
