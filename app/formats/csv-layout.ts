@@ -1,7 +1,7 @@
 // How a sites CSV is laid out: its delimiter, its header (column names and their aliases) or
 // headerless form, and its rows.
-import Papa from 'papaparse';
 import { parseCoordinate } from '../model';
+import { delimitedRows } from './delimited';
 import { clip, type Problems, toNumber } from './site-reading';
 export type Col =
   | 'id'
@@ -91,28 +91,16 @@ export function csvRows(
   onRow: (row: Row) => boolean,
 ): void {
   const norm = text.replace(/\r\n?/g, '\n');
-  let cursor = 0;
-  let line = 1;
-  Papa.parse<string[]>(norm, {
-    delimiter,
-    newline: '\n',
-    skipEmptyLines: false,
-    step: (res, parser) => {
-      const start = line;
-      const end = res.meta.cursor;
-      for (let i = cursor; i < end && i < norm.length; i++) if (norm.charCodeAt(i) === 10) line++;
-      cursor = end;
-      for (const e of res.errors) {
-        problems.push({
-          line: start,
-          message: `line ${start}: ${e.message.replace(/\.$/, '')}; row not imported`,
-        });
-      }
-      if (res.errors.length > 0) return;
-      const cells = res.data.map((c) => String(c ?? ''));
-      if (cells.every((c) => c.trim() === '')) return; // blank lines are not data
-      if (!onRow({ line: start, cells })) parser.abort();
-    },
+  delimitedRows(norm, delimiter, 1, ({ cells, line, errors }) => {
+    for (const e of errors) {
+      problems.push({
+        line,
+        message: `line ${line}: ${e.message.replace(/\.$/, '')}; row not imported`,
+      });
+    }
+    if (errors.length > 0) return true;
+    if (cells.every((c) => c.trim() === '')) return true; // blank lines are not data
+    return onRow({ line, cells });
   });
 }
 

@@ -6,7 +6,7 @@
  * importers' one rule (import-limits.ts): a value outside the plan schema's range is left out and
  * reported with its line, field and range; rows past the plan's layer limits are not read.
  */
-import Papa from 'papaparse';
+import { delimitedRows } from './delimited';
 import type { AltitudeReference, WindLayer } from '../model';
 import {
   fmt,
@@ -91,8 +91,6 @@ export function importSounding(text: string): Sounding {
 
   let columns: Map<Kind, Column> | undefined;
   let headerWidth = 0;
-  let cursor = 0;
-  let line = head.index + 1;
   const firstAt = new Map<number, number>();
   type Row = { z: number; wind?: WindLayer; t?: number; p?: number };
   const kept: Row[] = [];
@@ -240,36 +238,25 @@ export function importSounding(text: string): Sounding {
   };
 
   try {
-    Papa.parse<string[]>(rest, {
-      delimiter,
-      newline: '\n',
-      skipEmptyLines: false,
-      step: (res, parser) => {
-        const start = line;
-        const end = res.meta.cursor;
-        for (let i = cursor; i < end && i < rest.length; i++) if (rest.charCodeAt(i) === 10) line++;
-        cursor = end;
-        const cells = res.data.map((c) => String(c ?? ''));
-        if (!columns) {
-          columns = headerColumns(cells, start, out, problems);
-          headerWidth = cells.length;
-          while (headerWidth > 0 && cells[headerWidth - 1].trim() === '') headerWidth--;
-          if (!columns.has('altitude')) {
-            problems.push({ line: start, message: 'no altitude column in the header row' });
-            parser.abort();
-            return;
-          }
-          if (!columns.has('direction') || !columns.has('speed')) {
-            problems.push({
-              line: start,
-              message: `no ${!columns.has('direction') ? 'direction' : 'speed'} column; no wind layers read`,
-            });
-          }
-          if (columns.has('pressure')) out.pressures = [];
-          return;
+    delimitedRows(rest, delimiter, head.index + 1, ({ cells, line: start, errors }) => {
+      if (!columns) {
+        columns = headerColumns(cells, start, out, problems);
+        headerWidth = cells.length;
+        while (headerWidth > 0 && cells[headerWidth - 1].trim() === '') headerWidth--;
+        if (!columns.has('altitude')) {
+          problems.push({ line: start, message: 'no altitude column in the header row' });
+          return false;
         }
-        if (!readRow(cells, start, res.errors[0]?.message)) parser.abort();
-      },
+        if (!columns.has('direction') || !columns.has('speed')) {
+          problems.push({
+            line: start,
+            message: `no ${!columns.has('direction') ? 'direction' : 'speed'} column; no wind layers read`,
+          });
+        }
+        if (columns.has('pressure')) out.pressures = [];
+        return true;
+      }
+      return readRow(cells, start, errors[0]?.message);
     });
   } catch (e) {
     problems.push({ line: head.index + 1, message: `could not read: ${(e as Error).message}` });
