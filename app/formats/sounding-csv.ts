@@ -263,38 +263,30 @@ export function importSounding(text: string): Sounding {
     return finish();
   }
   const notRead = stoppedAt ? `rows from line ${stoppedAt} on were not read` : '';
+  // Rows past the plan's limits: how many were kept, and which later values were left out.
+  const reportCut = (
+    n: number,
+    what: string,
+    max: number,
+    cut: number,
+    field: string,
+    line: number,
+  ) => {
+    const left = cut ? `the ${field} of ${fmt(cut)} later row(s) was left out` : '';
+    problems.push({
+      line,
+      message: onlyFirstMessage(n, what, max, 0, [left, notRead].filter(Boolean).join('; ')),
+    });
+    out.notUsed += cut;
+  };
   if (
     cutWinds > 0 ||
     (stoppedAt && columns?.has('direction') && columns?.has('speed') && winds >= maxLayers)
   ) {
-    problems.push({
-      line: lastWindLine,
-      message: onlyFirstMessage(
-        winds,
-        'wind layers',
-        maxLayers,
-        0,
-        [cutWinds ? `the wind of ${fmt(cutWinds)} later row(s) was left out` : '', notRead]
-          .filter(Boolean)
-          .join('; '),
-      ),
-    });
-    out.notUsed += cutWinds;
+    reportCut(winds, 'wind layers', maxLayers, cutWinds, 'wind', lastWindLine);
   }
   if (cutTemps > 0 || (stoppedAt && columns?.has('temperature') && temps >= maxLevels)) {
-    problems.push({
-      line: lastTempLine,
-      message: onlyFirstMessage(
-        temps,
-        'temperatures',
-        maxLevels,
-        0,
-        [cutTemps ? `the temperature of ${fmt(cutTemps)} later row(s) was left out` : '', notRead]
-          .filter(Boolean)
-          .join('; '),
-      ),
-    });
-    out.notUsed += cutTemps;
+    reportCut(temps, 'temperatures', maxLevels, cutTemps, 'temperature', lastTempLine);
   }
   kept.sort((a, b) => a.z - b.z);
   for (const r of kept) {
