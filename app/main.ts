@@ -1,5 +1,5 @@
-import './ui/seedfall-app';
-import type { SeedfallApp } from './ui/seedfall-app';
+import './ui';
+import type { SeedfallApp } from './ui';
 
 // Planning runs in a worker so dragging and typing never wait for the Monte Carlo.
 const app = document.querySelector('seedfall-app') as SeedfallApp | null;

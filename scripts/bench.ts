@@ -8,27 +8,23 @@
  * under 10 s (issue #9), and as ratios to the planning time.
  */
 import { readFileSync } from 'node:fs';
+import { briefHtml } from '../app/brief/brief-html';
+import { briefSafety } from '../app/brief/brief-safety';
+import { FallTable } from '../app/model/fall-table';
 import {
-  briefHtml,
-  briefSafety,
-  FallTable,
   fixedHeadingProgramme,
   flySamples,
-  naiveFlight,
   passiveOffset,
-  planDrop,
-  planSafety,
-  Rng,
-  toGeoJSON,
-  toGPX,
-  toKML,
-  toScheduleCSV,
-  toSitesCSV,
-  validatePlan,
-  WindProfile,
   type FlightSetup,
-  type Uncertainty,
-} from '../app/core/index';
+} from '../app/model/flight';
+import { naiveFlight } from '../app/model/naive-integrator';
+import { planDrop } from '../app/planner/planner';
+import { planSafety } from '../app/safety/plan-safety';
+import { Rng } from '../app/model/rng';
+import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../app/formats';
+import { validatePlan } from '../app/plan/validate';
+import { WindProfile } from '../app/model/wind';
+import { type Uncertainty } from '../app/model/types';
 import { makeField } from '../tests/support/make-field';
 
 const layers = Array.from({ length: 40 }, (_, i) => ({
@@ -182,7 +178,7 @@ line(
   console.log(`\n1,000-site plan (${plan.sites.length} sites, ${plan.monteCarlo.samples} samples)`);
   line('  plan (planDrop)', sec(tPlan), true);
   line('  safety analysis (planSafety)', `${sec(tSafety)}  ${ratio(tSafety)}`, true);
-  // The CLI's export and brief each plan and run the safety analysis, then write (app/cli.ts).
+  // The CLI's export and brief each plan and run the safety analysis, then write (app/cli/).
   for (const [label, f] of outputs) {
     const [, t] = ms(f);
     const total = tPlan + tSafety + t;

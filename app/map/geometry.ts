@@ -4,8 +4,7 @@
  * unit tests run it in Node. Also the graticule's interval choice (niceInterval), which lives
  * here because Leaflet cannot be loaded without a window.
  */
-import type { LatLon } from '../core/geodesy';
-import { alongTrack, ellipseRingLatLon } from '../core/rings';
+import { alongTrack, ellipseRingLatLon, type LatLon } from '../model';
 
 /** A [lat, lon] pair in degrees, Leaflet's order (GeoJSON is the reverse). */
 export type LatLngTuple = [number, number];

@@ -5,7 +5,7 @@
  * Tooltips hold site and variant ids from files, so they are built from text nodes (tooltip.ts).
  */
 import L from 'leaflet';
-import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../core/planner';
+import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../planner';
 import { circleRing, ellipseRing, trackSegment } from './geometry';
 import { lazyTip } from './tooltip';
 

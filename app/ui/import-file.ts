@@ -1,7 +1,14 @@
-import { importSites, type ImportOptions, type ImportResult } from '../core/import-sites';
-import { fmt, MAX_IMPORT_BYTES, WORKER_IMPORT_BYTES } from '../core/import-limits';
-import { importSounding, type Sounding } from '../core/sounding-csv';
-import type { ImportReply, ImportRequest } from '../worker/import-worker';
+import {
+  fmt,
+  type ImportOptions,
+  type ImportResult,
+  importSites,
+  importSounding,
+  MAX_IMPORT_BYTES,
+  type Sounding,
+  WORKER_IMPORT_BYTES,
+} from '../formats';
+import type { ImportReply, ImportRequest } from '../worker';
 
 type Req = ImportRequest extends infer R
   ? R extends { id: number }

@@ -1,10 +1,8 @@
-import { parseCoordinate } from '../core/coords';
-import type { Plan } from '../core/plan';
-import type { PlanSafety } from '../core/plan-safety';
-import type { PlanResult } from '../core/planner';
-import type { SweepPoint } from '../core/wind-plots';
-import { allowedRange, validatePlan, type PlanIssue } from '../core/validate';
-import type { WorkerReply } from '../worker/protocol';
+import { parseCoordinate } from '../model';
+import { allowedRange, type Plan, type PlanIssue, validatePlan } from '../plan';
+import type { PlanSafety } from '../safety';
+import type { PlanResult, SweepPoint } from '../planner';
+import type { WorkerReply } from '../worker';
 import { getAt, setAt } from './paths';
 import {
   checkSettings,

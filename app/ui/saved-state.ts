@@ -3,13 +3,7 @@
  * read as hostile input: anything stored may be damaged, hand-edited or written by another
  * version. Pure functions; the store (plan-store.ts) does the reading and writing.
  */
-import {
-  COORD_FORMATS,
-  DEFAULT_UNITS,
-  LENGTH_UNITS,
-  SPEED_UNITS,
-  type UnitPrefs,
-} from '../core/units';
+import { COORD_FORMATS, DEFAULT_UNITS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from './units';
 
 export const DRAFT_KEY = 'seedfall.draft.v1';
 /** A saved draft that could not be read, kept as it was (one copy at most). */

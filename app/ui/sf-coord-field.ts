@@ -1,6 +1,6 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { formatCoord } from '../core/units';
+import { formatCoord } from './units';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';

@@ -3,20 +3,23 @@ import leafletCss from 'leaflet/dist/leaflet.css?inline';
 import { LitElement, css, html, unsafeCSS } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { styleMap } from 'lit/directives/style-map.js';
-import { bearingDeg, distance_m } from '../core/geodesy';
-import type { Site, Variant } from '../core/plan';
-import type { SiteResult } from '../core/planner';
-import { formatCoord, formatLength } from '../core/units';
-import { bearingHandle, trackSegment } from '../map/geometry';
-import { Graticule } from '../map/graticule';
+import { bearingDeg, distance_m } from '../model';
+import type { Site, Variant } from '../plan';
+import type { SiteResult } from '../planner';
+import { formatCoord, formatLength } from './units';
 import {
+  bearingHandle,
   buildResultLayers,
   DEFAULT_VISIBILITY,
-  SHAPE_KINDS,
+  escapeHtml,
+  Graticule,
   type LayerVisibility,
+  SHAPE_KINDS,
   type ShapeKind,
-} from '../map/plan-layers';
-import { escapeHtml, lazyTip, tipNode } from '../map/tooltip';
+  lazyTip,
+  tipNode,
+  trackSegment,
+} from '../map';
 import { getAt } from './paths';
 import type { PlanStore } from './plan-store';
 import { nextSiteId } from './sf-sites-panel';

@@ -6,7 +6,7 @@ import {
   parseNumber,
   toDisplayLength,
   toDisplaySpeed,
-} from '../core/units';
+} from './units';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';

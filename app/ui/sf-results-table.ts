@@ -1,7 +1,7 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import type { SiteResult } from '../core/planner';
-import { formatLength } from '../core/units';
+import type { SiteResult } from '../planner';
+import { formatLength } from './units';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';

@@ -1,9 +1,8 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { CAUTION_TEXT } from '../core/caution';
-import type { ChecklistItem, NoDropZone } from '../core/plan';
-import { blockingText, checklistOf, planFingerprint } from '../core/plan-safety';
-import { DEFAULT_MANUAL_ITEMS } from '../core/readiness';
+import { CAUTION_TEXT } from '../brief';
+import { type ChecklistItem, type NoDropZone, planFingerprint } from '../plan';
+import { blockingText, checklistOf, DEFAULT_MANUAL_ITEMS } from '../safety';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';

@@ -1,9 +1,8 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { schemaMaxItems } from '../core/import-limits';
-import { FRAME_LIMIT_M } from '../core/plan-limits';
+import { schemaMaxItems } from '../formats';
+import { FRAME_LIMIT_M, type Site, type Variant } from '../plan';
 import { importSitesFile, tooLarge } from './import-file';
-import type { Site, Variant } from '../core/plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreController } from './store-controller';

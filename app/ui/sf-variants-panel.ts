@@ -1,6 +1,6 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { Variant } from '../core/plan';
+import type { Variant } from '../plan';
 import type { PlanStore } from './plan-store';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { StoreController } from './store-controller';

@@ -1,16 +1,19 @@
 import { LitElement, css, html } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
-import { windPlotSvg } from '../core/brief-svg';
-import type { TimelineEntry } from '../core/forecast-series';
-import { timelineSvg } from '../core/timeline-svg';
-import { hodographSvg, sweepHeightsAGL, sweepSvg, type SweepPoint } from '../core/wind-plots';
-import type { SweepReply, SweepRequest } from '../worker/sweep-worker';
-import type { WindLayer } from '../core/plan';
-import { rangeProblem, schemaMaxItems } from '../core/import-limits';
-import { blendSurfaceReading, TERRAIN, type TerrainClass } from '../core/surface-wind';
-import { fromDisplaySpeed, parseNumber } from '../core/units';
-import { decodeWindsAloft, stationLayers, type WindsAloft } from '../core/winds-aloft';
+import { hodographSvg, sweepSvg, timelineSvg, windPlotSvg } from '../brief';
+import { sweepHeightsAGL, type SweepPoint, type TimelineEntry } from '../planner';
+import type { SweepReply, SweepRequest } from '../worker';
+import { TERRAIN, type TerrainClass, type WindLayer } from '../model';
+import {
+  blendSurfaceReading,
+  decodeWindsAloft,
+  rangeProblem,
+  schemaMaxItems,
+  stationLayers,
+  type WindsAloft,
+} from '../formats';
+import { fromDisplaySpeed, parseNumber } from './units';
 import { importSoundingFile, tooLarge } from './import-file';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
@@ -19,7 +22,7 @@ import { StoreController } from './store-controller';
 /**
  * Ways to get wind into the plan without retyping: a sounding or profile CSV, a pasted
  * winds-aloft text forecast, a surface reading extended to the ground; and the wind plots.
- * The plots are our own SVG strings with all text escaped (app/core/brief-svg.ts).
+ * The plots are our own SVG strings with all text escaped (app/brief/brief-svg.ts).
  */
 @customElement('sf-wind-sources')
 export class SfWindSources extends LitElement {

@@ -1,8 +1,13 @@
 /// <reference lib="webworker" />
 // Reads and parses large import files (sites, soundings) off the main thread, so the page keeps
-// responding; the importers stop at the plan's limits (app/core/import-limits.ts).
-import { importSites, type ImportOptions, type ImportResult } from '../core/import-sites';
-import { importSounding, type Sounding } from '../core/sounding-csv';
+// responding; the importers stop at the plan's limits (app/formats/import-limits.ts).
+import {
+  type ImportOptions,
+  type ImportResult,
+  importSites,
+  importSounding,
+  type Sounding,
+} from '../formats';
 
 export type ImportRequest =
   | {

@@ -1,8 +1,8 @@
 /// <reference lib="webworker" />
 // Runs the planning core off the main thread: one request at a time, answered in order.
-import { planSafety, type PlanSafety } from '../core/plan-safety';
-import { planDrop } from '../core/planner';
-import type { Plan } from '../core/plan';
+import { planSafety, type PlanSafety } from '../safety';
+import { planDrop } from '../planner';
+import type { Plan } from '../plan';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 const post = (m: WorkerReply): void =>

@@ -1,6 +1,6 @@
-import type { Plan } from '../core/plan';
-import type { PlanSafety } from '../core/plan-safety';
-import type { PlanResult } from '../core/planner';
+import type { Plan } from '../plan';
+import type { PlanSafety } from '../safety';
+import type { PlanResult } from '../planner';
 
 /** Main thread → worker: plan this (already validated) plan. */
 export interface WorkerRequest {

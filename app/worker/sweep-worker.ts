@@ -1,9 +1,13 @@
 /// <reference lib="webworker" />
 // Runs altitude sweeps and forecast timelines (many small plans) off the main thread.
-import type { Plan } from '../core/plan';
-import { ForecastSeries, pHitTimeline, type TimelineEntry } from '../core/forecast-series';
-import { planWindOptions } from '../core/wind';
-import { altitudeSweep, type SweepPoint } from '../core/wind-plots';
+import { type Plan, planWindOptions } from '../plan';
+import {
+  altitudeSweep,
+  ForecastSeries,
+  pHitTimeline,
+  type SweepPoint,
+  type TimelineEntry,
+} from '../planner';
 
 export type SweepRequest =
   | {

@@ -1,6 +1,6 @@
 import { mkdirSync } from 'node:fs';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../app/print-pdf';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../app/cli/print-pdf';
 
 /** Debian's Chromium, started as the probe on these machines starts it (see DEVELOPERS.md). */
 export async function launch(): Promise<Browser> {

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import demo from '../../data/demo-plan.json';
-import { schemaMaxItems } from '../../app/core/import-limits';
+import { schemaMaxItems } from '../../app/formats/import-limits';
 import { launch, openApp, shot } from './browser';
 
 let browser: Browser;

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
-import { validatePlan } from '../../app/core/validate';
+import { validatePlan } from '../../app/plan/validate';
 import { launch, openApp, shot } from './browser';
 
 let browser: Browser;

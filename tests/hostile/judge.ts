@@ -1,10 +1,10 @@
 /**
  * How a hostile case is judged: an independent reading of the documented ranges
- * (app/core/plan.schema.json walked here without ajv, so a validator bug cannot hide itself), and
+ * (app/plan/plan.schema.json walked here without ajv, so a validator bug cannot hide itself), and
  * the verdicts for CLI runs and importer results. A verdict is a list of failures; empty = held.
  */
 import Papa from 'papaparse';
-import schemaJson from '../../app/core/plan.schema.json';
+import schemaJson from '../../app/plan/plan.schema.json';
 
 type Json = Record<string, unknown>;
 type Node = Json;

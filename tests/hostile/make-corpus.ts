@@ -5,14 +5,14 @@
  *   npx tsx tests/hostile/make-corpus.ts     writes the small cases to tests/hostile/cases/
  *
  * Plan cases are mutations of data/demo-plan.json; numeric ranges are read from
- * app/core/plan.schema.json when this runs, so the corpus follows the documented ranges. Large
+ * app/plan/plan.schema.json when this runs, so the corpus follows the documented ranges. Large
  * cases (bounded-read, size-limit and speed probes) are made by `largeCases()` at test time.
  */
 import { writeFileSync, mkdirSync, rmSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import demoJson from '../../data/demo-plan.json';
-import schemaJson from '../../app/core/plan.schema.json';
+import schemaJson from '../../app/plan/plan.schema.json';
 import type { CaseMeta, CliRun } from './judge';
 
 type Json = Record<string, unknown>;

@@ -9,13 +9,14 @@ import { existsSync, readFileSync, rmSync, statSync, writeSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { runCli } from '../../app/cli';
-import { importSites } from '../../app/core/import-sites';
-import { importSounding } from '../../app/core/sounding-csv';
-import { FRAME_LIMIT_M } from '../../app/core/plan-limits';
-import { blendSurfaceReading, type TerrainClass } from '../../app/core/surface-wind';
-import { validatePlan } from '../../app/core/validate';
-import { decodeWindsAloft, stationLayers } from '../../app/core/winds-aloft';
-import type { WindLayer } from '../../app/core/plan';
+import { importSites } from '../../app/formats/import-sites';
+import { importSounding } from '../../app/formats/sounding-csv';
+import { FRAME_LIMIT_M } from '../../app/plan/plan-limits';
+import { blendSurfaceReading } from '../../app/formats/surface-reading';
+import { type TerrainClass } from '../../app/model/surface-wind';
+import { validatePlan } from '../../app/plan/validate';
+import { decodeWindsAloft, stationLayers } from '../../app/formats/winds-aloft';
+import type { WindLayer } from '../../app/model/types';
 import demoJson from '../../data/demo-plan.json';
 import {
   judgeCli,

@@ -84,7 +84,7 @@ function runProcess(run: CliRun, path: string, out: string): Promise<CliOutcome>
   return new Promise((done) => {
     const child = spawn(
       process.execPath,
-      [...NODE_ARGS, 'app/cli.ts', ...cliArgs(run, path, out)],
+      [...NODE_ARGS, 'app/cli/main.ts', ...cliArgs(run, path, out)],
       {
         cwd: ROOT,
         stdio: ['ignore', 'pipe', 'pipe'],

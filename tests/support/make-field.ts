@@ -3,8 +3,8 @@
  * Deterministic: the same (n, seed) gives the same plan file, byte for byte.
  */
 import { readFileSync } from 'node:fs';
-import { Rng } from '../../app/core/rng';
-import type { PlanFile, Site } from '../../app/core/plan';
+import { Rng } from '../../app/model/rng';
+import type { PlanFile, Site } from '../../app/plan/plan';
 
 const DEMO_URL = new URL('../../data/demo-plan.json', import.meta.url);
 const TOLERANCES_M = [5, 8, 10, 15, 20, 25, 60];

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { FallTable } from '../../app/core/fall-table';
-import { flySamples, passiveOffset, type FlightSetup } from '../../app/core/flight';
-import { Rng } from '../../app/core/rng';
-import { WindProfile } from '../../app/core/wind';
-import type { Uncertainty } from '../../app/core/plan';
+import { FallTable } from '../../app/model/fall-table';
+import { flySamples, passiveOffset, type FlightSetup } from '../../app/model/flight';
+import { Rng } from '../../app/model/rng';
+import { WindProfile } from '../../app/model/wind';
+import type { Uncertainty } from '../../app/model/types';
 
 const wind = new WindProfile(
   [

@@ -5,11 +5,11 @@ import {
   densityAt,
   geopotentialAltitude,
   isaAtGeopotential,
-} from '../../app/core/atmosphere';
+} from '../../app/model/atmosphere';
 import { expectClose } from './helpers';
 import ussa from '../fixtures/atmosphere/ussa1976.json';
 
-// U.S. Standard Atmosphere 1976 (COESA), via REFERENCES.md (SEEN): see the fixture's source.
+// U.S. Standard Atmosphere 1976 (COESA), via docs/references.md (SEEN): see the fixture's source.
 // Tolerances are half a unit of the last printed digit.
 const USSA1976 = ussa.rows;
 
@@ -23,7 +23,7 @@ describe('U.S. Standard Atmosphere 1976 below the tropopause', () => {
     });
   }
 
-  // USSA 1976 tropopause (REFERENCES.md, SEEN): 216.65 K, 22632.1 Pa, 0.363918 kg/m³. The 1976
+  // USSA 1976 tropopause (docs/references.md, SEEN): 216.65 K, 22632.1 Pa, 0.363918 kg/m³. The 1976
   // tables print this pressure as 2.2632E+04 (from memory); the equations with R = 287.05287
   // give 22632.04 Pa, so the pressure check allows 0.1 Pa (4e-6 relative), not half a digit.
   it('gives the USSA 1976 tropopause values at 11 000 m geopotential', () => {
@@ -83,7 +83,7 @@ describe('ISA temperature offset', () => {
 });
 
 describe('geometric and geopotential altitude', () => {
-  // REFERENCES.md: at 1000 m geometric and geopotential altitude differ by 0.16 m
+  // docs/references.md: at 1000 m geometric and geopotential altitude differ by 0.16 m
   // (USSA 1976 eq. 18, r0 = 6 356 766 m).
   it('puts 1000 m geometric about 0.16 m above 1000 m geopotential', () => {
     expectClose(1000 - geopotentialAltitude(1000), 0.16, 0.005, 'difference');

@@ -3,9 +3,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { briefHtml, briefTimes, scheduleOrder } from '../../app/core/brief-html';
-import { planDrop } from '../../app/core/planner';
-import { validatePlan } from '../../app/core/validate';
+import { briefHtml, briefTimes, scheduleOrder } from '../../app/brief/brief-html';
+import { planDrop } from '../../app/planner/planner';
+import { validatePlan } from '../../app/plan/validate';
 import demo from '../../data/demo-plan.json';
 
 function demoPlan(patch: (d: typeof demo) => void = () => {}) {
@@ -97,7 +97,7 @@ describe('the brief from the command line', () => {
     const out = join(dir, 'brief.html');
     execFileSync(
       'node_modules/.bin/tsx',
-      ['app/cli.ts', 'brief', 'data/demo-plan.json', '--out', out],
+      ['app/cli/main.ts', 'brief', 'data/demo-plan.json', '--out', out],
       {
         stdio: 'pipe',
       },
@@ -110,7 +110,7 @@ describe('the brief from the command line', () => {
     execFileSync(
       'node_modules/.bin/tsx',
       [
-        'app/cli.ts',
+        'app/cli/main.ts',
         'brief',
         'data/demo-plan.json',
         '--out',
@@ -129,7 +129,7 @@ describe('the brief from the command line', () => {
     writeFileSync(bad, '{"format":"seedfall-plan","version":1}');
     let err = '';
     try {
-      execFileSync('node_modules/.bin/tsx', ['app/cli.ts', 'brief', bad, '--out', out], {
+      execFileSync('node_modules/.bin/tsx', ['app/cli/main.ts', 'brief', bad, '--out', out], {
         stdio: 'pipe',
       });
     } catch (e) {
@@ -140,7 +140,7 @@ describe('the brief from the command line', () => {
     try {
       execFileSync(
         'node_modules/.bin/tsx',
-        ['app/cli.ts', 'brief', 'data/demo-plan.json', '--paper', 'A5', '--out', out],
+        ['app/cli/main.ts', 'brief', 'data/demo-plan.json', '--paper', 'A5', '--out', out],
         {
           stdio: 'pipe',
         },

@@ -5,10 +5,10 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { jsonSyntaxError, MAX_LISTED_PROBLEMS, runCli as runInProcess } from '../../app/cli';
-import { CAUTION_TEXT } from '../../app/core/caution';
+import { CAUTION_TEXT } from '../../app/brief/caution';
 import demo from '../../data/demo-plan.json';
 
-// The CLI contract (app/cli.ts header): JSON or text on stdout, exit 0
+// The CLI contract (app/cli/main.ts header): JSON or text on stdout, exit 0
 // when planned, 1 for usage/file errors, 2 for an invalid plan; problems go to stderr.
 const TSX = 'node_modules/.bin/tsx';
 
@@ -20,7 +20,7 @@ interface Run {
 
 function runCli(...args: string[]): Run {
   try {
-    const stdout = execFileSync(TSX, ['app/cli.ts', ...args], {
+    const stdout = execFileSync(TSX, ['app/cli/main.ts', ...args], {
       encoding: 'utf8',
       stdio: ['ignore', 'pipe', 'pipe'],
       timeout: 60_000,
@@ -301,7 +301,7 @@ describe('CLI file reading', () => {
       lon: 21.08,
       variant: 'u'.repeat(64),
     }));
-    const r = spawnSync(TSX, ['app/cli.ts', writePlan('many.json', bad)], {
+    const r = spawnSync(TSX, ['app/cli/main.ts', writePlan('many.json', bad)], {
       encoding: 'utf8',
       stdio: ['ignore', 'pipe', 'pipe'],
       timeout: 60_000,

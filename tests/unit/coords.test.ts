@@ -13,7 +13,7 @@ import {
   toUTM,
   utmBand,
   utmZone,
-} from '../../app/core/coords';
+} from '../../app/model/coords';
 
 // Ground distance between two points, m (GeographicLib, WGS84).
 const gap = (a: { lat: number; lon: number }, b: { lat: number; lon: number }): number =>

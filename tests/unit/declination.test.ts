@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import geomagnetism from 'geomagnetism';
-import { WMM_VALIDITY, magneticDeclination, magneticHeading } from '../../app/core/declination';
+import { WMM_VALIDITY, magneticDeclination, magneticHeading } from '../../app/model/declination';
 
 /** Decimal year (WMM convention: fraction of that calendar year) → Date (UTC). */
 function fromDecimalYear(y: number): Date {
@@ -63,7 +63,7 @@ describe('magneticDeclination against the WMM2025 test values', () => {
     }
   });
 
-  // WMM2025 test values, NOAA NCEI / BGS, Dec 2024 (rows quoted in REFERENCES.md).
+  // WMM2025 test values, NOAA NCEI / BGS, Dec 2024 (rows quoted in docs/references.md).
   it.each([
     [2025.0, 28, 89, -121, -99.77],
     [2025.0, 65, 43, 93, 0.5],
@@ -90,7 +90,7 @@ describe('validity window', () => {
     expect(m.name).toBe('WMM-2025');
     expect(new Date(m.start_date).toISOString()).toBe(WMM_VALIDITY.validFrom);
     expect(new Date(m.end_date).toISOString()).toBe(WMM_VALIDITY.validTo);
-    // WMM2025 validity 2024-11-13 … 2029-11-13 (REFERENCES.md, geomagnetism 0.2.0 data).
+    // WMM2025 validity 2024-11-13 … 2029-11-13 (docs/references.md, geomagnetism 0.2.0 data).
     expect(WMM_VALIDITY.validFrom.slice(0, 10)).toBe('2024-11-13');
     expect(WMM_VALIDITY.validTo.slice(0, 10)).toBe('2029-11-13');
   });

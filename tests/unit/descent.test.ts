@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { airAt } from '../../app/core/atmosphere';
-import { FallTable } from '../../app/core/fall-table';
+import { airAt } from '../../app/model/atmosphere';
+import { FallTable } from '../../app/model/fall-table';
 import {
   fixedHeadingProgramme,
   forwardThrow,
@@ -9,16 +9,16 @@ import {
   reachRadius,
   type FlightSetup,
   type Vec,
-} from '../../app/core/flight';
-import { naiveFlight } from '../../app/core/naive-integrator';
-import type { Guidance, WindLayer } from '../../app/core/plan';
-import { planDrop } from '../../app/core/planner';
-import { WindProfile } from '../../app/core/wind';
+} from '../../app/model/flight';
+import { naiveFlight } from '../../app/model/naive-integrator';
+import type { Guidance, WindLayer } from '../../app/model/types';
+import { planDrop } from '../../app/planner/planner';
+import { WindProfile } from '../../app/model/wind';
 import { expectClose, makePlan } from './helpers';
 
-// Sea-level standard density, USSA 1976 (REFERENCES.md, SEEN): the reference of descentRate_mps.
+// Sea-level standard density, USSA 1976 (docs/references.md, SEEN): the reference of descentRate_mps.
 const RHO0 = 1.225;
-// Standard gravity, USSA 1976 (REFERENCES.md, SEEN).
+// Standard gravity, USSA 1976 (docs/references.md, SEEN).
 const G0 = 9.80665;
 const DEG = Math.PI / 180;
 
@@ -92,7 +92,7 @@ function altitudeLost(wSL: number, z0: number, zGround: number, t_s: number, isa
 }
 
 describe('drift in a uniform wind', () => {
-  // Field-manual practice (REFERENCES.md "Unguided release-point practice"): drift = wind × fall time.
+  // Field-manual practice (docs/references.md "Unguided release-point practice"): drift = wind × fall time.
   it('drift equals wind times fall time in a uniform wind', () => {
     // One layer at 0 m AGL: the profile is uniform above the ground (wind.ts, constant above top).
     const layers = [{ altitude_m: 0, fromDeg: 250, speed_mps: 6 }];
@@ -113,7 +113,7 @@ describe('drift in a uniform wind', () => {
     expectClose(off.y, carrier.y * table.fallTime_s, 1e-9, 'north');
   });
 
-  // Linear-drag relaxation (REFERENCES.md, from memory): a body released from a hovering carrier
+  // Linear-drag relaxation (docs/references.md, from memory): a body released from a hovering carrier
   // starts at rest over the ground and lags the air by wind·τ, τ = w/g.
   it('a hovering carrier in a uniform wind lands wind × (fall time − w/g) downwind', () => {
     const layers = [{ altitude_m: 0, fromDeg: 270, speed_mps: 5 }];
@@ -126,7 +126,7 @@ describe('drift in a uniform wind', () => {
 
 describe('fall time with the density correction', () => {
   // Momentum theory of vertical autorotation: w ∝ ρ^−½ (Leishman, Principles of Helicopter
-  // Aerodynamics, 2nd ed., ch. 12, via REFERENCES.md). Fall time = ∫ dz / w(z), integrated here
+  // Aerodynamics, 2nd ed., ch. 12, via docs/references.md). Fall time = ∫ dz / w(z), integrated here
   // independently by composite Simpson's rule (2000 intervals: error ≪ 1 µs for this smooth integrand).
   for (const c of [
     { top: 120, bottom: 0, wSL: 3, isa: 0 },
@@ -155,7 +155,7 @@ describe('fall time with the density correction', () => {
     expectClose(table.wTop_mps, 3.1, 1e-7, 'w at 0 m');
   });
 
-  // USSA 1976 density at 1000 m geopotential 1.11164 kg/m³ (REFERENCES.md); 1000 m geopotential
+  // USSA 1976 density at 1000 m geopotential 1.11164 kg/m³ (docs/references.md); 1000 m geopotential
   // is 1000.157 m geometric (USSA 1976 eq. 18). w/w_SL = √(1.225/1.11164) = 1.04975; tolerance
   // from the table's last digit: ½·5e-6/1.11164 = 2.2e-6 relative.
   it('w(z)/w_SL = √(ρ0/ρ(z)) at 1000 m geopotential with the USSA 1976 density 1.11164 kg/m³', () => {
@@ -166,7 +166,7 @@ describe('fall time with the density correction', () => {
     expectClose(ratio, 1.04975, 0.00001, 'hand value');
   });
 
-  // Momentum theory (REFERENCES.md): V = √(2W/(ρAC)), so descent speed scales as √(m/m_ref) and
+  // Momentum theory (docs/references.md): V = √(2W/(ρAC)), so descent speed scales as √(m/m_ref) and
   // every time of fall as √(m_ref/m).
   it('scales the descent rate by √(m/m_ref) for a heavier payload', () => {
     const light = planDrop(
@@ -303,7 +303,7 @@ describe('reach of a steered vehicle', () => {
 });
 
 describe('forward throw', () => {
-  // Linear-drag relaxation time τ = w/g (REFERENCES.md, from memory / common practice): the
+  // Linear-drag relaxation time τ = w/g (docs/references.md, from memory / common practice): the
   // released body keeps the carrier's air-relative velocity for τ.
   it('forward throw = (carrier ground velocity − wind at release) · w/g', () => {
     const layers = [

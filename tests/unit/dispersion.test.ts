@@ -1,18 +1,18 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { covarianceEllipse, ellipseScale, median } from '../../app/core/dispersion';
-import { FallTable } from '../../app/core/fall-table';
+import { covarianceEllipse, ellipseScale, median } from '../../app/model/dispersion';
+import { FallTable } from '../../app/model/fall-table';
 import {
   fixedHeadingProgramme,
   flySamples,
   passiveOffset,
   reachRadius,
   type FlightSetup,
-} from '../../app/core/flight';
-import { naiveFlight } from '../../app/core/naive-integrator';
-import { planDrop } from '../../app/core/planner';
-import { Rng } from '../../app/core/rng';
-import { WindProfile } from '../../app/core/wind';
+} from '../../app/model/flight';
+import { naiveFlight } from '../../app/model/naive-integrator';
+import { planDrop } from '../../app/planner/planner';
+import { Rng } from '../../app/model/rng';
+import { WindProfile } from '../../app/model/wind';
 import { RELEASE, expectClose, geodesicDistance_m, makePlan, offsetLatLng } from './helpers';
 
 const DEG = Math.PI / 180;
@@ -111,7 +111,7 @@ describe('Monte Carlo of a circular-normal passive drop', () => {
   });
   const result = planDrop(plan);
 
-  // Rayleigh (REFERENCES.md): P(r < R) = 1 − exp(−R²/2σ²). A proportion's standard error is
+  // Rayleigh (docs/references.md): P(r < R) = 1 − exp(−R²/2σ²). A proportion's standard error is
   // √(p(1−p)/n); 4 standard errors (two-sided 6e-5) is the tolerance: 0.014 at n = 20000.
   for (const [i, R] of [
     [0, sigma],
@@ -123,7 +123,7 @@ describe('Monte Carlo of a circular-normal passive drop', () => {
     });
   }
 
-  // CEP = √(2 ln 2)·σ = 1.1774σ (REFERENCES.md). Standard error of a sample median:
+  // CEP = √(2 ln 2)·σ = 1.1774σ (docs/references.md). Standard error of a sample median:
   // 1/(2 f(m) √n) with the Rayleigh density f(m) = (m/σ²)·exp(−m²/2σ²) = 0.5887/σ at the median,
   // i.e. 0.849σ/√n; tolerance 4 standard errors (0.024σ at n = 20000).
   it('CEP ≈ 1.1774σ (circular normal)', () => {

@@ -16,12 +16,12 @@ import {
   UTF8_BOM,
   type FeatureCollection,
   type Position,
-} from '../../app/core/export-formats';
-import { importSites } from '../../app/core/import-sites';
-import type { Plan } from '../../app/core/plan';
-import { hazardArea } from '../../app/core/hazard-area';
-import { planDrop, type PlanResult } from '../../app/core/planner';
-import { validatePlan } from '../../app/core/validate';
+} from '../../app/formats';
+import { importSites } from '../../app/formats/import-sites';
+import type { Plan } from '../../app/plan/plan';
+import { hazardArea } from '../../app/safety/hazard-area';
+import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { validatePlan } from '../../app/plan/validate';
 import { ellipseRing } from '../../app/map/geometry';
 import demo from '../../data/demo-plan.json';
 import { NOW, expectClose } from './helpers';

@@ -1,12 +1,12 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { FallTable } from '../../app/core/fall-table';
-import { FRAME_LIMIT_M, variantExtent } from '../../app/core/plan-limits';
-import { planDrop, type PlanResult } from '../../app/core/planner';
-import { hitProfile, runAround, searchEdge } from '../../app/core/release-window';
-import { formatPlanText } from '../../app/core/report-text';
-import { validatePlan } from '../../app/core/validate';
-import { WindProfile } from '../../app/core/wind';
+import { FallTable } from '../../app/model/fall-table';
+import { FRAME_LIMIT_M, variantExtent } from '../../app/plan/plan-limits';
+import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { hitProfile, runAround, searchEdge } from '../../app/model/release-window';
+import { formatPlanText } from '../../app/brief/report-text';
+import { validatePlan } from '../../app/plan/validate';
+import { WindProfile } from '../../app/model/wind';
 import demo from '../../data/demo-plan.json';
 import { NOW, geodesicDistance_m } from './helpers';
 

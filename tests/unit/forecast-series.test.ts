@@ -5,9 +5,9 @@ import {
   pHitTimeline,
   windowsFromTimeline,
   type TimelineEntry,
-} from '../../app/core/forecast-series';
-import { planDrop } from '../../app/core/planner';
-import { WindProfile, windComponents } from '../../app/core/wind';
+} from '../../app/planner/forecast-series';
+import { planDrop } from '../../app/planner/planner';
+import { WindProfile, windComponents } from '../../app/model/wind';
 import { expectClose, makePlan } from './helpers';
 
 const T0 = '2026-06-01T09:00:00Z';

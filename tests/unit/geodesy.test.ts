@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { Geodesic } from 'geographiclib-geodesic';
-import { LocalFrame, bearingDeg, destination, distance_m } from '../../app/core/geodesy';
+import { LocalFrame, bearingDeg, destination, distance_m } from '../../app/model/geodesy';
 
 // Reference: GeographicLib (Karney 2013), npm geographiclib-geodesic, WGS84; accurate to ~15 nm.
 const ref = Geodesic.WGS84;

@@ -1,8 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import type { PlanFile } from '../../app/core/plan';
-import { planDrop } from '../../app/core/planner';
-import { validatePlan } from '../../app/core/validate';
+import type { PlanFile } from '../../app/plan/plan';
+import { planDrop } from '../../app/planner/planner';
+import { validatePlan } from '../../app/plan/validate';
 import demo from '../../data/demo-plan.json';
 import { NOW, RELEASE, geodesicDistance_m, makePlan, offsetLatLng } from './helpers';
 

@@ -17,18 +17,18 @@ import {
 } from '@turf/turf';
 import type { Feature, Polygon } from 'geojson';
 import { describe, expect, it } from 'vitest';
-import { LocalFrame } from '../../app/core/geodesy';
+import { LocalFrame } from '../../app/model/geodesy';
 import {
   circumscribed,
   hazardArea,
   hazardPieces,
   toRing,
   unionLocal,
-} from '../../app/core/hazard-area';
-import { planDrop, type PlanResult } from '../../app/core/planner';
-import { safetyChecks, DEFAULT_SAFETY_SETTINGS } from '../../app/core/safety';
-import type { Plan } from '../../app/core/plan';
-import { validatePlan } from '../../app/core/validate';
+} from '../../app/safety/hazard-area';
+import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { safetyChecks, DEFAULT_SAFETY_SETTINGS } from '../../app/safety/safety';
+import type { Plan } from '../../app/plan/plan';
+import { validatePlan } from '../../app/plan/validate';
 import { makeField } from '../support/make-field';
 import { NOW, expectClose } from './helpers';
 

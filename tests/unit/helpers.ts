@@ -1,8 +1,8 @@
 /** Shared helpers of the unit tests: float comparison, distance on the ellipsoid, test plans. */
 import { Geodesic } from 'geographiclib-geodesic';
 import { expect } from 'vitest';
-import type { Plan, PlanFile } from '../../app/core/plan';
-import { resolvePlan } from '../../app/core/plan-defaults';
+import type { Plan, PlanFile } from '../../app/plan/plan';
+import { resolvePlan } from '../../app/plan/plan-defaults';
 
 /** Fixed resolution time, inside the WMM2025 validity span, so results never depend on the clock. */
 export const NOW = new Date('2026-06-01T10:00:00Z');

@@ -9,11 +9,11 @@ import {
   MAX_LISTED_PROBLEMS,
   schemaBounds,
   schemaMaxItems,
-} from '../../app/core/import-limits';
-import { importSites, type ImportResult } from '../../app/core/import-sites';
-import type { PlanFile } from '../../app/core/plan';
-import { FRAME_LIMIT_M } from '../../app/core/plan-limits';
-import { allowedRange, validatePlan } from '../../app/core/validate';
+} from '../../app/formats/import-limits';
+import { importSites, type ImportResult } from '../../app/formats/import-sites';
+import type { PlanFile } from '../../app/plan/plan';
+import { FRAME_LIMIT_M } from '../../app/plan/plan-limits';
+import { allowedRange, validatePlan } from '../../app/plan/validate';
 import { expectClose } from './helpers';
 
 // mgrs ships CommonJS to Node (default export only) and ESM to bundlers.

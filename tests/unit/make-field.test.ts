@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { validatePlan } from '../../app/core/validate';
+import { validatePlan } from '../../app/plan/validate';
 import { makeField } from '../support/make-field';
 import { NOW } from './helpers';
 

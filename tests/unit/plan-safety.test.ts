@@ -1,9 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import type { PlanFile } from '../../app/core/plan';
-import { planFingerprint, planSafety } from '../../app/core/plan-safety';
-import { planDrop } from '../../app/core/planner';
-import { DEFAULT_MANUAL_ITEMS } from '../../app/core/readiness';
-import { validatePlan } from '../../app/core/validate';
+import type { PlanFile } from '../../app/plan/plan';
+import { planFingerprint } from '../../app/plan/fingerprint';
+import { planSafety } from '../../app/safety/plan-safety';
+import { planDrop } from '../../app/planner/planner';
+import { DEFAULT_MANUAL_ITEMS } from '../../app/safety/readiness';
+import { validatePlan } from '../../app/plan/validate';
 import demo from '../../data/demo-plan.json';
 
 function evaluate(file: PlanFile) {

@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
-import { parseNumber } from '../../app/core/units';
+import { parseNumber } from '../../app/ui/units';
 import { PlanStore } from '../../app/ui/plan-store';
 import {
   DAMAGED_KEY,

@@ -2,8 +2,8 @@ import Ajv from 'ajv';
 import addFormats from 'ajv-formats';
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import checkSchema from '../../app/core/plan-validator.generated';
-import schema from '../../app/core/plan.schema.json';
+import checkSchema from '../../app/plan/plan-validator.generated';
+import schema from '../../app/plan/plan.schema.json';
 import demo from '../../data/demo-plan.json';
 import {
   AJV_OPTIONS,

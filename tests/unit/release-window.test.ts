@@ -1,17 +1,17 @@
 import { Geodesic } from 'geographiclib-geodesic';
 import { describe, expect, it } from 'vitest';
-import { FallTable } from '../../app/core/fall-table';
-import { passiveOffset, type FlightSetup } from '../../app/core/flight';
-import type { PlanFile } from '../../app/core/plan';
-import { planDrop } from '../../app/core/planner';
+import { FallTable } from '../../app/model/fall-table';
+import { passiveOffset, type FlightSetup } from '../../app/model/flight';
+import type { PlanFile } from '../../app/plan/plan';
+import { planDrop } from '../../app/planner/planner';
 import {
   bestShift,
   hitProfile,
   profileAt,
   runAround,
   type HitProfile,
-} from '../../app/core/release-window';
-import { WindProfile } from '../../app/core/wind';
+} from '../../app/model/release-window';
+import { WindProfile } from '../../app/model/wind';
 import { RELEASE, expectClose, expectNearLatLng, makePlan, offsetLatLng } from './helpers';
 
 const DEG = Math.PI / 180;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Rng, streamSeed } from '../../app/core/rng';
+import { Rng, streamSeed } from '../../app/model/rng';
 
 // Standard normal CDF values, Abramowitz & Stegun (1964) Table 26.1.
 const PHI: [number, number][] = [

@@ -9,15 +9,15 @@ import {
 } from '@turf/turf';
 import type { Feature, Polygon } from 'geojson';
 import { describe, expect, it } from 'vitest';
-import { airAt } from '../../app/core/atmosphere';
-import type { PlanFile, Variant } from '../../app/core/plan';
-import { planDrop, type PlanResult } from '../../app/core/planner';
+import { airAt } from '../../app/model/atmosphere';
+import type { PlanFile, Variant } from '../../app/plan/plan';
+import { planDrop, type PlanResult } from '../../app/planner/planner';
 import {
   DEFAULT_MANUAL_ITEMS,
   overallReady,
   readiness,
   type ManualItem,
-} from '../../app/core/readiness';
+} from '../../app/safety/readiness';
 import {
   DEFAULT_SAFETY_SETTINGS,
   J_PER_FT_LBF,
@@ -27,8 +27,8 @@ import {
   safetyChecks,
   type CheckResult,
   type SafetySettings,
-} from '../../app/core/safety';
-import { validatePlan } from '../../app/core/validate';
+} from '../../app/safety/safety';
+import { validatePlan } from '../../app/plan/validate';
 import { ellipseRing, trackSegment } from '../../app/map/geometry';
 import { NOW, RELEASE, expectClose, makePlan, offsetLatLng } from './helpers';
 
@@ -461,7 +461,7 @@ describe('readiness', () => {
 
 describe('impact energy with a sounding', () => {
   it('uses the sounding’s air: warmer, thinner air gives a faster touchdown and more energy', () => {
-    // Momentum theory (Leishman ch. 12, via REFERENCES.md): w ∝ ρ^−½, so E = ½m(w² + u²) grows
+    // Momentum theory (Leishman ch. 12, via docs/references.md): w ∝ ρ^−½, so E = ½m(w² + u²) grows
     // when the sounding is warmer than the ISA at the same pressure.
     const base = {
       release: { ...RELEASE, altitude_m: 100, reference: 'AGL' as const },

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { airAt, densityAt } from '../../app/core/atmosphere';
-import { SoundingAtmosphere } from '../../app/core/sounding-atmosphere';
+import { airAt, densityAt } from '../../app/model/atmosphere';
+import { SoundingAtmosphere } from '../../app/model/sounding-atmosphere';
 import { expectClose } from './helpers';
 import ussa from '../fixtures/atmosphere/ussa1976.json';
 
@@ -13,7 +13,7 @@ const R0 = 6356766;
 const geometric = (H: number) => (R0 * H) / (R0 - H);
 const geopotential = (z: number) => (R0 * z) / (R0 + z);
 
-// U.S. Standard Atmosphere 1976 table (REFERENCES.md), geopotential altitude H: the fixture.
+// U.S. Standard Atmosphere 1976 table (docs/references.md), geopotential altitude H: the fixture.
 const USSA = ussa.rows;
 
 describe('hydrostatic density from a sounding', () => {
@@ -27,7 +27,7 @@ describe('hydrostatic density from a sounding', () => {
 
   it('equals the USSA 1976 table density at 0…5 km within 0.1 %', () => {
     for (const row of USSA) {
-      // U.S. Standard Atmosphere 1976, table values in REFERENCES.md.
+      // U.S. Standard Atmosphere 1976, table values in docs/references.md.
       const z = geometric(row.H);
       expectClose(atm.densityAt(z) / row.rho, 1, 1e-3, `ρ at H = ${row.H} m`);
       expectClose(atm.airAt(z).pressure_Pa / row.p, 1, 1e-5, `p at H = ${row.H} m`);

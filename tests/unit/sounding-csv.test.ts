@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { importSounding } from '../../app/core/sounding-csv';
+import { importSounding } from '../../app/formats/sounding-csv';
 import { expectClose } from './helpers';
 
 // Exact unit definitions: 1 ft = 0.3048 m, 1 kt = 1852/3600 m/s, 1 mi = 1609.344 m (international
@@ -9,9 +9,9 @@ const FT = 0.3048;
 const KT = 1852 / 3600;
 
 import demo from '../../data/demo-plan.json';
-import { inSchemaRange, schemaMaxItems } from '../../app/core/import-limits';
-import type { PlanFile } from '../../app/core/plan';
-import { allowedRange, validatePlan } from '../../app/core/validate';
+import { inSchemaRange, schemaMaxItems } from '../../app/formats/import-limits';
+import type { PlanFile } from '../../app/plan/plan';
+import { allowedRange, validatePlan } from '../../app/plan/validate';
 
 describe('sounding import: units and reference from the header', () => {
   it('converts feet and knots exactly and reads AGL from the header', () => {

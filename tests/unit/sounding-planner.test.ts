@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { airAt } from '../../app/core/atmosphere';
-import { planDrop } from '../../app/core/planner';
+import { airAt } from '../../app/model/atmosphere';
+import { planDrop } from '../../app/planner/planner';
 import { makePlan, RELEASE } from './helpers';
 
 describe('planning with a sounding instead of the ISA offset', () => {

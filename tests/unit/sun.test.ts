@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import * as SunCalc from 'suncalc';
 import { describe, expect, it } from 'vitest';
-import { civilTwilight, solarCoordinates, sunElevationDeg } from '../../app/core/sun';
+import { civilTwilight, solarCoordinates, sunElevationDeg } from '../../app/model/sun';
 import { expectClose } from './helpers';
 
 const DAY_MS = 86_400_000;

@@ -1,18 +1,18 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import demo from '../../data/demo-plan.json';
-import { schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
-import type { PlanFile } from '../../app/core/plan';
-import { validatePlan } from '../../app/core/validate';
+import { schemaBounds, schemaMaxItems } from '../../app/formats/import-limits';
+import type { PlanFile } from '../../app/plan/plan';
+import { validatePlan } from '../../app/plan/validate';
+import { blendSurfaceReading } from '../../app/formats/surface-reading';
 import {
-  blendSurfaceReading,
   HELLMANN_NEUTRAL,
   mergeSurfaceProfile,
   surfaceProfile,
   TERRAIN,
   type TerrainClass,
-} from '../../app/core/surface-wind';
-import { windComponents } from '../../app/core/wind';
+} from '../../app/model/surface-wind';
+import { windComponents } from '../../app/model/wind';
 import { expectClose } from './helpers';
 
 const reading = { height_m: 10, speed_mps: 5, fromDeg: 240 };
@@ -21,7 +21,7 @@ const at = (layers: { altitude_m: number; speed_mps: number }[], z: number) =>
 
 describe('terrain classes', () => {
   it('carry the Davenport–Wieringa roughness lengths', () => {
-    // Davenport–Wieringa roughness classification (WMO), REFERENCES.md.
+    // Davenport–Wieringa roughness classification (WMO), docs/references.md.
     const z0: Record<TerrainClass, number> = {
       sea: 0.0002,
       smooth: 0.005,
@@ -78,7 +78,7 @@ describe('power law', () => {
 
 describe('log law', () => {
   it('matches a hand calculation for z0 = 0.03 m', () => {
-    // Log law u = (u*/κ) ln(z/z0), κ ≈ 0.4 (REFERENCES.md); κ and u* cancel in the ratio:
+    // Log law u = (u*/κ) ln(z/z0), κ ≈ 0.4 (docs/references.md); κ and u* cancel in the ratio:
     // u(100)/u(10) = ln(100/0.03)/ln(10/0.03) = ln(3333.33…)/ln(333.33…)
     //              = 8.111728083308073 / 5.809142990314028 = 1.3963725969275156.
     const l = surfaceProfile(reading, { law: 'log', terrain: 'open', upTo_m: 100 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { TimelineEntry } from '../../app/core/forecast-series';
-import { timelineSvg } from '../../app/core/timeline-svg';
+import type { TimelineEntry } from '../../app/planner/forecast-series';
+import { timelineSvg } from '../../app/brief/timeline-svg';
 
 const entry = (time: string, a: number, b: number): TimelineEntry => ({
   time,

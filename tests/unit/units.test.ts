@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseCoordinate } from '../../app/core/coords';
+import { parseCoordinate } from '../../app/model/coords';
 import {
   COORD_FORMATS,
   DEFAULT_UNITS,
@@ -16,7 +16,7 @@ import {
   toDisplayLength,
   toDisplaySpeed,
   unitLabel,
-} from '../../app/core/units';
+} from '../../app/ui/units';
 import { expectClose, expectNearLatLng } from './helpers';
 
 const finite = fc.double({ min: -1e9, max: 1e9, noNaN: true, noDefaultInfinity: true });

@@ -1,9 +1,10 @@
 import { XMLValidator } from 'fast-xml-parser';
 import { describe, expect, it } from 'vitest';
-import type { Plan, PlanFile } from '../../app/core/plan';
-import { planDrop } from '../../app/core/planner';
-import { altitudeSweep, hodographSvg, sweepSvg } from '../../app/core/wind-plots';
-import { validatePlan } from '../../app/core/validate';
+import type { Plan, PlanFile } from '../../app/plan/plan';
+import { planDrop } from '../../app/planner/planner';
+import { altitudeSweep } from '../../app/planner/sweeps';
+import { hodographSvg, sweepSvg } from '../../app/brief/wind-plots';
+import { validatePlan } from '../../app/plan/validate';
 import demoJson from '../../data/demo-plan.json';
 import { expectClose, makePlan, offsetLatLng, RELEASE } from './helpers';
 

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { WindProfile, windComponents, windFromComponents } from '../../app/core/wind';
+import { WindProfile, windComponents, windFromComponents } from '../../app/model/wind';
 import { expectClose } from './helpers';
 
 /** Signed difference of two angles in degrees, wrapped into (−180, 180]. */

@@ -5,14 +5,14 @@ import {
   decodeWindsAloft,
   stationLayers,
   type WindsAloftLayer,
-} from '../../app/core/winds-aloft';
+} from '../../app/formats/winds-aloft';
 import demo from '../../data/demo-plan.json';
-import { inSchemaRange, schemaBounds, schemaMaxItems } from '../../app/core/import-limits';
-import type { PlanFile } from '../../app/core/plan';
-import { allowedRange, validatePlan } from '../../app/core/validate';
+import { inSchemaRange, schemaBounds, schemaMaxItems } from '../../app/formats/import-limits';
+import type { PlanFile } from '../../app/plan/plan';
+import { allowedRange, validatePlan } from '../../app/plan/validate';
 import { expectClose } from './helpers';
 
-// Invented bulletin in the NWS winds-aloft ("FB") layout (REFERENCES.md): levels in ft MSL, each
+// Invented bulletin in the NWS winds-aloft ("FB") layout (docs/references.md): levels in ft MSL, each
 // group right-aligned under its level. Station ids and values are made up.
 const HEADER = 'FT  3000    6000    9000   12000   18000   24000  30000  34000  39000';
 const QXV = 'QXV 2714 2725+00 2731-04 2638-09 2550-21 2562-33 257942 779955 760258';
@@ -39,14 +39,14 @@ describe('winds-aloft bulletin decoding', () => {
   const zrl = d.stations.find((s) => s.id === 'ZRL')!;
 
   it('finds the level header and every station after it, with no problems', () => {
-    // NWS FB levels (REFERENCES.md): 3000 … 39000 ft MSL.
+    // NWS FB levels (docs/references.md): 3000 … 39000 ft MSL.
     expect(d.levels_ft).toEqual([3000, 6000, 9000, 12000, 18000, 24000, 30000, 34000, 39000]);
     expect(d.stations.map((s) => s.id)).toEqual(['QXV', 'ZRL']);
     expect(d.problems).toEqual([]);
   });
 
   it('decodes DDff±TT with direction in tens of degrees, knots and signed °C', () => {
-    // NWS FB group DDff±TT (REFERENCES.md): 2731-04 → 270°, 31 kt, −4 °C.
+    // NWS FB group DDff±TT (docs/references.md): 2731-04 → 270°, 31 kt, −4 °C.
     const l = layerAt(qxv.layers, 9000)!;
     expect(l.fromDeg).toBe(270);
     expect(l.speed_mps).toBe(31 * KT);
@@ -58,7 +58,7 @@ describe('winds-aloft bulletin decoding', () => {
   });
 
   it('has no temperature at 3000 ft', () => {
-    // NWS FB (REFERENCES.md): no temperature is forecast for the 3000 ft level.
+    // NWS FB (docs/references.md): no temperature is forecast for the 3000 ft level.
     const l = layerAt(qxv.layers, 3000)!;
     expect(l.temperature_C).toBeNull();
     expect(l.fromDeg).toBe(270);
@@ -66,14 +66,14 @@ describe('winds-aloft bulletin decoding', () => {
   });
 
   it('reads unsigned temperatures above 24000 ft as negative', () => {
-    // NWS FB (REFERENCES.md): above 24000 ft the sign is omitted and temperatures are negative.
+    // NWS FB (docs/references.md): above 24000 ft the sign is omitted and temperatures are negative.
     expect(layerAt(qxv.layers, 30000)!.temperature_C).toBe(-42);
     expect(layerAt(qxv.layers, 39000)!.temperature_C).toBe(-58);
     expect(layerAt(qxv.layers, 24000)!.temperature_C).toBe(-33);
   });
 
   it('decodes 9900 as light and variable: speed 0, no direction', () => {
-    // NWS FB (REFERENCES.md): 9900 = light and variable (< 5 kt).
+    // NWS FB (docs/references.md): 9900 = light and variable (< 5 kt).
     const l = layerAt(zrl.layers, 6000)!;
     expect(l.fromDeg).toBeNull();
     expect(l.speed_mps).toBe(0);
@@ -81,7 +81,7 @@ describe('winds-aloft bulletin decoding', () => {
   });
 
   it('decodes direction codes 51–86 as 100–199 kt: 7704 → 270° 104 kt', () => {
-    // NWS FB (REFERENCES.md): DD + 50 and ff − 100 for 100–199 kt, e.g. 7704 → 270° 104 kt.
+    // NWS FB (docs/references.md): DD + 50 and ff − 100 for 100–199 kt, e.g. 7704 → 270° 104 kt.
     const r = decodeGroup('7704', 3000);
     expect(r.ok && r.layer.fromDeg).toBe(270);
     expect(r.ok && r.layer.speed_mps).toBe(104 * KT);
@@ -92,7 +92,7 @@ describe('winds-aloft bulletin decoding', () => {
   });
 
   it('marks 199 kt as capped: it stands for 199 kt or more', () => {
-    // NWS FB (REFERENCES.md): winds of 200 kt or more are coded as 199 kt (7799).
+    // NWS FB (docs/references.md): winds of 200 kt or more are coded as 199 kt (7799).
     const l = layerAt(qxv.layers, 34000)!;
     expect(l.fromDeg).toBe(270);
     expect(l.speed_mps).toBe(199 * KT);
@@ -103,7 +103,7 @@ describe('winds-aloft bulletin decoding', () => {
   });
 
   it('leaves out a group that is blank near station elevation, aligning the rest by column', () => {
-    // NWS FB (REFERENCES.md): no wind group within 1500 ft of station elevation.
+    // NWS FB (docs/references.md): no wind group within 1500 ft of station elevation.
     expect(zrl.layers.map((l) => l.altitude_ft)).toEqual([
       6000, 9000, 12000, 18000, 24000, 30000, 34000, 39000,
     ]);

@@ -1,0 +1,23 @@
+// The printed products: the brief document, its drawings and plots, the text report, the caution.
+// The public face of app/brief/: other folders import from here only.
+export {
+  briefHtml,
+  type BriefOptions,
+  type BriefSafety,
+  briefTimes,
+  scheduleOrder,
+} from './brief-html';
+export { briefSafety } from './brief-safety';
+export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
+export { CAUTION_TEXT } from './caution';
+export { formatPlanText } from './report-text';
+export { timelineSvg } from './timeline-svg';
+export {
+  type HodographOptions,
+  type HodographPoint,
+  hodographSvg,
+  hodographTrace,
+  type HodographTrace,
+  sweepSvg,
+  type SweepSvgOptions,
+} from './wind-plots';

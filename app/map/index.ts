@@ -1,0 +1,21 @@
+// Leaflet adapters: plan results → map layers, the graticule, tooltips built from text nodes.
+// The public face of app/map/: other folders import from here only.
+export {
+  bearingHandle,
+  circleRing,
+  ellipseRing,
+  intervalDecimals,
+  niceInterval,
+  trackSegment,
+  type LatLngTuple,
+} from './geometry';
+export { defaultLabelFormat, Graticule, graticule, type GraticuleOptions } from './graticule';
+export {
+  buildResultLayers,
+  DEFAULT_VISIBILITY,
+  SHAPE_KINDS,
+  type LayerFormat,
+  type LayerVisibility,
+  type ShapeKind,
+} from './plan-layers';
+export { escapeHtml, lazyTip, tipNode } from './tooltip';

@@ -1,0 +1,230 @@
+import { G0 } from './constants';
+import type { FallTable } from './fall-table';
+import type { Guidance, Uncertainty } from './types';
+import type { Rng } from './rng';
+
+const DEG = Math.PI / 180;
+
+/** East/north vector in the planner's local frame, m or m/s. */
+export interface Vec {
+  x: number;
+  y: number;
+}
+
+/** Everything one variant's flight needs besides the random draws (docs/model.md §4–6). */
+export interface FlightSetup {
+  table: FallTable;
+  guidance: Guidance;
+  /** cot γ of the full-authority glide (0 for passive). */
+  cotGamma: number;
+  /** Thrust budget after the entry, s. */
+  controlTime_s: number;
+  /** Fixed forward-throw time, s; undefined = relaxation time τ = w/g. */
+  throwTime_s?: number;
+  /** Carrier ground velocity, m/s (x east, y north). */
+  carrier: Vec;
+  /** Forecast wind at the release altitude, m/s. */
+  windTop: Vec;
+}
+
+/** Open-loop programme of a fixed-heading vehicle. */
+export interface Programme {
+  headingTrue_deg: number;
+  thrust_s: number;
+}
+
+/** Forward throw (m): the carrier's air-relative velocity kept for τ = w/g (or a set time). */
+export function forwardThrow(s: FlightSetup, f = 1, windErr: Vec = { x: 0, y: 0 }): Vec {
+  const tau = s.throwTime_s ?? (f * s.table.wTop_mps) / G0;
+  return {
+    x: (s.carrier.x - s.windTop.x - windErr.x) * tau,
+    y: (s.carrier.y - s.windTop.y - windErr.y) * tau,
+  };
+}
+
+/** Uncontrolled landing relative to the release point (m): throw plus layered drift. */
+export function passiveOffset(s: FlightSetup): Vec {
+  const th = forwardThrow(s);
+  const d = s.table.drift;
+  return { x: th.x + d.east_m, y: th.y + d.north_m };
+}
+
+/** Reach radius (m): cot γ times the altitude lost while steering at full authority. */
+export function reachRadius(s: FlightSetup): number {
+  if (s.guidance === 'passive' || s.cotGamma <= 0) return 0;
+  return s.cotGamma * s.table.steeredDrop(s.controlTime_s);
+}
+
+/**
+ * Fixed-heading programme that moves the landing by `need` (m) in the forecast wind: heading
+ * along `need`, thrust until cot γ × altitude lost equals |need| (capped at the budget).
+ */
+export function fixedHeadingProgramme(s: FlightSetup, need: Vec): Programme {
+  const dist = Math.hypot(need.x, need.y);
+  const heading = dist > 0 ? (Math.atan2(need.x, need.y) / DEG + 360) % 360 : 0;
+  if (dist === 0 || s.cotGamma <= 0) return { headingTrue_deg: heading, thrust_s: 0 };
+  const maxDrop = s.table.steeredDrop(s.controlTime_s);
+  const drop = Math.min(maxDrop, dist / s.cotGamma);
+  const thrust = s.table.timeAt(s.table.entryEnd_m - drop) - s.table.entryTime_s;
+  return { headingTrue_deg: heading, thrust_s: Math.min(s.controlTime_s, thrust) };
+}
+
+/** Random draws of the wind error for the aggregated (open-loop) flights, per unit σ. */
+interface WindFunctional {
+  /** σ of A = Σ ε_k Δt_k (m per m/s of wind σ). */
+  sdA: number;
+  /** Correlation of A with the release-altitude error ε_0. */
+  rhoAB: number;
+  /** AR(1) coefficients between consecutive bands, and innovation scale √(1−ρ²). */
+  arRho: Float64Array;
+  arScale: Float64Array;
+}
+
+// One functional per fall table and correlation height: probes reuse it.
+const functionalCache = new WeakMap<FallTable, Map<number, WindFunctional>>();
+
+function windFunctional(table: FallTable, corr_m: number): WindFunctional {
+  let byCorr = functionalCache.get(table);
+  if (!byCorr) functionalCache.set(table, (byCorr = new Map()));
+  const hit = byCorr.get(corr_m);
+  if (hit) return hit;
+  const wf = computeWindFunctional(table, corr_m);
+  byCorr.set(corr_m, wf);
+  return wf;
+}
+
+function computeWindFunctional(table: FallTable, corr_m: number): WindFunctional {
+  const k = table.bandCount;
+  const dt = table.bandDt;
+  const z = table.bandMid;
+  let varA = 0;
+  let covAB = 0;
+  for (let i = 0; i < k; i++) {
+    covAB += dt[i] * Math.exp(-Math.abs(z[0] - z[i]) / corr_m);
+    for (let j = 0; j < k; j++) varA += dt[i] * dt[j] * Math.exp(-Math.abs(z[i] - z[j]) / corr_m);
+  }
+  const sdA = Math.sqrt(Math.max(0, varA));
+  const arRho = new Float64Array(k);
+  const arScale = new Float64Array(k);
+  arScale[0] = 1;
+  for (let i = 1; i < k; i++) {
+    arRho[i] = Math.exp(-Math.abs(z[i - 1] - z[i]) / corr_m);
+    arScale[i] = Math.sqrt(1 - arRho[i] * arRho[i]);
+  }
+  return { sdA, rhoAB: sdA > 0 ? covAB / sdA : 0, arRho, arScale };
+}
+
+/** Where and how a batch of samples is released. */
+export interface SampleRequest {
+  n: number;
+  rng: Rng;
+  uncertainty: Uncertainty;
+  /** Nominal release point in the local frame, m. */
+  release: Vec;
+  /** Unit vector of the carrier track (release timing error moves along it). */
+  trackUnit: Vec;
+  groundSpeed_mps: number;
+  /** Site in the local frame (homing aims at it), m. */
+  site: Vec;
+  /** Fixed-heading programme (required for that guidance). */
+  programme?: Programme;
+}
+
+/**
+ * Flies n Monte Carlo samples (docs/model.md §8) and writes landing points (local frame, m) into
+ * xs/ys. Passive and fixed-heading flights are linear in the wind error, so its whole effect is
+ * drawn exactly as two correlated normals per axis (the drift integral and the error at release);
+ * homing reacts to the error, so it is drawn band by band as an AR(1) series in altitude with
+ * the same covariance σ²·exp(−Δz/L).
+ */
+export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array, ys: Float64Array) {
+  const { rng, uncertainty: u, release, trackUnit, groundSpeed_mps: v } = req;
+  const tab = s.table;
+  const wf = windFunctional(tab, Math.max(1e-6, u.windCorrelation_m));
+  const sw = u.windSpeed_mps;
+  const sf = u.descentRate_pct / 100;
+  const sp = u.releasePosition_m;
+  const st = u.releaseTiming_s;
+  const sh = u.heading_deg * DEG;
+  const drift = tab.drift;
+  const tauFixed = s.throwTime_s;
+  const g = G0;
+  const wTop = tab.wTop_mps;
+  const airX = s.carrier.x - s.windTop.x;
+  const airY = s.carrier.y - s.windTop.y;
+  const rhoC = Math.sqrt(Math.max(0, 1 - wf.rhoAB * wf.rhoAB));
+  const prog = req.programme ?? { headingTrue_deg: 0, thrust_s: 0 };
+  const hdg = prog.headingTrue_deg * DEG;
+  const homing = s.guidance === 'homing';
+  const fixed = s.guidance === 'fixed-heading';
+  const k = tab.bandCount;
+  const { bandDt, bandDz, bandEast, bandNorth, bandRemEast, bandRemNorth, bandControl } = tab;
+  const { arRho, arScale } = wf;
+  const sx = req.site.x;
+  const sy = req.site.y;
+
+  for (let i = 0; i < req.n; i++) {
+    const f = Math.max(0.2, 1 + sf * rng.normal());
+    const dtRel = st * rng.normal();
+    let px = release.x + sp * rng.normal() + trackUnit.x * v * dtRel;
+    let py = release.y + sp * rng.normal() + trackUnit.y * v * dtRel;
+    const dh = sh * rng.normal();
+    const invF = 1 / f;
+    const tau = tauFixed ?? (f * wTop) / g;
+    if (!homing) {
+      const n1 = rng.normal();
+      const n2 = rng.normal();
+      const n3 = rng.normal();
+      const n4 = rng.normal();
+      const ax = sw * wf.sdA * n1;
+      const bx = sw * (wf.rhoAB * n1 + rhoC * n2);
+      const ay = sw * wf.sdA * n3;
+      const by = sw * (wf.rhoAB * n3 + rhoC * n4);
+      px += (airX - bx) * tau + (drift.east_m + ax) * invF;
+      py += (airY - by) * tau + (drift.north_m + ay) * invF;
+      if (fixed && prog.thrust_s > 0) {
+        const reach = s.cotGamma * tab.steeredDrop(prog.thrust_s, f);
+        px += reach * Math.sin(hdg + dh);
+        py += reach * Math.cos(hdg + dh);
+      }
+    } else {
+      const cd = Math.cos(dh);
+      const sd = Math.sin(dh);
+      let ex = 0;
+      let ey = 0;
+      let budget = s.controlTime_s;
+      for (let b = 0; b < k; b++) {
+        const rho = arRho[b];
+        const inn = sw * arScale[b];
+        ex = rho * ex + inn * rng.normal();
+        ey = rho * ey + inn * rng.normal();
+        if (b === 0) {
+          px += (airX - ex) * tau;
+          py += (airY - ey) * tau;
+        }
+        const dt = bandDt[b];
+        if (budget > 0 && bandControl[b] === 1) {
+          const dtReal = dt * invF;
+          const full = s.cotGamma * bandDz[b];
+          const cap = budget >= dtReal ? full : (full * budget) / dtReal;
+          const rx = sx - px - bandRemEast[b] * invF;
+          const ry = sy - py - bandRemNorth[b] * invF;
+          const dist = Math.sqrt(rx * rx + ry * ry);
+          if (dist > 1e-9 && full > 0) {
+            const use = dist < cap ? dist : cap;
+            budget -= (use / full) * dtReal;
+            const ux = (rx / dist) * use;
+            const uy = (ry / dist) * use;
+            // Heading error rotates the steering vector clockwise by dh.
+            px += ux * cd + uy * sd;
+            py += -ux * sd + uy * cd;
+          }
+        }
+        px += (bandEast[b] + ex * dt) * invF;
+        py += (bandNorth[b] + ey * dt) * invF;
+      }
+    }
+    xs[i] = px;
+    ys[i] = py;
+  }
+}

@@ -1,0 +1,27 @@
+// Small types of the physical model, used by the plan file's types too (plan.ts re-exports them).
+
+export type AltitudeReference = 'AGL' | 'MSL';
+export type Guidance = 'passive' | 'fixed-heading' | 'homing';
+
+export interface WindLayer {
+  /** Altitude of the layer, m, above ground or sea level per `winds.reference`. */
+  altitude_m: number;
+  /** Meteorological direction the wind blows from, degrees true. */
+  fromDeg: number;
+  speed_mps: number;
+}
+
+export interface Uncertainty {
+  /** 1σ wind error per horizontal component, m/s. */
+  windSpeed_mps: number;
+  /** Altitude over which wind errors decorrelate (exp(−Δz/L)), m. */
+  windCorrelation_m: number;
+  /** 1σ descent-rate error, % of the nominal rate. */
+  descentRate_pct: number;
+  /** 1σ release position error per horizontal axis, m. */
+  releasePosition_m: number;
+  /** 1σ heading error of steered variants, degrees. */
+  heading_deg: number;
+  /** 1σ release timing error, s (moves the release along the carrier track). */
+  releaseTiming_s: number;
+}

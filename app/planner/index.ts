@@ -1,0 +1,20 @@
+// What turns a plan into results: the planner, altitude sweeps, forecast timelines.
+// The public face of app/planner/: other folders import from here only.
+export {
+  type ClockWindow,
+  ForecastSeries,
+  pHitTimeline,
+  type TimedProfile,
+  type TimelineEntry,
+  type TimelineOptions,
+  windowsFromTimeline,
+} from './forecast-series';
+export {
+  type GeoEllipse,
+  planDrop,
+  type PlanOptions,
+  type PlanResult,
+  type SiteResult,
+  type VariantResult,
+} from './planner';
+export { altitudeSweep, sweepHeightsAGL, type SweepPoint } from './sweeps';

@@ -1,0 +1,413 @@
+import {
+  bestShift,
+  type Dispersion,
+  FallTable,
+  fixedHeadingProgramme,
+  type FlightSetup,
+  flySamples,
+  hashLabel,
+  hitProfile,
+  type LatLon,
+  type LocalEllipse,
+  LocalFrame,
+  magneticDeclination,
+  magneticHeading,
+  passiveOffset,
+  type Programme,
+  reachRadius,
+  Rng,
+  runAround,
+  searchEdge,
+  streamSeed,
+  summarize,
+  type Vec,
+  type WindProfile,
+} from '../model';
+import {
+  type Plan,
+  planWindProfile,
+  type ResolvedSite,
+  type ResolvedVariant,
+  soundingDensity,
+} from '../plan';
+
+const DEG = Math.PI / 180;
+
+/** A landing ellipse on the globe. */
+export interface GeoEllipse {
+  center: LatLon;
+  semiMajor_m: number;
+  semiMinor_m: number;
+  azimuth_deg: number;
+}
+
+/** Search limit of the homing window and hover zone edges: doublings of the first step out. */
+export const EDGE_DOUBLINGS = 6;
+
+/**
+ * Times (s, relative to passing the plan's release point) when releasing meets requiredPHit.
+ * `openUnbounded` / `closeUnbounded` are present (true) only when P(hit) still met the
+ * requirement at the farthest release the search tried: that edge is then the search limit, and
+ * the window reaches farther.
+ */
+export interface ReleaseWindow {
+  open_s: number;
+  close_s: number;
+  best: LatLon;
+  best_s: number;
+  openUnbounded?: true;
+  closeUnbounded?: true;
+}
+
+/**
+ * Where a hovering carrier may hold: a disc about `center`. `unbounded` is present (true) only
+ * when the direction that sets the radius reached the search limit: the radius is then a lower
+ * bound.
+ */
+export interface ReleaseZone {
+  center: LatLon;
+  radius_m: number;
+  unbounded?: true;
+}
+
+/** Result of one variant for one site (docs/model.md §7–10). */
+export interface VariantResult {
+  variant: string;
+  guidance: ResolvedVariant['guidance'];
+  /** Where and when this variant is released for the site (time relative to the plan's release point). */
+  release: LatLon & { time_s: number };
+  fallTime_s: number;
+  nominalLanding: LatLon;
+  /** Distance from the nominal (uncontrolled) landing to the site, m. */
+  nominalMiss_m: number;
+  reachRadius_m: number;
+  reachable: boolean;
+  ellipse50: GeoEllipse;
+  ellipse95: GeoEllipse;
+  ellipse99: GeoEllipse;
+  meanLanding: LatLon;
+  cep_m: number;
+  pHit: number;
+  releaseWindow: ReleaseWindow | null;
+  releaseZone: ReleaseZone | null;
+  headingTrue_deg?: number;
+  headingMag_deg?: number | null;
+  thrustTime_s?: number;
+}
+
+export interface SiteResult extends VariantResult {
+  id: string;
+  name: string;
+  /** The site's position. */
+  lat: number;
+  lon: number;
+  /** The recommended variant id (first in catalogue order meeting requiredPHit, else best P(hit)). */
+  recommended: string;
+  /** True when the site pins its variant. */
+  pinned: boolean;
+  meetsRequired: boolean;
+  comparison: { variant: string; reachable: boolean; pHit: number; cep_m: number }[];
+  byVariant: VariantResult[];
+}
+
+export interface PlanResult {
+  name: string;
+  time: string;
+  declination_deg: number | null;
+  declinationModel: string | null;
+  releaseAltitudeMSL_m: number;
+  /** The plan's release point: the frame origin and, when moving, time 0 of the track. */
+  releasePoint: LatLon;
+  track: { unit: Vec; groundSpeed_mps: number; trackDeg: number };
+  sites: SiteResult[];
+  warnings: string[];
+}
+
+export interface PlanOptions {
+  /** Samples used for each P(hit) probe of window and zone searches (default min(samples, 128)). */
+  probeSamples?: number;
+  /** Called after each site with the number of sites done and the total. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+interface Context {
+  plan: Plan;
+  frame: LocalFrame;
+  wind: WindProfile;
+  top_m: number;
+  unit: Vec;
+  speed: number;
+  declination: number | null;
+  probeN: number;
+  /** Density from the plan's sounding, when it has one. */
+  density?: (z_m: number) => number;
+}
+
+function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetup {
+  const massFactor =
+    v.payloadMass_kg && v.referenceMass_kg ? Math.sqrt(v.payloadMass_kg / v.referenceMass_kg) : 1;
+  const table = new FallTable({
+    top_m: ctx.top_m,
+    bottom_m: s.elevation_m,
+    descentRateSL_mps: v.descentRate_mps * massFactor,
+    entryLoss_m: v.entryLoss_m,
+    isaOffset_K: ctx.plan.atmosphere.isaOffset_K,
+    density: ctx.density,
+    wind: ctx.wind,
+  });
+  const w = ctx.wind.at(ctx.top_m);
+  return {
+    table,
+    guidance: v.guidance,
+    cotGamma: v.guidance === 'passive' ? 0 : 1 / Math.tan(v.glideAngle_deg * DEG),
+    controlTime_s: v.guidance === 'passive' ? 0 : v.controlTime_s,
+    throwTime_s: v.throwTime_s,
+    carrier: { x: ctx.unit.x * ctx.speed, y: ctx.unit.y * ctx.speed },
+    windTop: { x: w.east_mps, y: w.north_mps },
+  };
+}
+
+const add = (a: Vec, b: Vec, k = 1): Vec => ({ x: a.x + k * b.x, y: a.y + k * b.y });
+
+function geoEllipse(frame: LocalFrame, e: LocalEllipse): GeoEllipse {
+  return {
+    center: frame.toLatLon(e.center.x, e.center.y),
+    semiMajor_m: e.semiMajor_m,
+    semiMinor_m: e.semiMinor_m,
+    azimuth_deg: e.azimuth_deg,
+  };
+}
+
+/** Flies n samples from `release` and returns the landing points. */
+function fly(
+  ctx: Context,
+  su: FlightSetup,
+  release: Vec,
+  site: Vec,
+  n: number,
+  seed: number | Rng,
+  prog?: Programme,
+) {
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  flySamples(
+    su,
+    {
+      n,
+      rng: typeof seed === 'number' ? new Rng(seed) : seed,
+      uncertainty: ctx.plan.uncertainty,
+      release,
+      trackUnit: ctx.unit,
+      groundSpeed_mps: ctx.speed,
+      site,
+      programme: prog,
+    },
+    xs,
+    ys,
+  );
+  return { xs, ys };
+}
+
+function hitShare(xs: Float64Array, ys: Float64Array, site: Vec, tol: number): number {
+  let h = 0;
+  for (let i = 0; i < xs.length; i++)
+    if ((xs[i] - site.x) ** 2 + (ys[i] - site.y) ** 2 <= tol * tol) h++;
+  return h / xs.length;
+}
+
+function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantResult {
+  const { plan, frame, unit, speed } = ctx;
+  const su = setupFor(ctx, v, s);
+  const site = frame.toLocal(s);
+  const off = passiveOffset(su);
+  // Streams follow the ids, so adding, removing or reordering sites leaves the others' numbers alone.
+  const seed = streamSeed(plan.monteCarlo.seed, hashLabel(s.id), hashLabel(v.id));
+  const n = plan.monteCarlo.samples;
+  const req = plan.requiredPHit;
+  const tol = s.tolerance_m;
+  const moving = speed > 0;
+
+  // Release used: on a moving track, the point whose uncontrolled landing passes closest to the
+  // site; when hovering, the point whose uncontrolled landing is the site (the zone's centre).
+  const toSite = { x: site.x - off.x, y: site.y - off.y };
+  let sStar = moving ? (toSite.x * unit.x + toSite.y * unit.y) / speed : 0;
+  let rel: Vec = moving ? { x: unit.x * speed * sStar, y: unit.y * speed * sStar } : toSite;
+  const reach = reachRadius(su);
+  const programmeAt = (r: Vec): Programme | undefined =>
+    v.guidance === 'fixed-heading'
+      ? fixedHeadingProgramme(su, { x: site.x - r.x - off.x, y: site.y - r.y - off.y })
+      : undefined;
+  const prog = programmeAt(rel);
+  const { xs, ys } = fly(ctx, su, rel, site, n, seed, prog);
+
+  let shift: Vec = { x: 0, y: 0 };
+  let releaseWindow: VariantResult['releaseWindow'] = null;
+  let releaseZone: VariantResult['releaseZone'] = null;
+  // Sequential probe (docs/model.md §9): the first half of the samples settles the clear cases
+  // (share 3 binomial standard errors above or below the requirement); only probes near the edge
+  // fly the second half. One generator for both halves, so the result equals one full run's.
+  const probeSeed = seed ^ 0x2545f491;
+  const probe = (r: Vec): number => {
+    const prog = programmeAt(r);
+    const rng = new Rng(probeSeed);
+    const n1 = Math.max(1, Math.floor(ctx.probeN / 2));
+    const a = fly(ctx, su, r, site, n1, rng, prog);
+    const h1 = hitShare(a.xs, a.ys, site, tol);
+    const se = Math.sqrt((req * (1 - req)) / n1);
+    if (n1 === ctx.probeN || Math.abs(h1 - req) > 3 * se) return h1;
+    const b = fly(ctx, su, r, site, ctx.probeN - n1, rng, prog);
+    return (h1 * n1 + hitShare(b.xs, b.ys, site, tol) * (ctx.probeN - n1)) / ctx.probeN;
+  };
+
+  if (moving && v.guidance !== 'homing') {
+    // Landing moves rigidly with the release point: the exact chord sweep applies.
+    const prof = hitProfile(xs, ys, site, tol, unit, speed);
+    const best = bestShift(prof);
+    const b = Number.isFinite(best.shift) ? best.shift : 0;
+    const run = runAround(prof, b, req);
+    shift = { x: unit.x * speed * b, y: unit.y * speed * b };
+    if (run) {
+      const bestPt = add(rel, shift);
+      releaseWindow = {
+        open_s: sStar + run[0],
+        close_s: sStar + run[1],
+        best: frame.toLatLon(bestPt.x, bestPt.y),
+        best_s: sStar + b,
+      };
+    }
+    sStar += b;
+  } else if (moving) {
+    const p0 = hitShare(xs, ys, site, tol);
+    if (p0 >= req) {
+      const at = (t: number): number => probe(add(rel, unit, speed * t));
+      const span = (reach + tol + 50) / speed;
+      const open = searchEdge(at, -span, req, EDGE_DOUBLINGS, 7);
+      const close = searchEdge(at, span, req, EDGE_DOUBLINGS, 7);
+      releaseWindow = {
+        open_s: sStar + open.edge,
+        close_s: sStar + close.edge,
+        best: frame.toLatLon(rel.x, rel.y),
+        best_s: sStar,
+        ...(open.bounded ? {} : { openUnbounded: true as const }),
+        ...(close.bounded ? {} : { closeUnbounded: true as const }),
+      };
+    }
+  }
+
+  const stats: Dispersion = summarize(xs, ys, site, tol, shift);
+  rel = add(rel, shift);
+  const nominal = add(rel, off);
+  const miss = Math.hypot(site.x - nominal.x, site.y - nominal.y);
+
+  if (!moving) {
+    // Hover: where to hold so that P(hit) meets the requirement (a disc about the best point).
+    const c = rel;
+    if (stats.pHit >= req) {
+      // Eight directions; the first one's edge is the starting radius, so it is always finite.
+      let radius = 0;
+      let unbounded = false;
+      for (let d = 0; d < 8; d++) {
+        const u = { x: Math.sin((d * Math.PI) / 4), y: Math.cos((d * Math.PI) / 4) };
+        const at = (r: number): number => probe(add(c, u, r));
+        const e = searchEdge(at, reach + tol + 50, req, EDGE_DOUBLINGS, 8);
+        if (d === 0 || e.edge < radius) [radius, unbounded] = [e.edge, !e.bounded];
+      }
+      releaseZone = {
+        center: frame.toLatLon(c.x, c.y),
+        radius_m: radius,
+        ...(unbounded ? { unbounded: true as const } : {}),
+      };
+    }
+  }
+
+  const result: VariantResult = {
+    variant: v.id,
+    guidance: v.guidance,
+    release: { ...frame.toLatLon(rel.x, rel.y), time_s: moving ? sStar : 0 },
+    fallTime_s: su.table.fallTime_s,
+    nominalLanding: frame.toLatLon(nominal.x, nominal.y),
+    nominalMiss_m: miss,
+    reachRadius_m: reach,
+    reachable: v.guidance === 'passive' ? miss <= tol : miss <= reach + tol,
+    ellipse50: geoEllipse(frame, stats.ellipse50),
+    ellipse95: geoEllipse(frame, stats.ellipse95),
+    ellipse99: geoEllipse(frame, stats.ellipse99),
+    meanLanding: frame.toLatLon(stats.mean.x, stats.mean.y),
+    cep_m: stats.cep_m,
+    pHit: stats.pHit,
+    releaseWindow,
+    releaseZone,
+  };
+  if (prog) {
+    result.headingTrue_deg = prog.headingTrue_deg;
+    result.headingMag_deg =
+      ctx.declination === null ? null : magneticHeading(prog.headingTrue_deg, ctx.declination);
+    result.thrustTime_s = prog.thrust_s;
+  }
+  return result;
+}
+
+/** Plans every site with every variant and picks one per site (docs/model.md §10). */
+export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
+  const warnings: string[] = [];
+  const ground = plan.groundElevation_m;
+  const top_m = plan.release.altitude_m + (plan.release.reference === 'AGL' ? ground : 0);
+  const trackRad = plan.carrier.trackDeg * DEG;
+  let declination: number | null = null;
+  let declinationModel: string | null = null;
+  try {
+    const d = magneticDeclination(plan.release.lat, plan.release.lon, new Date(plan.time), top_m);
+    declination = d.declination_deg;
+    declinationModel = d.model;
+  } catch (e) {
+    warnings.push(`time: ${(e as Error).message}; magnetic headings are not given`);
+  }
+  const ctx: Context = {
+    plan,
+    frame: new LocalFrame(plan.release),
+    wind: planWindProfile(plan),
+    top_m,
+    unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
+    speed: plan.carrier.groundSpeed_mps,
+    declination,
+    probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 128)),
+    density: soundingDensity(plan),
+  };
+  const sites = plan.sites.map((s, si): SiteResult => {
+    const all = plan.variants.map((v) => evaluate(ctx, v, s));
+    opts.onProgress?.(si + 1, plan.sites.length);
+    const meeting = all.find((r) => r.pHit >= plan.requiredPHit);
+    const top = all.reduce((a, b) => (b.pHit > a.pHit ? b : a));
+    const recommended = (meeting ?? top).variant;
+    const chosenId = s.variant ?? recommended;
+    const chosen = all.find((r) => r.variant === chosenId) ?? all[0];
+    return {
+      id: s.id,
+      name: s.name,
+      lat: s.lat,
+      lon: s.lon,
+      ...chosen,
+      recommended,
+      pinned: s.variant !== undefined,
+      meetsRequired: chosen.pHit >= plan.requiredPHit,
+      comparison: all.map((r) => ({
+        variant: r.variant,
+        reachable: r.reachable,
+        pHit: r.pHit,
+        cep_m: r.cep_m,
+      })),
+      byVariant: all,
+    };
+  });
+  return {
+    name: plan.name,
+    time: plan.time,
+    declination_deg: declination,
+    declinationModel,
+    releaseAltitudeMSL_m: top_m,
+    releasePoint: { lat: plan.release.lat, lon: plan.release.lon },
+    track: { unit: ctx.unit, groundSpeed_mps: ctx.speed, trackDeg: plan.carrier.trackDeg },
+    sites,
+    warnings,
+  };
+}

@@ -1,0 +1,3 @@
+// Lit components, one per file named after its tag; loading this registers <seedfall-app> and
+// the elements it uses. The public face of app/ui/: app/main.ts imports from here only.
+export { SeedfallApp } from './seedfall-app';
