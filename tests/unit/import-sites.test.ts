@@ -563,9 +563,12 @@ describe('imported sites always fit the plan', () => {
             lon: lon0,
           }));
           plan.sites = [...plan.sites, ...extra];
+          // As the app calls it: with the release point, so a decimal-comma or swapped position
+          // that lands far away is refused by the importer, not by the plan afterwards.
           const r = importSites(text, 'auto', {
             existingIds: plan.sites.map((s) => s.id),
             variantIds: plan.variants.map((v) => v.id),
+            near: { lat: lat0, lon: lon0, maxDistance_m: FRAME_LIMIT_M },
           });
           plan.sites = [...plan.sites, ...r.sites];
           const v = validatePlan(plan);
