@@ -22,6 +22,7 @@ import {
   NAME_MAX,
   optionalNumber,
   type Problems,
+  type ReadTarget,
   Sink,
   type Where,
 } from './site-reading';
@@ -153,13 +154,8 @@ export function toSitesCSV(plan: Plan, opts: CsvOptions = {}): string {
   ]);
   return csv(fields, data, opts);
 }
-export function readCSV(
-  text: string,
-  opts: ImportOptions,
-  ids: IdPool,
-  sink: Sink,
-  problems: Problems,
-): void {
+export function readCSV(text: string, opts: ImportOptions, to: ReadTarget): void {
+  const { ids, sink, problems } = to;
   const delimiter = opts.delimiter ?? detectDelimiter(text);
   const dc = delimiter !== ',';
   let layout: Layout | undefined;

@@ -15,7 +15,15 @@ import {
   trackSpan,
   trackTimes,
 } from './export-shared';
-import { checkLatLon, clip, IdPool, optionalNumber, type Problems, Sink } from './site-reading';
+import {
+  checkLatLon,
+  clip,
+  IdPool,
+  optionalNumber,
+  type Problems,
+  type ReadTarget,
+  Sink,
+} from './site-reading';
 
 /** A GeoJSON position [lon, lat] in degrees (RFC 7946 §3.1.1). */
 export type Position = [number, number];
@@ -178,7 +186,8 @@ export type Json = Record<string, unknown>;
 export const isObj = (x: unknown): x is Json =>
   typeof x === 'object' && x !== null && !Array.isArray(x);
 
-export function readGeoJSON(text: string, ids: IdPool, sink: Sink, problems: Problems): void {
+export function readGeoJSON(text: string, to: ReadTarget): void {
+  const { ids, sink, problems } = to;
   let root: unknown;
   try {
     root = JSON.parse(text);

@@ -52,9 +52,10 @@ export function importSites(
           : head === '{' || head === '['
             ? 'geojson'
             : 'csv';
-    if (k === 'csv') readCSV(body, opts, ids, sink, problems);
-    else if (k === 'geojson') readGeoJSON(body, ids, sink, problems);
-    else readKML(body, opts, ids, sink, problems);
+    const to = { ids, sink, problems };
+    if (k === 'csv') readCSV(body, opts, to);
+    else if (k === 'geojson') readGeoJSON(body, to);
+    else readKML(body, opts, to);
   } catch (e) {
     problems.push({ message: `the file could not be read: ${(e as Error)?.message ?? String(e)}` });
   }

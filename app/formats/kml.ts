@@ -14,11 +14,9 @@ import {
 } from './geojson';
 import {
   clip,
-  IdPool,
   type ImportOptions,
   type ImportProblem,
-  type Problems,
-  Sink,
+  type ReadTarget,
   type XmlParser,
 } from './site-reading';
 
@@ -169,13 +167,8 @@ export function defaultParser(onError: (line: number | undefined, msg: string) =
   };
 }
 
-export function readKML(
-  text: string,
-  opts: ImportOptions,
-  ids: IdPool,
-  sink: Sink,
-  problems: Problems,
-): void {
+export function readKML(text: string, opts: ImportOptions, to: ReadTarget): void {
+  const { ids, sink, problems } = to;
   const xmlProblems: ImportProblem[] = [];
   const note = (line: number | undefined, msg: string): void => {
     xmlProblems.push(line ? { line, message: `line ${line}: ${msg}` } : { message: msg });

@@ -38,6 +38,13 @@ export interface ImportOptions {
 }
 
 export type Problems = ProblemList<ImportProblem>;
+
+/** Where a reader puts what it reads: ids handed out, sites kept, problems reported. */
+export interface ReadTarget {
+  ids: IdPool;
+  sink: Sink;
+  problems: Problems;
+}
 export type Where = { line?: number; feature?: number };
 
 /** Where read sites go: at most `room` of them (the plan's limit less the sites it has). */
