@@ -1,30 +1,17 @@
-import { LitElement, css, html } from 'lit';
+import { css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { formatCoord } from './units';
-import type { PlanStore } from './plan-store';
-import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
-
-let nextId = 0;
+import { SfFieldBase, fieldStyles } from './sf-field-base';
 
 /**
  * A position shown in the user's coordinate format (decimal, DMS, UTM or MGRS) that accepts any
  * of those forms when typed; bound to the object at `path` (its lat and lon).
  */
 @customElement('sf-coord-field')
-export class SfCoordField extends LitElement {
+export class SfCoordField extends SfFieldBase {
   static styles = [
-    sharedStyles,
+    fieldStyles('14em'),
     css`
-      :host {
-        display: block;
-      }
-      label {
-        display: grid;
-        grid-template-columns: 1fr 14em;
-        gap: 6px;
-        align-items: center;
-      }
       input {
         width: 100%;
       }
@@ -34,16 +21,11 @@ export class SfCoordField extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
-  @property() path = '';
-  @property() label = 'Position';
+  label = 'Position';
   @property({ type: Boolean }) compact = false;
 
-  private readonly inputId = `sf-coord-${nextId++}`;
-
   constructor() {
-    super();
-    new StoreController(this, () => this.store);
+    super('sf-coord');
   }
 
   private text(): string {
@@ -71,7 +53,7 @@ export class SfCoordField extends LitElement {
       title="Decimal degrees, DMS (47°29′34″N 21°04′44″E), UTM (34T 657425 5262364) or MGRS"
       @change=${(e: Event) => s?.editPosition(this.path, (e.target as HTMLInputElement).value)}
     />`;
-    return html`${this.compact ? input : html`<label for=${this.inputId}><span>${this.label}</span>${input}</label>`}
+    return html`${this.compact ? input : this.labelled(input)}
     ${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
   }
 }

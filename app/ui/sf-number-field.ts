@@ -1,4 +1,4 @@
-import { LitElement, css, html, type TemplateResult } from 'lit';
+import { css, html, type TemplateResult } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import {
   fromDisplayLength,
@@ -8,32 +8,20 @@ import {
   toDisplaySpeed,
 } from './units';
 import type { PlanStore } from './plan-store';
-import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { SfFieldBase, fieldStyles } from './sf-field-base';
 
 /** What a field holds: converted to the user's units for length and speed, as is otherwise. */
 export type FieldKind = 'length' | 'speed' | 'plain';
-
-let nextId = 0;
 
 /**
  * A labelled number input bound to one plan path. Text that does not read as a number, or a
  * value out of range, is kept as typed and explained beside the field.
  */
 @customElement('sf-number-field')
-export class SfNumberField extends LitElement {
+export class SfNumberField extends SfFieldBase {
   static styles = [
-    sharedStyles,
+    fieldStyles('7.5em'),
     css`
-      :host {
-        display: block;
-      }
-      label {
-        display: grid;
-        grid-template-columns: 1fr 7.5em;
-        gap: 6px;
-        align-items: center;
-      }
       .unit {
         color: var(--sf-muted);
         font-size: 12px;
@@ -54,9 +42,6 @@ export class SfNumberField extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
-  @property() path = '';
-  @property() label = '';
   @property() kind: FieldKind = 'plain';
   /** Unit label for plain fields (e.g. "°", "K", "%"). */
   @property() unit = '';
@@ -66,11 +51,8 @@ export class SfNumberField extends LitElement {
   /** Table-cell form: no visible label (it becomes the accessible name), no unit. */
   @property({ type: Boolean }) compact = false;
 
-  private readonly inputId = `sf-num-${nextId++}`;
-
   constructor() {
-    super();
-    new StoreController(this, () => this.store);
+    super('sf-num');
   }
 
   private unitLabel(): string {
@@ -135,9 +117,8 @@ export class SfNumberField extends LitElement {
           @change=${this.onChange}
         />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
     }
-    return html`<label for=${this.inputId}>
-        <span>${this.label}</span>
-        <span class="box">
+    return html`${this.labelled(
+        html`<span class="box">
           <input
             id=${this.inputId}
             inputmode="decimal"
@@ -148,8 +129,8 @@ export class SfNumberField extends LitElement {
             data-path=${this.path}
             @change=${this.onChange}
           /><span class="unit">${this.unitLabel()}</span>
-        </span>
-      </label>
+        </span>`,
+      )}
       <div class="field-error" id=${`${this.inputId}-err`} role=${msg ? 'alert' : 'none'}>
         ${msg ?? ''}
       </div>`;

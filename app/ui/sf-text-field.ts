@@ -1,26 +1,13 @@
-import { LitElement, css, html } from 'lit';
+import { css, html } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { PlanStore } from './plan-store';
-import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
-
-let nextId = 0;
+import { SfFieldBase, fieldStyles } from './sf-field-base';
 
 /** A labelled text input (or a select when `options` is set) bound to one plan path. */
 @customElement('sf-text-field')
-export class SfTextField extends LitElement {
+export class SfTextField extends SfFieldBase {
   static styles = [
-    sharedStyles,
+    fieldStyles('11em'),
     css`
-      :host {
-        display: block;
-      }
-      label {
-        display: grid;
-        grid-template-columns: 1fr 11em;
-        gap: 6px;
-        align-items: center;
-      }
       input,
       select {
         width: 100%;
@@ -28,20 +15,14 @@ export class SfTextField extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
-  @property() path = '';
-  @property() label = '';
   @property() placeholder = '';
   /** Choices for a select: [value, label] pairs. */
   @property({ attribute: false }) options?: [string, string][];
   /** An empty input removes the value so its default applies. */
   @property({ type: Boolean }) optional = false;
 
-  private readonly inputId = `sf-text-${nextId++}`;
-
   constructor() {
-    super();
-    new StoreController(this, () => this.store);
+    super('sf-text');
   }
 
   private onChange(e: Event): void {
@@ -71,7 +52,7 @@ export class SfTextField extends LitElement {
           aria-invalid=${msg ? 'true' : 'false'}
           @change=${this.onChange}
         />`;
-    return html`<label for=${this.inputId}><span>${this.label}</span>${control}</label>
+    return html`${this.labelled(control)}
       <div class="field-error" role=${msg ? 'alert' : 'none'}>${msg ?? ''}</div>`;
   }
 }
