@@ -175,7 +175,7 @@ function importCase(job: Job): ImportOutcome {
         winds.layers = [{ altitude_m: c.lowestLayer_m, fromDeg: 270, speed_mps: 10 }];
       const lowest = Math.min(...winds.layers.map((l) => l.altitude_m));
       const before = winds.layers.length;
-      // As the app blends it (sf-wind-sources.ts): within the plan's limits.
+      // As the app blends it (app/ui/surface-reading-form.ts): within the plan's limits.
       const blend = blendSurfaceReading(
         winds.layers,
         { height_m: c.height_m, speed_mps: c.speed_mps, fromDeg: c.fromDeg },
