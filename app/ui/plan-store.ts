@@ -1,74 +1,29 @@
+/** The app's one state object: the plan being edited, its checks, history, autosave and results. */
 import { parseCoordinate } from '../model';
 import { allowedRange, type Plan, type PlanIssue, validatePlan } from '../plan';
 import type { PlanSafety } from '../safety';
 import type { PlanResult, SweepPoint } from '../planner';
-import type { WorkerReply } from '../worker';
 import { getAt, setAt } from './paths';
+import { PlanHistory } from './plan-history';
+import { PlanningRun } from './planning-run';
+import { browserStorage, SafeStorage, storageWhy } from './safe-storage';
 import {
   checkSettings,
   DAMAGED_KEY,
   DAMAGED_TIME_KEY,
   DRAFT_KEY,
-  isQuotaError,
-  readDraftText,
-  readSettingsText,
   SETTINGS_KEY,
   type Settings,
 } from './saved-state';
+import { type DamagedDraft, type Draft, loadDraft, loadSettings, withTime } from './start-state';
 
 export type { Settings } from './saved-state';
-
-const HISTORY_LIMIT = 200;
-/**
- * Undo and redo steps are whole plans as JSON; besides their count, their total length is
- * bounded (characters; twice that in bytes), so a few large plans cannot fill the memory.
- */
-const HISTORY_CHARS = 20_000_000;
-/** Least time between two progress redraws (ms). */
-const PROGRESS_EMIT_MS = 250;
-
-/** A saved draft that could not be read, kept so that nothing is lost. */
-export interface DamagedDraft {
-  /** The stored text exactly as it was. */
-  text: string;
-  /** Why it could not be read ('' for a copy kept from an earlier visit). */
-  reason: string;
-  /** When it was found (ISO 8601). */
-  at: string;
-  /** True when a copy sits in browser storage under DAMAGED_KEY. */
-  stored: boolean;
-  /** True when the copy was kept on an earlier visit (this visit's draft was fine). */
-  earlier: boolean;
-}
-
-/** The browser's storage, or null where even looking at it is refused (privacy settings). */
-function browserStorage(): Storage | null {
-  try {
-    return globalThis.localStorage ?? null;
-  } catch {
-    return null;
-  }
-}
-
-const message = (e: unknown): string => (e instanceof Error ? e.message : String(e));
+export type { DamagedDraft } from './start-state';
 
 /** Text typed into a field that is not a value yet, with the reason. */
 export interface FieldText {
   text: string;
   message: string;
-}
-
-type Draft = Record<string, unknown>;
-
-/**
- * A plan opened without a release time gets the current time written into it, so the time (and
- * with it declination, daylight and the sign-off fingerprint) stays put until the user changes it.
- */
-function withTime(d: Draft): Draft {
-  if (d.time !== undefined) return d;
-  const now = new Date();
-  now.setSeconds(0, 0);
-  return { ...d, time: now.toISOString().replace('.000Z', 'Z') };
 }
 
 /**
@@ -98,38 +53,33 @@ export class PlanStore extends EventTarget {
   settings: Settings;
   /** A one-line message for the status bar (file opened, file rejected, …). */
   notice: { kind: 'info' | 'error'; text: string } | null = null;
-  /** A saved draft that could not be read (shown until dismissed; see keepDamaged). */
+  /** A saved draft that could not be read (shown until dismissed; see start-state.ts). */
   damaged: DamagedDraft | null = null;
   /** Why the last autosave failed; cleared by the next one that succeeds. */
   saveError: string | null = null;
 
-  private past: string[] = [];
-  private future: string[] = [];
+  private history: PlanHistory;
+  private readonly run = new PlanningRun(this, () => this.emit());
+  private readonly storage: SafeStorage;
   /**
    * Autosave is held while the draft key still holds a damaged draft that has no copy elsewhere
    * in storage, or when storage could not be read at all: saving would overwrite it.
    */
   private holdSave = false;
-  private worker: Worker | null = null;
-  /** The planning worker could not start: no plan is sent (and nothing shows "Planning…"). */
-  private workerDead = false;
-  private nextId = 1;
-  private inFlight = 0;
-  private progressShownAt = -Infinity;
-  private pending: Plan | null = null;
-  private sentPlan: Plan | null = null;
-  private computeTimer: ReturnType<typeof setTimeout> | undefined;
   private saveTimer: ReturnType<typeof setTimeout> | undefined;
-  private committed: string;
 
-  constructor(
-    fallback: Draft,
-    private readonly storage: Storage | null = browserStorage(),
-  ) {
+  constructor(fallback: Draft, storage: Storage | null = browserStorage()) {
     super();
-    this.settings = this.loadSettings();
-    this.draft = this.loadDraft(fallback);
-    this.committed = JSON.stringify(this.draft);
+    this.storage = new SafeStorage(storage);
+    const { settings, problem } = loadSettings(this.storage);
+    this.settings = settings;
+    if (problem) this.notice = { kind: 'error', text: problem };
+    const start = loadDraft(this.storage, fallback);
+    this.draft = start.draft;
+    this.damaged = start.damaged;
+    this.holdSave = start.holdSave;
+    this.saveError = start.saveError;
+    this.history = new PlanHistory(JSON.stringify(this.draft));
     this.revalidate();
   }
 
@@ -192,10 +142,10 @@ export class PlanStore extends EventTarget {
   }
 
   get canUndo(): boolean {
-    return this.past.length > 0;
+    return this.history.canUndo;
   }
   get canRedo(): boolean {
-    return this.future.length > 0;
+    return this.history.canRedo;
   }
   /** A result exists and belongs to the current plan (nothing is being recomputed). */
   get current(): boolean {
@@ -270,36 +220,22 @@ export class PlanStore extends EventTarget {
 
   /** Makes the current plan an undo step (after transient edits). */
   commit(): void {
-    const now = JSON.stringify(this.draft);
-    if (now === this.committed) return;
-    this.past.push(this.committed);
-    this.future = [];
-    this.committed = now;
-    this.trimHistory();
+    this.history.commit(JSON.stringify(this.draft));
   }
 
   /** Characters held by the undo and redo steps. */
   get historyChars(): number {
-    let n = 0;
-    for (const h of this.past) n += h.length;
-    for (const h of this.future) n += h.length;
-    return n;
+    return this.history.chars;
   }
 
   undo(): void {
-    const prev = this.past.pop();
-    if (prev === undefined) return;
-    this.future.push(this.committed);
-    this.trimHistory();
-    this.restore(prev);
+    const prev = this.history.undo();
+    if (prev !== undefined) this.restore(prev);
   }
 
   redo(): void {
-    const next = this.future.pop();
-    if (next === undefined) return;
-    this.past.push(this.committed);
-    this.trimHistory();
-    this.restore(next);
+    const next = this.history.redo();
+    if (next !== undefined) this.restore(next);
   }
 
   /**
@@ -313,11 +249,11 @@ export class PlanStore extends EventTarget {
       return;
     }
     this.settings = settings;
-    const err = this.tryWrite(SETTINGS_KEY, JSON.stringify(settings));
+    const err = this.storage.write(SETTINGS_KEY, JSON.stringify(settings));
     if (err !== null) {
       this.notice = {
         kind: 'error',
-        text: `Settings apply now but could not be stored for the next visit: ${this.storageWhy(err)}.`,
+        text: `Settings apply now but could not be stored for the next visit: ${storageWhy(err)}.`,
       };
     }
     this.emit();
@@ -356,8 +292,8 @@ export class PlanStore extends EventTarget {
 
   /** Removes the copy of a damaged draft from storage (after the user downloaded it). */
   deleteDamagedCopy(): void {
-    this.tryRemove(DAMAGED_KEY);
-    this.tryRemove(DAMAGED_TIME_KEY);
+    this.storage.remove(DAMAGED_KEY);
+    this.storage.remove(DAMAGED_TIME_KEY);
     if (this.damaged?.stored) this.damaged = null;
     this.emit();
   }
@@ -369,71 +305,18 @@ export class PlanStore extends EventTarget {
 
   /** Starts the planning worker made by make(); a worker that cannot be made is reported. */
   startWorker(make: () => Worker): void {
-    let w: Worker;
-    try {
-      w = make();
-    } catch (e) {
-      this.workerFailed(`the planning worker could not start (${message(e)})`);
-      return;
-    }
-    this.attachWorker(w);
+    if (this.run.start(make)) this.changed(0);
   }
 
   /** Sends plans to a planning worker (the app starts one; tests may run without). */
   attachWorker(worker: Worker): void {
-    this.worker = worker;
-    this.workerDead = false;
-    worker.onmessage = (ev: MessageEvent<WorkerReply>) => this.onReply(ev.data);
-    worker.onerror = (ev) => {
-      // An error with a message comes from the running worker's code: forget the lost request so
-      // the next edit is planned again. One without a message is a script that never loaded.
-      if (typeof ev.message === 'string' && ev.message) {
-        this.workerError = ev.message;
-        this.forgetRequest();
-        return;
-      }
-      ev.preventDefault?.();
-      worker.terminate?.();
-      this.workerFailed(
-        'the planning worker could not start (its script did not load). Reload the page to try again; your plan is kept',
-      );
-    };
-    worker.onmessageerror = () => {
-      this.workerError = 'a planning result could not be read';
-      this.forgetRequest();
-    };
+    this.run.attach(worker);
     this.changed(0);
   }
 
   // ---- internals -----------------------------------------------------------------------
 
-  private forgetRequest(): void {
-    this.inFlight = 0;
-    this.pending = null;
-    this.computing = false;
-    this.emit();
-  }
-
-  private workerFailed(why: string): void {
-    this.worker = null;
-    this.workerDead = true;
-    this.workerError = why;
-    clearTimeout(this.computeTimer);
-    this.forgetRequest();
-  }
-
-  /** Drops the oldest undo steps (then the farthest redo steps) past the count or size bound. */
-  private trimHistory(): void {
-    while (this.past.length > HISTORY_LIMIT) this.past.shift();
-    let chars = this.historyChars;
-    while (chars > HISTORY_CHARS && this.past.length + this.future.length > 0) {
-      const dropped = this.past.length > 0 ? this.past.shift() : this.future.shift();
-      chars -= dropped?.length ?? 0;
-    }
-  }
-
   private restore(json: string): void {
-    this.committed = json;
     this.draft = JSON.parse(json) as Draft;
     this.texts.clear();
     this.changed(0);
@@ -442,7 +325,7 @@ export class PlanStore extends EventTarget {
   private changed(delay_ms: number): void {
     this.revalidate();
     this.saveSoon();
-    if (this.plan && this.issues.length === 0) this.computeSoon(delay_ms);
+    if (this.plan && this.issues.length === 0) this.run.planSoon(delay_ms);
     this.emit();
   }
 
@@ -458,56 +341,6 @@ export class PlanStore extends EventTarget {
     }
   }
 
-  private computeSoon(delay_ms: number): void {
-    if (this.workerDead) return;
-    clearTimeout(this.computeTimer);
-    this.computing = true;
-    this.computeTimer = setTimeout(() => this.send(), delay_ms);
-  }
-
-  private send(): void {
-    if (!this.worker || !this.plan) return;
-    if (this.inFlight) {
-      this.pending = this.plan;
-      return;
-    }
-    this.inFlight = this.nextId++;
-    this.progress = 0;
-    this.sentPlan = this.plan;
-    this.worker.postMessage({ id: this.inFlight, plan: this.plan });
-  }
-
-  private onReply(m: WorkerReply): void {
-    if (m.id !== this.inFlight) return;
-    if (m.type === 'progress') {
-      this.progress = m.done / m.total;
-      // The worker reports every site; each change event re-renders the map and the panels, so
-      // the bar is redrawn at most every PROGRESS_EMIT_MS (the result itself is always shown).
-      const now = performance.now();
-      if (now - this.progressShownAt < PROGRESS_EMIT_MS) return;
-      this.progressShownAt = now;
-      this.emit();
-      return;
-    }
-    this.inFlight = 0;
-    if (m.type === 'result') {
-      this.result = m.result;
-      this.resultPlan = this.sentPlan;
-      this.safety = m.safety;
-      this.elapsed_ms = m.elapsed_ms;
-      this.workerError = m.safetyError ? `safety checks failed: ${m.safetyError}` : null;
-    } else {
-      this.workerError = m.message;
-    }
-    if (this.pending) {
-      this.pending = null;
-      this.send();
-    } else {
-      this.computing = false;
-    }
-    this.emit();
-  }
-
   private saveSoon(): void {
     clearTimeout(this.saveTimer);
     this.saveTimer = setTimeout(() => this.writeDraft(), 200);
@@ -515,10 +348,10 @@ export class PlanStore extends EventTarget {
 
   /** Autosave: a failure keeps the edit in memory and stands in saveError until a save works. */
   private writeDraft(): void {
-    if (this.holdSave || !this.storage) return;
+    if (this.holdSave || !this.storage.storage) return;
     let err: unknown;
     try {
-      err = this.tryWrite(DRAFT_KEY, JSON.stringify(this.draft));
+      err = this.storage.write(DRAFT_KEY, JSON.stringify(this.draft));
     } catch (e) {
       err = e; // a draft that cannot be written as JSON
     }
@@ -526,120 +359,8 @@ export class PlanStore extends EventTarget {
     this.saveError =
       err === null
         ? null
-        : `Autosave failed: ${this.storageWhy(err)} — save the plan to a file (Save) to keep your edits`;
+        : `Autosave failed: ${storageWhy(err)} — save the plan to a file (Save) to keep your edits`;
     if (this.saveError !== before) this.emit();
-  }
-
-  private storageWhy(err: unknown): string {
-    return isQuotaError(err)
-      ? 'browser storage is full'
-      : `the browser refused to store it (${message(err)})`;
-  }
-
-  /** setItem that never throws: the error, or null when the value was stored. */
-  private tryWrite(key: string, value: string): unknown {
-    if (!this.storage) return new Error('browser storage is not available');
-    try {
-      this.storage.setItem(key, value);
-      return null;
-    } catch (e) {
-      return e ?? new Error('unknown storage error');
-    }
-  }
-
-  private tryRemove(key: string): void {
-    try {
-      this.storage?.removeItem(key);
-    } catch {
-      // Nothing to do: the copy stays, which loses nothing.
-    }
-  }
-
-  /** getItem that never throws: the text, null when absent, or the error. */
-  private tryRead(key: string): string | null | { error: unknown } {
-    try {
-      return this.storage?.getItem(key) ?? null;
-    } catch (e) {
-      return { error: e };
-    }
-  }
-
-  private loadSettings(): Settings {
-    const raw = this.tryRead(SETTINGS_KEY);
-    const { settings, problems } = readSettingsText(typeof raw === 'string' ? raw : null);
-    if (raw !== null && typeof raw === 'object') {
-      problems.push(`settings could not be read from browser storage (${message(raw.error)})`);
-    }
-    if (problems.length) {
-      this.notice = {
-        kind: 'error',
-        text: `Saved settings had problems, so their defaults are used: ${problems.join('; ')}.`,
-      };
-    }
-    return settings;
-  }
-
-  /**
-   * The saved draft when it is a plan object (checked like any opened file, so a draft of the
-   * wrong shape shows its problems beside the fields); otherwise the fallback, with the saved
-   * text kept aside (keepDamaged) and never overwritten before a copy of it is safe.
-   */
-  private loadDraft(fallback: Draft): Draft {
-    const raw = this.tryRead(DRAFT_KEY);
-    if (raw !== null && typeof raw === 'object') {
-      // Storage exists but cannot be read: there may be a draft in it that must not be replaced.
-      this.holdSave = true;
-      this.saveError = `Autosave is off: browser storage could not be read (${message(raw.error)}) — save the plan to a file (Save) to keep your edits`;
-      return withTime(structuredClone(fallback));
-    }
-    const r = readDraftText(raw);
-    if (r.kind === 'ok') {
-      try {
-        const d = withTime(r.draft);
-        JSON.stringify(d); // undo steps and autosave need it as JSON (too deep a nesting throws)
-        this.keptEarlier();
-        return d;
-      } catch (e) {
-        this.keepDamaged(raw as string, `it could not be read (${message(e)})`);
-      }
-    } else if (r.kind === 'damaged') {
-      this.keepDamaged(r.text, r.reason);
-    } else {
-      this.keptEarlier();
-    }
-    return withTime(structuredClone(fallback));
-  }
-
-  /**
-   * Keeps a damaged draft: a copy under DAMAGED_KEY (one at most; a copy already there from an
-   * earlier visit is not replaced), and in memory for download. Without a copy in storage,
-   * autosave is held until the user dismisses the notice, so the original stays in the draft key.
-   */
-  private keepDamaged(text: string, reason: string): void {
-    const at = new Date().toISOString();
-    const existing = this.tryRead(DAMAGED_KEY);
-    let stored = existing === text;
-    if (existing === null) {
-      stored = this.tryWrite(DAMAGED_KEY, text) === null && this.tryRead(DAMAGED_KEY) === text;
-      if (stored) this.tryWrite(DAMAGED_TIME_KEY, at);
-      else this.tryRemove(DAMAGED_KEY); // no partial copy
-    }
-    this.holdSave = !stored;
-    this.damaged = { text, reason, at, stored, earlier: false };
-  }
-
-  /** A damaged draft kept on an earlier visit is shown again until its copy is deleted. */
-  private keptEarlier(): void {
-    const text = this.tryRead(DAMAGED_KEY);
-    if (typeof text !== 'string') return;
-    const at = this.tryRead(DAMAGED_TIME_KEY);
-    this.damaged = {
-      text,
-      reason: '',
-      at: typeof at === 'string' ? at.slice(0, 40) : '',
-      stored: true,
-      earlier: true,
-    };
   }
 
   private emit(): void {
