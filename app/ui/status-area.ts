@@ -1,0 +1,92 @@
+/** What the app tells the person about its state: standing alerts and the status line. */
+import { html, type TemplateResult } from 'lit';
+import { downloadDamaged } from './downloads';
+import type { PlanStore } from './plan-store';
+import { DAMAGED_KEY } from './saved-state';
+
+/** Standing alerts that must not scroll away: a damaged saved draft, autosave failures. */
+export function renderAlerts(s: PlanStore): TemplateResult[] {
+  const d = s.damaged;
+  const out: TemplateResult[] = [];
+  if (d) {
+    const what = d.earlier
+      ? html`A saved draft that could not be read${d.at ? ` (found ${d.at})` : ''} is still kept in
+        browser storage under ${DAMAGED_KEY}.`
+      : html`Your saved draft could not be read: ${d.reason}. The app started on the demo plan
+        instead.
+        ${
+          d.stored
+            ? html`The damaged draft is kept unchanged in browser storage under ${DAMAGED_KEY} until
+              you delete it.`
+            : html`Browser storage cannot hold a copy of it, so autosave is paused and the damaged
+              draft stays where it was until you download or discard it.`
+        }`;
+    out.push(
+      html`<div class="alert" role="alert" data-testid="damaged-draft">
+        <p>${what}</p>
+        <button data-testid="download-damaged" @click=${() => downloadDamaged(s)}>
+          Download damaged draft
+        </button>
+        ${
+          d.stored
+            ? html`<button data-testid="delete-damaged" @click=${() => s.deleteDamagedCopy()}>
+                  Delete kept copy
+                </button>
+                <button data-testid="dismiss-damaged" @click=${() => s.dismissDamaged()}>
+                  Dismiss
+                </button>`
+            : html`<button data-testid="dismiss-damaged" @click=${() => s.dismissDamaged()}>
+                Discard it and resume autosave
+              </button>`
+        }
+      </div>`,
+    );
+  }
+  if (s.saveError) {
+    out.push(
+      html`<div class="alert" role="alert" data-testid="save-error">
+        <p>${s.saveError}.</p>
+      </div>`,
+    );
+  }
+  return out;
+}
+
+/** The status line: planning progress or time, the plan's problems, worker failures, the notice. */
+export function renderStatus(s: PlanStore): TemplateResult[] {
+  const parts: TemplateResult[] = [];
+  if (s.computing) {
+    parts.push(
+      html`<span data-testid="computing"
+        >Planning… <progress max="1" .value=${s.progress}></progress
+      ></span>`,
+    );
+  } else if (s.result) {
+    parts.push(
+      html`<span data-testid="planned"
+        >Planned ${s.result.sites.length} sites in ${Math.round(s.elapsed_ms)} ms.</span
+      >`,
+    );
+  }
+  if (!s.valid) {
+    const n = s.issues.length + s.texts.size;
+    parts.push(
+      html`<span class="invalid" data-testid="stale" role="status">
+        ${n} problem${n === 1 ? '' : 's'} in the plan — the map shows the last valid result.</span
+      >`,
+    );
+  }
+  if (s.workerError)
+    parts.push(html`<span class="notice-error">Planning failed: ${s.workerError}</span>`);
+  if (s.notice) {
+    parts.push(
+      html`<span
+        class=${s.notice.kind === 'error' ? 'notice-error' : ''}
+        data-testid="notice"
+        role="status"
+        >${s.notice.text}</span
+      >`,
+    );
+  }
+  return parts;
+}
