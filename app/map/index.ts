@@ -1,4 +1,5 @@
-// Leaflet adapters: plan results → map layers, the graticule, tooltips built from text nodes.
+// Leaflet adapters: plan results, the plan's marks and the safety picture → map layers, the
+// graticule, tooltips built from text nodes.
 // The public face of app/map/: other folders import from here only.
 export {
   bearingHandle,
@@ -18,4 +19,6 @@ export {
   type LayerVisibility,
   type ShapeKind,
 } from './plan-layers';
+export { releaseMarker, siteIcon, siteMarker, trackHandleMarker, trackLine } from './plan-marks';
+export { buildSafetyLayers, drawingOutline } from './safety-layers';
 export { escapeHtml, lazyTip, tipNode } from './tooltip';
