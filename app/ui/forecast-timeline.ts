@@ -5,6 +5,7 @@ import { timelineSvg } from '../brief';
 import type { TimelineEntry } from '../planner';
 import type { WindLayer } from '../model';
 import { schemaMaxItems } from '../formats';
+import { deleteRowButton } from './delete-row-button';
 import type { SweepClient } from './sweep-client';
 import type { WindSourcesHost } from './wind-sources-host';
 
@@ -70,22 +71,15 @@ export class ForecastTimeline {
         the clock times at which a release meets the required P(hit).
       </p>
       <ul>
-        ${s.rows<{ time: string; layers: unknown[] }>('winds.forecasts').map(
-          (f, i) =>
-            html`<li data-forecast=${i}>
-              ${String(f.time ?? '')} · ${Array.isArray(f.layers) ? f.layers.length : 0} layer(s)
-              <button
-                aria-label=${`Delete forecast ${f.time}`}
-                @click=${() =>
-                  s.edit(
-                    'winds.forecasts',
-                    s.list('winds.forecasts').filter((_, j) => j !== i),
-                  )}
-              >
-                ✕
-              </button>
-            </li>`,
-        )}
+        ${s
+          .rows<{ time: string; layers: unknown[] }>('winds.forecasts')
+          .map(
+            (f, i) =>
+              html`<li data-forecast=${i}>
+                ${String(f.time ?? '')} · ${Array.isArray(f.layers) ? f.layers.length : 0} layer(s)
+                ${deleteRowButton(s, 'winds.forecasts', i, `Delete forecast ${f.time}`)}
+              </li>`,
+          )}
       </ul>
       <div class="row">
         <label

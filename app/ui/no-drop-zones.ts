@@ -2,6 +2,8 @@
 import { html } from 'lit';
 import type { NoDropZone } from '../plan';
 import type { PlanStore } from './plan-store';
+import { deleteRowButton } from './delete-row-button';
+import { takePickedFile } from './picked-file';
 
 /** Corners of a stored zone's outer ring (0 when the zone has no ring to count). */
 function corners(z: Partial<NoDropZone>): number {
@@ -49,9 +51,7 @@ function zonesOf(data: unknown, fileName: string): { zones: NoDropZone[]; skippe
 
 /** Adds the polygons of the GeoJSON file picked in the section's input to the plan's zones. */
 async function importZones(s: PlanStore, e: Event): Promise<void> {
-  const input = e.target as HTMLInputElement;
-  const file = input.files?.[0];
-  input.value = '';
+  const file = takePickedFile(e);
   if (!file) return;
   let data: unknown;
   try {
@@ -86,16 +86,7 @@ export function noDropZones(s: PlanStore) {
             @change=${(e: Event) => s.edit(`safety.noDropZones[${i}].properties`, { name: (e.target as HTMLInputElement).value })}
           />
           <span class="muted">${corners(z)} corners</span>
-          <button
-            aria-label=${`Delete no-drop zone ${i + 1}`}
-            @click=${() =>
-              s.edit(
-                'safety.noDropZones',
-                s.list('safety.noDropZones').filter((_, j) => j !== i),
-              )}
-          >
-            ✕
-          </button>
+          ${deleteRowButton(s, 'safety.noDropZones', i, `Delete no-drop zone ${i + 1}`)}
         </div>`,
     )}
     <div class="row">

@@ -2,13 +2,12 @@
 import { html } from 'lit';
 import { applyWindLayers } from './apply-wind-layers';
 import { importSoundingFile, tooLarge } from './import-file';
+import { takePickedFile } from './picked-file';
 import type { WindSourcesHost } from './wind-sources-host';
 
 /** Reads the file picked in the section's input into the plan's winds (and temperatures). */
 async function onSoundingFile(host: WindSourcesHost, e: Event): Promise<void> {
-  const input = e.target as HTMLInputElement;
-  const file = input.files?.[0];
-  input.value = '';
+  const file = takePickedFile(e);
   if (!file) return;
   const big = tooLarge(file);
   if (big) {
