@@ -1,9 +1,8 @@
 // The shared part of the labelled plan fields (sf-number-field, sf-text-field, sf-coord-field).
-import { LitElement, css, html, unsafeCSS, type CSSResultGroup, type TemplateResult } from 'lit';
+import { css, html, unsafeCSS, type CSSResultGroup, type TemplateResult } from 'lit';
 import { property } from 'lit/decorators.js';
-import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 
 const nextIds = new Map<string, number>();
 
@@ -33,11 +32,9 @@ export function fieldStyles(controlWidth: string): CSSResultGroup {
 }
 
 /**
- * A labelled control bound to one plan path: re-renders when the plan store changes and owns a
- * page-unique id for its input.
+ * A labelled control bound to one plan path, with a page-unique id for its input.
  */
-export abstract class SfFieldBase extends LitElement {
-  @property({ attribute: false }) store?: PlanStore;
+export abstract class SfFieldBase extends StoreElement {
   @property() path = '';
   @property() label = '';
 
@@ -46,7 +43,6 @@ export abstract class SfFieldBase extends LitElement {
   constructor(idPrefix: string) {
     super();
     this.inputId = fieldId(idPrefix);
-    new StoreController(this, () => this.store);
   }
 
   /** The label beside its control, in the two-column grid of fieldStyles(). */

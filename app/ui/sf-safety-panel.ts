@@ -1,9 +1,8 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property } from 'lit/decorators.js';
+import { css, html } from 'lit';
+import { customElement } from 'lit/decorators.js';
 import { CAUTION_TEXT } from '../brief';
-import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
 import { checksList, readinessState, readinessStyles } from './safety-readiness';
 import { crewChecklist, crewChecklistStyles } from './crew-checklist';
@@ -16,7 +15,7 @@ import { noDropZones } from './no-drop-zones';
  * Each part is its own module; this element places them with the caution and the settings.
  */
 @customElement('sf-safety-panel')
-export class SfSafetyPanel extends LitElement {
+export class SfSafetyPanel extends StoreElement {
   static styles = [
     sharedStyles,
     readinessStyles,
@@ -42,13 +41,7 @@ export class SfSafetyPanel extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
   private readonly signOff = new SafetySignOff(this);
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   render() {
     const s = this.store;

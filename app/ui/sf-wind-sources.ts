@@ -1,8 +1,7 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property, state } from 'lit/decorators.js';
-import type { PlanStore } from './plan-store';
+import { css, html } from 'lit';
+import { customElement, state } from 'lit/decorators.js';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import { AltitudeSweep } from './altitude-sweep';
 import { ForecastTimeline } from './forecast-timeline';
 import { soundingSection } from './sounding-import';
@@ -17,7 +16,7 @@ import type { WindSourcesHost } from './wind-sources-host';
  * Each section is its own module; this element holds them and the one list of problems.
  */
 @customElement('sf-wind-sources')
-export class SfWindSources extends LitElement implements WindSourcesHost {
+export class SfWindSources extends StoreElement implements WindSourcesHost {
   static styles = [
     sharedStyles,
     css`
@@ -55,18 +54,12 @@ export class SfWindSources extends LitElement implements WindSourcesHost {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
   @state() problems: string[] = [];
   private readonly client = new SweepClient(this);
   private readonly sweep = new AltitudeSweep(this, this.client);
   private readonly forecasts = new ForecastTimeline(this, this.client);
   private readonly bulletin = new WindsAloftBulletin(this);
   private readonly surface = new SurfaceReadingForm(this);
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   render() {
     const s = this.store;
