@@ -1,6 +1,7 @@
 import { css, html } from 'lit';
 import { customElement } from 'lit/decorators.js';
 import { CAUTION_TEXT } from '../brief';
+import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
@@ -8,6 +9,21 @@ import { checksList, readinessState, readinessStyles } from './safety-readiness'
 import { crewChecklist, crewChecklistStyles } from './crew-checklist';
 import { SafetySignOff, signOffStyles } from './safety-signoff';
 import { noDropZones } from './no-drop-zones';
+
+/** The safety settings a crew matches to local rules; empty means the default shown. */
+function safetySettings(s: PlanStore) {
+  const n = (
+    path: string,
+    label: string,
+    unit: string,
+    def: string,
+    kind: 'length' | 'plain' = 'length',
+  ) => numberField(s, path, label, { kind, unit, optional: true, placeholder: `${def} (default)` });
+  return html`${n('safety.ceiling_m', 'Release ceiling above ground', '', '120 m')}
+  ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', '', '10 m')}
+  ${n('safety.hazardBuffer_m', 'Margin around the hazard area', '', '20 m')}
+  ${n('safety.thrustMargin_pct', 'Control time kept in reserve', '%', '20', 'plain')}`;
+}
 
 /**
  * The safety checklist: automatic checks computed with every plan, the crew's own items with who
@@ -46,14 +62,6 @@ export class SfSafetyPanel extends StoreElement {
   render() {
     const s = this.store;
     if (!s) return html``;
-    const n = (
-      path: string,
-      label: string,
-      unit: string,
-      def: string,
-      kind: 'length' | 'plain' = 'length',
-    ) =>
-      numberField(s, path, label, { kind, unit, optional: true, placeholder: `${def} (default)` });
     return html`
       <p class="caution" role="note">${CAUTION_TEXT}</p>
       ${readinessState(s)}
@@ -64,11 +72,7 @@ export class SfSafetyPanel extends StoreElement {
       <h3>Sign-off</h3>
       ${this.signOff.render()}
       <h3>Settings (match local rules)</h3>
-      ${n('safety.ceiling_m', 'Release ceiling above ground', '', '120 m')}
-      ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', '', '10 m')}
-      ${n('safety.hazardBuffer_m', 'Margin around the hazard area', '', '20 m')}
-      ${n('safety.thrustMargin_pct', 'Control time kept in reserve', '%', '20', 'plain')}
-      ${noDropZones(s)}
+      ${safetySettings(s)} ${noDropZones(s)}
     `;
   }
 }
