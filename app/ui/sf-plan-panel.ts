@@ -1,8 +1,7 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property } from 'lit/decorators.js';
-import type { PlanStore } from './plan-store';
+import { css, html } from 'lit';
+import { customElement } from 'lit/decorators.js';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import './sf-coord-field';
 import { numberField } from './sf-number-field';
 import './sf-text-field';
@@ -14,7 +13,7 @@ const REF: [string, string][] = [
 
 /** Release, carrier, atmosphere, uncertainty and Monte Carlo settings of the plan. */
 @customElement('sf-plan-panel')
-export class SfPlanPanel extends LitElement {
+export class SfPlanPanel extends StoreElement {
   static styles = [
     sharedStyles,
     css`
@@ -32,13 +31,6 @@ export class SfPlanPanel extends LitElement {
       }
     `,
   ];
-
-  @property({ attribute: false }) store?: PlanStore;
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   render() {
     const s = this.store;

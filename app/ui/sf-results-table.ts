@@ -1,10 +1,9 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property, state } from 'lit/decorators.js';
+import { css, html } from 'lit';
+import { customElement, state } from 'lit/decorators.js';
 import type { SiteResult } from '../planner';
 import { formatLength } from './units';
-import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 
 type Key = 'id' | 'variant' | 'pHit' | 'cep_m' | 'reachable' | 'open' | 'heading' | 'thrust';
 
@@ -36,7 +35,7 @@ function sortValue(r: SiteResult, k: Key): number | string {
 
 /** Per-site results of the latest plan: sortable; a row click shows the site on the map. */
 @customElement('sf-results-table')
-export class SfResultsTable extends LitElement {
+export class SfResultsTable extends StoreElement {
   static styles = [
     sharedStyles,
     css`
@@ -75,14 +74,8 @@ export class SfResultsTable extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
   @state() private key: Key = 'id';
   @state() private asc = true;
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   private sortBy(k: Key): void {
     if (this.key === k) this.asc = !this.asc;

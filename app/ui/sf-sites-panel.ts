@@ -1,11 +1,10 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property, state } from 'lit/decorators.js';
+import { css, html } from 'lit';
+import { customElement, state } from 'lit/decorators.js';
 import { schemaMaxItems } from '../formats';
 import { FRAME_LIMIT_M, type Site, type Variant } from '../plan';
 import { importSitesFile, tooLarge } from './import-file';
-import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import './sf-coord-field';
 import { numberField } from './sf-number-field';
 
@@ -20,7 +19,7 @@ export function nextSiteId(sites: { id?: unknown }[]): string {
 
 /** The sensor sites: id, name, position, ground, tolerance and an optional pinned variant. */
 @customElement('sf-sites-panel')
-export class SfSitesPanel extends LitElement {
+export class SfSitesPanel extends StoreElement {
   static styles = [
     sharedStyles,
     css`
@@ -54,15 +53,9 @@ export class SfSitesPanel extends LitElement {
     `,
   ];
 
-  @property({ attribute: false }) store?: PlanStore;
   @state() private problems: string[] = [];
   /** Name of the file being imported, '' when none. */
   @state() private importing = '';
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   private sites(): Site[] {
     return this.store?.list<Site>('sites') ?? [];

@@ -1,9 +1,8 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property } from 'lit/decorators.js';
+import { css, html } from 'lit';
+import { customElement } from 'lit/decorators.js';
 import type { Variant } from '../plan';
-import type { PlanStore } from './plan-store';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
 import './sf-text-field';
 
@@ -15,7 +14,7 @@ const GUIDANCE: [string, string][] = [
 
 /** The vehicle catalogue of the plan, one card per variant, in recommendation order. */
 @customElement('sf-variants-panel')
-export class SfVariantsPanel extends LitElement {
+export class SfVariantsPanel extends StoreElement {
   static styles = [
     sharedStyles,
     css`
@@ -44,13 +43,6 @@ export class SfVariantsPanel extends LitElement {
       }
     `,
   ];
-
-  @property({ attribute: false }) store?: PlanStore;
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   private variants(): Variant[] {
     return this.store?.list<Variant>('variants') ?? [];

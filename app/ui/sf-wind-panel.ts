@@ -1,15 +1,14 @@
-import { LitElement, css, html } from 'lit';
-import { customElement, property } from 'lit/decorators.js';
+import { css, html } from 'lit';
+import { customElement } from 'lit/decorators.js';
 import type { WindLayer } from '../model';
-import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
-import { StoreController } from './store-controller';
+import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
 import './sf-text-field';
 
 /** The wind layers of the plan: altitude, from-direction (° true) and speed, editable in place. */
 @customElement('sf-wind-panel')
-export class SfWindPanel extends LitElement {
+export class SfWindPanel extends StoreElement {
   static styles = [
     sharedStyles,
     css`
@@ -26,13 +25,6 @@ export class SfWindPanel extends LitElement {
       }
     `,
   ];
-
-  @property({ attribute: false }) store?: PlanStore;
-
-  constructor() {
-    super();
-    new StoreController(this, () => this.store);
-  }
 
   private layers(): WindLayer[] {
     return this.store?.list<WindLayer>('winds.layers') ?? [];
