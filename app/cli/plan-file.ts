@@ -10,12 +10,11 @@ import {
   writeFileSync,
 } from 'node:fs';
 import { resolve } from 'node:path';
-import { validatePlan, type Plan } from '../plan';
+import { MAX_PLAN_BYTES, validatePlan, type Plan } from '../plan';
 import { CliExit, errCode, fail, oneLine } from './args';
 import { jsonSyntaxError, lineColumn } from './json-syntax';
 
-/** Largest plan file read, bytes; a larger file (or an endless device) is refused. */
-export const MAX_PLAN_BYTES = 32 * 1024 * 1024;
+export { MAX_PLAN_BYTES };
 /** Problems of an invalid plan listed on stderr; the rest are counted. */
 export const MAX_LISTED_PROBLEMS = 200;
 /** A FIFO or device that gives no data for this long is given up on, ms. */

@@ -167,6 +167,9 @@ export function workIssue(plan: Plan): LimitIssue | null {
   };
 }
 
+/** Largest plan file read, bytes (CLI and app): a plan at every documented maximum is far smaller. */
+export const MAX_PLAN_BYTES = 32 * 1024 * 1024;
+
 /** Deepest nesting a plan file may have; a plan needs 8 (a zone vertex's coordinate). */
 export const MAX_PLAN_DEPTH = 32;
 

@@ -1,3 +1,4 @@
-// Lit components, one per file named after its tag; loading this registers <seedfall-app> and
-// the elements it uses. The public face of app/ui/: app/main.ts imports from here only.
+// Lit components (one per file, named after its tag) and the helper modules they share; loading
+// this registers <seedfall-app> and the elements it uses. The public face of app/ui/: app/main.ts
+// imports from here only.
 export { SeedfallApp } from './seedfall-app';

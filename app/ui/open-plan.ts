@@ -1,18 +1,25 @@
 /** Opens a plan file the person chose: checked as hostile input, refused with a notice. */
-import { validatePlan } from '../plan';
+import { MAX_PLAN_BYTES, validatePlan } from '../plan';
 import type { PlanStore } from './plan-store';
 
 /**
- * Replaces the plan with the JSON file chosen in input (one undo step), or leaves the plan as it
- * is and says why in the notice. The input is cleared so the same file can be chosen again.
+ * Replaces the plan with the chosen JSON file (one undo step), or leaves the plan as it is and
+ * says why in the notice. Files over MAX_PLAN_BYTES are refused unread; a UTF-8 byte-order mark is
+ * skipped, as the CLI does.
  */
-export async function openPlanFile(s: PlanStore, input: HTMLInputElement): Promise<void> {
-  const file = input.files?.[0];
-  input.value = '';
+export async function openPlanFile(s: PlanStore, file: File | undefined): Promise<void> {
   if (!file) return;
+  if (file.size > MAX_PLAN_BYTES) {
+    const mib = MAX_PLAN_BYTES / 1024 / 1024;
+    s.setNotice(
+      'error',
+      `${file.name} was not opened: it is larger than ${mib} MiB, more than any plan needs. Your plan is unchanged.`,
+    );
+    return;
+  }
   let raw: unknown;
   try {
-    raw = JSON.parse(await file.text());
+    raw = JSON.parse((await file.text()).replace(/^\uFEFF/, ''));
   } catch (err) {
     s.setNotice(
       'error',

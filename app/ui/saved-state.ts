@@ -1,7 +1,7 @@
 /**
  * What the app keeps in the browser's storage between visits (the draft plan and the settings),
  * read as hostile input: anything stored may be damaged, hand-edited or written by another
- * version. Pure functions; the store (plan-store.ts) does the reading and writing.
+ * version. Pure functions; start-state.ts and safe-storage.ts do the reading and writing.
  */
 import { COORD_FORMATS, DEFAULT_UNITS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from './units';
 

@@ -6,6 +6,7 @@ import { CAUTION_TEXT } from '../brief';
 import { openBrief } from './brief-tab';
 import { savePlan } from './downloads';
 import { openPlanFile } from './open-plan';
+import { takePickedFile } from './picked-file';
 import { PlanStore } from './plan-store';
 import { renderResultsTab } from './results-tab';
 import { renderSettings } from './settings-form';
@@ -250,7 +251,7 @@ export class SeedfallApp extends LitElement {
             accept=".json,application/json"
             hidden
             data-testid="open-file"
-            @change=${(e: Event) => openPlanFile(s, e.target as HTMLInputElement)}
+            @change=${(e: Event) => openPlanFile(s, takePickedFile(e))}
           />
           <button
             @click=${(e: Event) => ((e.currentTarget as HTMLElement).previousElementSibling as HTMLInputElement).click()}
