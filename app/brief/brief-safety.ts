@@ -6,6 +6,7 @@ import { blockingText, type PlanSafety } from '../safety';
 export function briefSafety(s: PlanSafety): BriefSafety {
   const geom = s.hazardArea.geometry;
   const polys = geom.type === 'Polygon' ? [geom.coordinates] : geom.coordinates;
+  const open = s.checklist.filter((m) => m.state === 'open').length;
   return {
     checks: s.checks.map((c) => ({ id: c.id, title: c.title, status: c.status, why: c.why })),
     hazardRings: polys.map((p) => p[0].map(([lon, lat]) => [lat, lon] as [number, number])),
@@ -18,10 +19,8 @@ export function briefSafety(s: PlanSafety): BriefSafety {
       who: s.signoff?.who,
       when: s.signoff?.when,
       blocking: [
-        ...blockingText(s).filter((b) => b.startsWith('failing')),
-        ...(s.checklist.some((m) => m.state === 'open')
-          ? [`${s.checklist.filter((m) => m.state === 'open').length} crew item(s) open`]
-          : []),
+        ...blockingText(s, 'check'),
+        ...(open > 0 ? [`${open} crew item(s) open`] : []),
         ...(s.signoffCurrent
           ? []
           : [s.signoff ? 'the sign-off was for an earlier version of the plan' : 'not signed off']),

@@ -45,7 +45,12 @@ export interface Bounds {
   exclusiveMax?: number;
 }
 
+const boundsOf = new Map<string, Bounds>();
+
+/** Bounds of a schema field; walked once per path (importers ask for every value they read). */
 export function schemaBounds(path: string): Bounds {
+  const known = boundsOf.get(path);
+  if (known) return known;
   const n = nodeAt(path);
   if (!n) throw new Error(`no schema field at ${path}`);
   const b: Bounds = {};
@@ -53,6 +58,7 @@ export function schemaBounds(path: string): Bounds {
   if (isNum(n.maximum)) b.max = n.maximum;
   if (isNum(n.exclusiveMinimum)) b.exclusiveMin = n.exclusiveMinimum;
   if (isNum(n.exclusiveMaximum)) b.exclusiveMax = n.exclusiveMaximum;
+  boundsOf.set(path, Object.freeze(b));
   return b;
 }
 

@@ -18,5 +18,3 @@ export function planFingerprint(plan: Plan): string {
   }
   return h.toString(16).padStart(8, '0');
 }
-
-/** Runs the automatic checks and combines them with the checklist and sign-off. */

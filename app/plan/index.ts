@@ -16,6 +16,12 @@ export {
 } from './plan';
 export { planWindOptions, planWindProfile, soundingDensity } from './plan-air';
 export { DEFAULTS, resolvePlan } from './plan-defaults';
-export { FRAME_LIMIT_M, MAX_PLAN_BYTES, MAX_PLAN_FLIGHTS, workIssue } from './plan-limits';
+export {
+  FRAME_LIMIT_M,
+  massFactor,
+  MAX_PLAN_BYTES,
+  MAX_PLAN_FLIGHTS,
+  workIssue,
+} from './plan-limits';
 export { allowedRange, type PlanIssue, type PlanValidation, validatePlan } from './validate';
 export { default as planSchema } from './plan.schema.json';

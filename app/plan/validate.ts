@@ -30,8 +30,6 @@ const PATTERN_HINTS: Record<string, string> = {
   [schema.definitions.id.pattern]: 'must be printable characters with no leading or trailing space',
 };
 
-const schemaValidator = () => checkSchema;
-
 const isRecord = (x: unknown): x is Json =>
   typeof x === 'object' && x !== null && !Array.isArray(x);
 const isNum = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
@@ -162,7 +160,7 @@ function translate(e: ErrorObject): PlanIssue {
 
 /** Schema errors in house form: one per field (the first), but every unknown or missing field. */
 function schemaIssues(raw: unknown): PlanIssue[] {
-  const check = schemaValidator();
+  const check = checkSchema;
   if (check(raw)) return [];
   const seen = new Set<string>();
   const out: PlanIssue[] = [];

@@ -24,6 +24,7 @@ import {
   type WindProfile,
 } from '../model';
 import {
+  massFactor,
   type Plan,
   planWindProfile,
   type ResolvedSite,
@@ -144,12 +145,10 @@ interface Context {
 }
 
 function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetup {
-  const massFactor =
-    v.payloadMass_kg && v.referenceMass_kg ? Math.sqrt(v.payloadMass_kg / v.referenceMass_kg) : 1;
   const table = new FallTable({
     top_m: ctx.top_m,
     bottom_m: s.elevation_m,
-    descentRateSL_mps: v.descentRate_mps * massFactor,
+    descentRateSL_mps: v.descentRate_mps * massFactor(v),
     entryLoss_m: v.entryLoss_m,
     isaOffset_K: ctx.plan.atmosphere.isaOffset_K,
     density: ctx.density,

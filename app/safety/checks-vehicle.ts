@@ -1,6 +1,6 @@
 // Checks of the vehicles: impact energy against published categories, battery, P(hit).
 import { densityAt, RHO0 } from '../model';
-import { type Plan, soundingDensity } from '../plan';
+import { massFactor, type Plan, soundingDensity } from '../plan';
 import type { PlanResult } from '../planner';
 import {
   type CheckResult,
@@ -39,15 +39,13 @@ export function energyCheck(plan: Plan, result: PlanResult): CheckResult {
   const items = used.map((v): Record<string, number | string> => {
     const mass = v.payloadMass_kg ?? v.referenceMass_kg;
     if (mass === undefined) return { variant: v.id, status: 'warn', note: 'mass unknown' };
-    const massFactor =
-      v.payloadMass_kg && v.referenceMass_kg ? Math.sqrt(v.payloadMass_kg / v.referenceMass_kg) : 1;
     // Highest site is the thinnest air and the fastest touchdown: w ∝ √(ρ0/ρ) (momentum theory).
     let elev = -Infinity;
     for (const s of result.sites) {
       if (s.variant === v.id)
         elev = Math.max(elev, elevationOf.get(s.id) ?? plan.groundElevation_m);
     }
-    const w = v.descentRate_mps * massFactor * Math.sqrt(RHO0 / density(elev));
+    const w = v.descentRate_mps * massFactor(v) * Math.sqrt(RHO0 / density(elev));
     // Steered vehicles may still glide at full authority at touchdown: add w·cot γ to the wind.
     const steer = v.guidance === 'passive' ? 0 : w / Math.tan(v.glideAngle_deg * DEG);
     const u = surface + steer;

@@ -31,9 +31,7 @@ export function safetySettingsOf(plan: Plan): SafetySettings {
 
 /** The crew checklist of a plan (the template when the plan has none yet). */
 export function checklistOf(plan: Plan): ManualItem[] {
-  return (
-    plan.safety?.checklist?.map((m) => ({ ...m })) ?? DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m }))
-  );
+  return (plan.safety?.checklist ?? DEFAULT_MANUAL_ITEMS).map((m) => ({ ...m }));
 }
 
 /** Everything the safety panel and the brief show. */
@@ -76,8 +74,11 @@ export function planSafety(plan: Plan, result: PlanResult): PlanSafety {
 }
 
 /** `check:<id>` / `manual:<id>` blockers in words. */
-export function blockingText(s: PlanSafety): string[] {
-  return s.readiness.blocking.map((b) => {
+export function blockingText(s: PlanSafety, only?: 'check' | 'item'): string[] {
+  const blocking = only
+    ? s.readiness.blocking.filter((b) => b.startsWith(`${only}:`))
+    : s.readiness.blocking;
+  return blocking.map((b) => {
     const [kind, id] = b.split(':');
     if (kind === 'check') return `failing check: ${s.checks.find((c) => c.id === id)?.title ?? id}`;
     return `open crew item: ${s.checklist.find((m) => m.id === id)?.text ?? id}`;
