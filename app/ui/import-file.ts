@@ -9,6 +9,7 @@ import {
   WORKER_IMPORT_BYTES,
 } from '../formats';
 import type { ImportReply, ImportRequest } from '../worker';
+import { errorText } from './safe-storage';
 
 type Req = ImportRequest extends infer R
   ? R extends { id: number }
@@ -27,11 +28,7 @@ function inWorker(req: Req): Promise<ImportReply> {
         type: 'module',
       });
     } catch (e) {
-      reject(
-        new Error(
-          `the import worker could not start (${e instanceof Error ? e.message : String(e)})`,
-        ),
-      );
+      reject(new Error(`the import worker could not start (${errorText(e)})`));
       return;
     }
     const id = nextId++;

@@ -7,6 +7,8 @@ import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import './sf-coord-field';
 import { numberField } from './sf-number-field';
+import { takePickedFile } from './picked-file';
+import { errorText } from './safe-storage';
 
 /** Next free site id of the form s01, s02, … */
 export function nextSiteId(sites: { id?: unknown }[]): string {
@@ -79,9 +81,7 @@ export class SfSitesPanel extends StoreElement {
    */
   private async importFile(e: Event): Promise<void> {
     const s = this.store;
-    const input = e.target as HTMLInputElement;
-    const file = input.files?.[0];
-    input.value = '';
+    const file = takePickedFile(e);
     if (!s || !file) return;
     const big = tooLarge(file);
     if (big) {
@@ -105,7 +105,7 @@ export class SfSitesPanel extends StoreElement {
           : {}),
       });
     } catch (err) {
-      const why = err instanceof Error ? err.message : String(err);
+      const why = errorText(err);
       this.problems = [`${file.name}: the file could not be read: ${why}`];
       s.setNotice(
         'error',

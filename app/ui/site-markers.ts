@@ -27,7 +27,7 @@ export class SiteMarkers {
 
   /** Centres the map on the site with this id (zoomed in to at least 17) and opens its tooltip. */
   focus(map: L.Map | undefined, id: string): void {
-    const sites = (this.store().get('sites') as Site[] | undefined) ?? [];
+    const sites = this.store().rows<Site>('sites');
     const i = sites.findIndex((s) => s.id === id);
     const m = this.markers.get(i);
     if (!map || !m) return;

@@ -4,6 +4,7 @@ import { applyWindLayers } from './apply-wind-layers';
 import { importSoundingFile, tooLarge } from './import-file';
 import { takePickedFile } from './picked-file';
 import type { WindSourcesHost } from './wind-sources-host';
+import { errorText } from './safe-storage';
 
 /** Reads the file picked in the section's input into the plan's winds (and temperatures). */
 async function onSoundingFile(host: WindSourcesHost, e: Event): Promise<void> {
@@ -19,7 +20,7 @@ async function onSoundingFile(host: WindSourcesHost, e: Event): Promise<void> {
   try {
     r = await importSoundingFile(file);
   } catch (err) {
-    const why = err instanceof Error ? err.message : String(err);
+    const why = errorText(err);
     host.problems = [`${file.name}: the file could not be read: ${why}`];
     host.store?.setNotice(
       'error',

@@ -2,6 +2,7 @@
 import type { ReactiveController } from 'lit';
 import type { SweepReply, SweepRequest } from '../worker';
 import type { WindSourcesHost } from './wind-sources-host';
+import { errorText } from './safe-storage';
 
 /** Runs sweep requests in a worker started on first use and ended when the host leaves the page. */
 export class SweepClient implements ReactiveController {
@@ -36,7 +37,7 @@ export class SweepClient implements ReactiveController {
         type: 'module',
       });
     } catch (e) {
-      failed(`its worker could not start (${e instanceof Error ? e.message : String(e)})`);
+      failed(`its worker could not start (${errorText(e)})`);
       return;
     }
     const id = ++this.lastId;

@@ -2,6 +2,7 @@
 import type L from 'leaflet';
 import { drawingOutline } from '../map';
 import type { PlanStore } from './plan-store';
+import { planLatLon } from './map-position';
 
 /** The zone being drawn (if any): its corners so far and their outline on the map. */
 export class ZoneDrawing {
@@ -34,7 +35,10 @@ export class ZoneDrawing {
   finish(store: PlanStore | undefined): void {
     if (store && this.corners.length >= 3) {
       const zones = store.list('safety.noDropZones');
-      const ring = this.corners.map((p) => [+p.lng.toFixed(7), +p.lat.toFixed(7)]);
+      const ring = this.corners.map((p) => {
+        const { lat, lon } = planLatLon(p);
+        return [lon, lat];
+      });
       ring.push([...ring[0]]);
       store.edit('safety.noDropZones', [
         ...zones,
