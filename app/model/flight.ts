@@ -2,6 +2,7 @@ import { G0 } from './constants';
 import type { FallTable } from './fall-table';
 import type { Guidance, Uncertainty } from './types';
 import type { Rng } from './rng';
+import type { FallTurbulence } from './turbulence';
 
 const DEG = Math.PI / 180;
 
@@ -25,6 +26,8 @@ export interface FlightSetup {
   carrier: Vec;
   /** Forecast wind at the release altitude, m/s. */
   windTop: Vec;
+  /** Gusts and vertical air of this fall (`fallTurbulence`); absent = still air. */
+  turbulence?: FallTurbulence;
 }
 
 /** Open-loop programme of a fixed-heading vehicle. */
@@ -131,11 +134,12 @@ export interface SampleRequest {
 }
 
 /**
- * Flies n Monte Carlo samples (docs/model.md §8) and writes landing points (local frame, m) into
- * xs/ys. Passive and fixed-heading flights are linear in the wind error, so its whole effect is
- * drawn exactly as two correlated normals per axis (the drift integral and the error at release);
- * homing reacts to the error, so it is drawn band by band as an AR(1) series in altitude with
- * the same covariance σ²·exp(−Δz/L).
+ * Flies n Monte Carlo samples (docs/model.md §8, §8a) and writes landing points (local frame, m)
+ * into xs/ys. Passive and fixed-heading flights are linear in the wind error and the gust, so
+ * their whole effect is drawn exactly as two correlated normals per axis (the drift integral and
+ * the value at release; forecast error and gust are independent, so their moments add); homing
+ * reacts to both, so they are drawn band by band as AR(1) series. Vertical air, constant through
+ * a fall, changes the net descent speed and so every time and drift (factor 1/f_eff).
  */
 export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array, ys: Float64Array) {
   const { rng, uncertainty: u, release, trackUnit, groundSpeed_mps: v } = req;
@@ -146,13 +150,23 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const sp = u.releasePosition_m;
   const st = u.releaseTiming_s;
   const sh = u.heading_deg * DEG;
+  const turb = s.turbulence;
+  // Vertical air as a change of the descent factor: f·w(z) − a ≈ w(z)(f − a/w̄), exact when w is
+  // uniform over the fall (docs/model.md §8a).
+  const aScale = turb && turb.meanDescent_mps > 0 ? turb.verticalAir_mps / turb.meanDescent_mps : 0;
   const drift = tab.drift;
   const tauFixed = s.throwTime_s;
   const g = G0;
   const wTop = tab.wTop_mps;
   const airX = s.carrier.x - s.windTop.x;
   const airY = s.carrier.y - s.windTop.y;
-  const rhoC = Math.sqrt(Math.max(0, 1 - wf.rhoAB * wf.rhoAB));
+  // Forecast error and gust together: Var A, Cov(A, B), Var B per axis, and their 2×2 Cholesky.
+  const varA = sw * sw * wf.sdA * wf.sdA + (turb?.varA ?? 0);
+  const covAB = sw * sw * wf.sdA * wf.rhoAB + (turb?.covAB ?? 0);
+  const varB = sw * sw + (turb ? turb.sigma0_mps * turb.sigma0_mps : 0);
+  const cA = Math.sqrt(Math.max(0, varA));
+  const cB1 = cA > 0 ? covAB / cA : 0;
+  const cB2 = Math.sqrt(Math.max(0, varB - cB1 * cB1));
   const prog = req.programme ?? { headingTrue_deg: 0, thrust_s: 0 };
   const hdg = prog.headingTrue_deg * DEG;
   const homing = s.guidance === 'homing';
@@ -160,6 +174,9 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const k = tab.bandCount;
   const { bandDt, bandDz, bandEast, bandNorth, bandRemEast, bandRemNorth, bandControl } = tab;
   const { arRho, arScale } = wf;
+  const gusty = turb !== undefined && (turb.varA > 0 || turb.sigma0_mps > 0);
+  const gPhi = turb?.phi;
+  const gInn = turb?.innov;
   const sx = req.site.x;
   const sy = req.site.y;
 
@@ -169,21 +186,23 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
     let px = release.x + sp * rng.normal() + trackUnit.x * v * dtRel;
     let py = release.y + sp * rng.normal() + trackUnit.y * v * dtRel;
     const dh = sh * rng.normal();
-    const invF = 1 / f;
+    // Net descent never below a fifth of nominal (a sample held in a thermal lands far anyway).
+    const fE = aScale > 0 ? Math.max(0.2, f - aScale * rng.normal()) : f;
+    const invF = 1 / fE;
     const tau = tauFixed ?? (f * wTop) / g;
     if (!homing) {
       const n1 = rng.normal();
       const n2 = rng.normal();
       const n3 = rng.normal();
       const n4 = rng.normal();
-      const ax = sw * wf.sdA * n1;
-      const bx = sw * (wf.rhoAB * n1 + rhoC * n2);
-      const ay = sw * wf.sdA * n3;
-      const by = sw * (wf.rhoAB * n3 + rhoC * n4);
+      const ax = cA * n1;
+      const bx = cB1 * n1 + cB2 * n2;
+      const ay = cA * n3;
+      const by = cB1 * n3 + cB2 * n4;
       px += (airX - bx) * tau + (drift.east_m + ax) * invF;
       py += (airY - by) * tau + (drift.north_m + ay) * invF;
       if (fixed && prog.thrust_s > 0) {
-        const reach = s.cotGamma * tab.steeredDrop(prog.thrust_s, f);
+        const reach = s.cotGamma * tab.steeredDrop(prog.thrust_s, fE);
         px += reach * Math.sin(hdg + dh);
         py += reach * Math.cos(hdg + dh);
       }
@@ -192,15 +211,23 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
       const sd = Math.sin(dh);
       let ex = 0;
       let ey = 0;
+      let gx = 0;
+      let gy = 0;
       let budget = s.controlTime_s;
       for (let b = 0; b < k; b++) {
         const rho = arRho[b];
         const inn = sw * arScale[b];
         ex = rho * ex + inn * rng.normal();
         ey = rho * ey + inn * rng.normal();
+        if (gusty) {
+          gx = gPhi![b] * gx + gInn![b] * rng.normal();
+          gy = gPhi![b] * gy + gInn![b] * rng.normal();
+        }
+        const wx = ex + gx;
+        const wy = ey + gy;
         if (b === 0) {
-          px += (airX - ex) * tau;
-          py += (airY - ey) * tau;
+          px += (airX - wx) * tau;
+          py += (airY - wy) * tau;
         }
         const dt = bandDt[b];
         if (budget > 0 && bandControl[b] === 1) {
@@ -220,8 +247,8 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
             py += -ux * sd + uy * cd;
           }
         }
-        px += (bandEast[b] + ex * dt) * invF;
-        py += (bandNorth[b] + ey * dt) * invF;
+        px += (bandEast[b] + wx * dt) * invF;
+        py += (bandNorth[b] + wy * dt) * invF;
       }
     }
     xs[i] = px;

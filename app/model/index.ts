@@ -73,7 +73,23 @@ export {
   TERRAIN,
   type TerrainClass,
 } from './surface-wind';
-export { type AltitudeReference, type Guidance, type Uncertainty, type WindLayer } from './types';
+export {
+  CLASS_W20_MPS,
+  classW20,
+  type FallTurbulence,
+  fallTurbulence,
+  lowAltitudeTurbulence,
+  type TurbulenceAt,
+  type TurbulenceSpec,
+  W20_HEIGHT_M,
+} from './turbulence';
+export {
+  type AltitudeReference,
+  type Guidance,
+  type TurbulenceClass,
+  type Uncertainty,
+  type WindLayer,
+} from './types';
 export {
   windComponents,
   windFromComponents,

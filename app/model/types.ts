@@ -2,6 +2,8 @@
 
 export type AltitudeReference = 'AGL' | 'MSL';
 export type Guidance = 'passive' | 'fixed-heading' | 'homing';
+/** Intensity class of the modelled turbulence; `auto` takes it from the plan's wind at 20 ft. */
+export type TurbulenceClass = 'none' | 'light' | 'moderate' | 'severe' | 'auto';
 
 export interface WindLayer {
   /** Altitude of the layer, m, above ground or sea level per `winds.reference`. */
@@ -24,4 +26,12 @@ export interface Uncertainty {
   heading_deg: number;
   /** 1σ release timing error, s (moves the release along the carrier track). */
   releaseTiming_s: number;
+  /** Modelled turbulence (gusts and vertical air) where not set below; a resolved plan has it. */
+  turbulence?: TurbulenceClass;
+  /** Set 1σ horizontal gust per component, m/s (replaces the modelled gust). */
+  gust_mps?: number;
+  /** Set correlation time of the gust the vehicle falls through, s. */
+  gustTime_s?: number;
+  /** Set 1σ vertical air velocity, constant through one fall, m/s (replaces the modelled one). */
+  verticalAir_mps?: number;
 }

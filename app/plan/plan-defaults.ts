@@ -29,6 +29,7 @@ export const DEFAULTS = Object.freeze({
     releasePosition_m: 0,
     heading_deg: 0,
     releaseTiming_s: 0,
+    turbulence: 'auto',
   } satisfies Uncertainty),
   monteCarlo: Object.freeze({ samples: 2000, seed: 1 }),
   requiredPHit: 0.9,
@@ -100,6 +101,11 @@ export function resolvePlan(file: PlanFile, opts: { now?: Date } = {}): Plan {
       releasePosition_m: u.releasePosition_m ?? du.releasePosition_m,
       heading_deg: u.heading_deg ?? du.heading_deg,
       releaseTiming_s: u.releaseTiming_s ?? du.releaseTiming_s,
+      turbulence: u.turbulence ?? du.turbulence,
+      // Set values only: absent means "modelled" (docs/model.md §8a).
+      ...(u.gust_mps !== undefined ? { gust_mps: u.gust_mps } : {}),
+      ...(u.gustTime_s !== undefined ? { gustTime_s: u.gustTime_s } : {}),
+      ...(u.verticalAir_mps !== undefined ? { verticalAir_mps: u.verticalAir_mps } : {}),
     },
     monteCarlo: {
       samples: file.monteCarlo?.samples ?? DEFAULTS.monteCarlo.samples,

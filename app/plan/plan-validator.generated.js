@@ -21,7 +21,7 @@ const runtime0 = function ucs2length(str) {
 };
 export const validate = validate10;
 export default validate10;
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10},"turbulence":{"enum":["none","light","moderate","severe","auto"],"description":"Modelled gusts and vertical air (low-altitude MIL-F-8785C forms): none, light, moderate or severe (wind at 20 ft of 15, 30 or 45 kt), or auto (the plan's own wind at 20 ft). Default auto."},"gust_mps":{"type":"number","description":"Set 1 sigma horizontal gust per component, m/s (0 to 10); replaces the modelled gust. Default: modelled.","minimum":0,"maximum":10},"gustTime_s":{"type":"number","description":"Set correlation time of the gust the vehicle falls through, s (0.1 to 3600); replaces the modelled one. Default: modelled.","minimum":0.1,"maximum":3600},"verticalAir_mps":{"type":"number","description":"Set 1 sigma vertical air velocity, constant through one fall, m/s (0 to 5); replaces the modelled one. Default: modelled.","minimum":0,"maximum":5}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
 const schema12 = {"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."};
 const schema14 = {"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}};
 const schema23 = {"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}};
@@ -2455,7 +2455,7 @@ if(data.uncertainty !== undefined){
 let data43 = data.uncertainty;
 if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
 for(const key10 in data43){
-if(!((((((key10 === "windSpeed_mps") || (key10 === "windCorrelation_m")) || (key10 === "descentRate_pct")) || (key10 === "releasePosition_m")) || (key10 === "heading_deg")) || (key10 === "releaseTiming_s"))){
+if(!(func2.call(schema11.properties.uncertainty.properties, key10))){
 const err119 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.uncertainty,data:data43};
 if(vErrors === null){
 vErrors = [err119];
@@ -2676,9 +2676,10 @@ vErrors.push(err137);
 errors++;
 }
 }
-}
-else {
-const err138 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.uncertainty.type,parentSchema:schema11.properties.uncertainty,data:data43};
+if(data43.turbulence !== undefined){
+let data50 = data43.turbulence;
+if(!(((((data50 === "none") || (data50 === "light")) || (data50 === "moderate")) || (data50 === "severe")) || (data50 === "auto"))){
+const err138 = {instancePath:instancePath+"/uncertainty/turbulence",schemaPath:"#/properties/uncertainty/properties/turbulence/enum",keyword:"enum",params:{allowedValues: schema11.properties.uncertainty.properties.turbulence.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.uncertainty.properties.turbulence.enum,parentSchema:schema11.properties.uncertainty.properties.turbulence,data:data50};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -2688,12 +2689,11 @@ vErrors.push(err138);
 errors++;
 }
 }
-if(data.monteCarlo !== undefined){
-let data50 = data.monteCarlo;
-if(data50 && typeof data50 == "object" && !Array.isArray(data50)){
-for(const key11 in data50){
-if(!((key11 === "samples") || (key11 === "seed"))){
-const err139 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data50};
+if(data43.gust_mps !== undefined){
+let data51 = data43.gust_mps;
+if((typeof data51 == "number") && (isFinite(data51))){
+if(data51 > 10 || isNaN(data51)){
+const err139 = {instancePath:instancePath+"/uncertainty/gust_mps",schemaPath:"#/properties/uncertainty/properties/gust_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.uncertainty.properties.gust_mps,data:data51};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -2702,11 +2702,8 @@ vErrors.push(err139);
 }
 errors++;
 }
-}
-if(data50.samples !== undefined){
-let data51 = data50.samples;
-if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err140 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+if(data51 < 0 || isNaN(data51)){
+const err140 = {instancePath:instancePath+"/uncertainty/gust_mps",schemaPath:"#/properties/uncertainty/properties/gust_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.gust_mps,data:data51};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -2715,9 +2712,9 @@ vErrors.push(err140);
 }
 errors++;
 }
-if((typeof data51 == "number") && (isFinite(data51))){
-if(data51 > 100000 || isNaN(data51)){
-const err141 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+}
+else {
+const err141 = {instancePath:instancePath+"/uncertainty/gust_mps",schemaPath:"#/properties/uncertainty/properties/gust_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.gust_mps.type,parentSchema:schema11.properties.uncertainty.properties.gust_mps,data:data51};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -2726,8 +2723,12 @@ vErrors.push(err141);
 }
 errors++;
 }
-if(data51 < 1 || isNaN(data51)){
-const err142 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data51};
+}
+if(data43.gustTime_s !== undefined){
+let data52 = data43.gustTime_s;
+if((typeof data52 == "number") && (isFinite(data52))){
+if(data52 > 3600 || isNaN(data52)){
+const err142 = {instancePath:instancePath+"/uncertainty/gustTime_s",schemaPath:"#/properties/uncertainty/properties/gustTime_s/maximum",keyword:"maximum",params:{comparison: "<=", limit: 3600},message:"must be <= 3600",schema:3600,parentSchema:schema11.properties.uncertainty.properties.gustTime_s,data:data52};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -2736,12 +2737,8 @@ vErrors.push(err142);
 }
 errors++;
 }
-}
-}
-if(data50.seed !== undefined){
-let data52 = data50.seed;
-if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err143 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+if(data52 < 0.1 || isNaN(data52)){
+const err143 = {instancePath:instancePath+"/uncertainty/gustTime_s",schemaPath:"#/properties/uncertainty/properties/gustTime_s/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.uncertainty.properties.gustTime_s,data:data52};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -2750,9 +2747,9 @@ vErrors.push(err143);
 }
 errors++;
 }
-if((typeof data52 == "number") && (isFinite(data52))){
-if(data52 > 4294967295 || isNaN(data52)){
-const err144 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+}
+else {
+const err144 = {instancePath:instancePath+"/uncertainty/gustTime_s",schemaPath:"#/properties/uncertainty/properties/gustTime_s/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.gustTime_s.type,parentSchema:schema11.properties.uncertainty.properties.gustTime_s,data:data52};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -2761,8 +2758,12 @@ vErrors.push(err144);
 }
 errors++;
 }
-if(data52 < 0 || isNaN(data52)){
-const err145 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data52};
+}
+if(data43.verticalAir_mps !== undefined){
+let data53 = data43.verticalAir_mps;
+if((typeof data53 == "number") && (isFinite(data53))){
+if(data53 > 5 || isNaN(data53)){
+const err145 = {instancePath:instancePath+"/uncertainty/verticalAir_mps",schemaPath:"#/properties/uncertainty/properties/verticalAir_mps/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.uncertainty.properties.verticalAir_mps,data:data53};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -2771,11 +2772,8 @@ vErrors.push(err145);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err146 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data50};
+if(data53 < 0 || isNaN(data53)){
+const err146 = {instancePath:instancePath+"/uncertainty/verticalAir_mps",schemaPath:"#/properties/uncertainty/properties/verticalAir_mps/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.uncertainty.properties.verticalAir_mps,data:data53};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -2785,11 +2783,8 @@ vErrors.push(err146);
 errors++;
 }
 }
-if(data.requiredPHit !== undefined){
-let data53 = data.requiredPHit;
-if((typeof data53 == "number") && (isFinite(data53))){
-if(data53 > 1 || isNaN(data53)){
-const err147 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.requiredPHit,data:data53};
+else {
+const err147 = {instancePath:instancePath+"/uncertainty/verticalAir_mps",schemaPath:"#/properties/uncertainty/properties/verticalAir_mps/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.uncertainty.properties.verticalAir_mps.type,parentSchema:schema11.properties.uncertainty.properties.verticalAir_mps,data:data53};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -2798,8 +2793,10 @@ vErrors.push(err147);
 }
 errors++;
 }
-if(data53 < 0.01 || isNaN(data53)){
-const err148 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.01},message:"must be >= 0.01",schema:0.01,parentSchema:schema11.properties.requiredPHit,data:data53};
+}
+}
+else {
+const err148 = {instancePath:instancePath+"/uncertainty",schemaPath:"#/properties/uncertainty/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.uncertainty.type,parentSchema:schema11.properties.uncertainty,data:data43};
 if(vErrors === null){
 vErrors = [err148];
 }
@@ -2809,8 +2806,12 @@ vErrors.push(err148);
 errors++;
 }
 }
-else {
-const err149 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.requiredPHit.type,parentSchema:schema11.properties.requiredPHit,data:data53};
+if(data.monteCarlo !== undefined){
+let data54 = data.monteCarlo;
+if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
+for(const key11 in data54){
+if(!((key11 === "samples") || (key11 === "seed"))){
+const err149 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data54};
 if(vErrors === null){
 vErrors = [err149];
 }
@@ -2820,12 +2821,10 @@ vErrors.push(err149);
 errors++;
 }
 }
-if(data.safety !== undefined){
-let data54 = data.safety;
-if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
-for(const key12 in data54){
-if(!(((((((key12 === "ceiling_m") || (key12 === "noDropBuffer_m")) || (key12 === "hazardBuffer_m")) || (key12 === "thrustMargin_pct")) || (key12 === "noDropZones")) || (key12 === "checklist")) || (key12 === "signoff"))){
-const err150 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data54};
+if(data54.samples !== undefined){
+let data55 = data54.samples;
+if(!(((typeof data55 == "number") && (!(data55 % 1) && !isNaN(data55))) && (isFinite(data55)))){
+const err150 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data55};
 if(vErrors === null){
 vErrors = [err150];
 }
@@ -2834,12 +2833,9 @@ vErrors.push(err150);
 }
 errors++;
 }
-}
-if(data54.ceiling_m !== undefined){
-let data55 = data54.ceiling_m;
 if((typeof data55 == "number") && (isFinite(data55))){
-if(data55 > 10000 || isNaN(data55)){
-const err151 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+if(data55 > 100000 || isNaN(data55)){
+const err151 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data55};
 if(vErrors === null){
 vErrors = [err151];
 }
@@ -2849,7 +2845,7 @@ vErrors.push(err151);
 errors++;
 }
 if(data55 < 1 || isNaN(data55)){
-const err152 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+const err152 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data55};
 if(vErrors === null){
 vErrors = [err152];
 }
@@ -2859,8 +2855,11 @@ vErrors.push(err152);
 errors++;
 }
 }
-else {
-const err153 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data55};
+}
+if(data54.seed !== undefined){
+let data56 = data54.seed;
+if(!(((typeof data56 == "number") && (!(data56 % 1) && !isNaN(data56))) && (isFinite(data56)))){
+const err153 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data56};
 if(vErrors === null){
 vErrors = [err153];
 }
@@ -2869,12 +2868,9 @@ vErrors.push(err153);
 }
 errors++;
 }
-}
-if(data54.noDropBuffer_m !== undefined){
-let data56 = data54.noDropBuffer_m;
 if((typeof data56 == "number") && (isFinite(data56))){
-if(data56 > 10000 || isNaN(data56)){
-const err154 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+if(data56 > 4294967295 || isNaN(data56)){
+const err154 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data56};
 if(vErrors === null){
 vErrors = [err154];
 }
@@ -2884,7 +2880,7 @@ vErrors.push(err154);
 errors++;
 }
 if(data56 < 0 || isNaN(data56)){
-const err155 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+const err155 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data56};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -2894,8 +2890,10 @@ vErrors.push(err155);
 errors++;
 }
 }
+}
+}
 else {
-const err156 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data56};
+const err156 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data54};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -2905,11 +2903,11 @@ vErrors.push(err156);
 errors++;
 }
 }
-if(data54.hazardBuffer_m !== undefined){
-let data57 = data54.hazardBuffer_m;
+if(data.requiredPHit !== undefined){
+let data57 = data.requiredPHit;
 if((typeof data57 == "number") && (isFinite(data57))){
-if(data57 > 10000 || isNaN(data57)){
-const err157 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+if(data57 > 1 || isNaN(data57)){
+const err157 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.requiredPHit,data:data57};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -2918,8 +2916,8 @@ vErrors.push(err157);
 }
 errors++;
 }
-if(data57 < 0 || isNaN(data57)){
-const err158 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+if(data57 < 0.01 || isNaN(data57)){
+const err158 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.01},message:"must be >= 0.01",schema:0.01,parentSchema:schema11.properties.requiredPHit,data:data57};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -2930,7 +2928,7 @@ errors++;
 }
 }
 else {
-const err159 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data57};
+const err159 = {instancePath:instancePath+"/requiredPHit",schemaPath:"#/properties/requiredPHit/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.requiredPHit.type,parentSchema:schema11.properties.requiredPHit,data:data57};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -2940,11 +2938,12 @@ vErrors.push(err159);
 errors++;
 }
 }
-if(data54.thrustMargin_pct !== undefined){
-let data58 = data54.thrustMargin_pct;
-if((typeof data58 == "number") && (isFinite(data58))){
-if(data58 > 90 || isNaN(data58)){
-const err160 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+if(data.safety !== undefined){
+let data58 = data.safety;
+if(data58 && typeof data58 == "object" && !Array.isArray(data58)){
+for(const key12 in data58){
+if(!(((((((key12 === "ceiling_m") || (key12 === "noDropBuffer_m")) || (key12 === "hazardBuffer_m")) || (key12 === "thrustMargin_pct")) || (key12 === "noDropZones")) || (key12 === "checklist")) || (key12 === "signoff"))){
+const err160 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data58};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -2953,8 +2952,12 @@ vErrors.push(err160);
 }
 errors++;
 }
-if(data58 < 0 || isNaN(data58)){
-const err161 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+}
+if(data58.ceiling_m !== undefined){
+let data59 = data58.ceiling_m;
+if((typeof data59 == "number") && (isFinite(data59))){
+if(data59 > 10000 || isNaN(data59)){
+const err161 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -2963,9 +2966,8 @@ vErrors.push(err161);
 }
 errors++;
 }
-}
-else {
-const err162 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data58};
+if(data59 < 1 || isNaN(data59)){
+const err162 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -2975,11 +2977,8 @@ vErrors.push(err162);
 errors++;
 }
 }
-if(data54.noDropZones !== undefined){
-let data59 = data54.noDropZones;
-if(Array.isArray(data59)){
-if(data59.length > 200){
-const err163 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
+else {
+const err163 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -2988,12 +2987,12 @@ vErrors.push(err163);
 }
 errors++;
 }
-const len6 = data59.length;
-for(let i6=0; i6<len6; i6++){
-let data60 = data59[i6];
-if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
-if(data60.type === undefined){
-const err164 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+}
+if(data58.noDropBuffer_m !== undefined){
+let data60 = data58.noDropBuffer_m;
+if((typeof data60 == "number") && (isFinite(data60))){
+if(data60 > 10000 || isNaN(data60)){
+const err164 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -3002,8 +3001,8 @@ vErrors.push(err164);
 }
 errors++;
 }
-if(data60.geometry === undefined){
-const err165 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data60};
+if(data60 < 0 || isNaN(data60)){
+const err165 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -3012,9 +3011,9 @@ vErrors.push(err165);
 }
 errors++;
 }
-for(const key13 in data60){
-if(!(((key13 === "type") || (key13 === "properties")) || (key13 === "geometry"))){
-const err166 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data60};
+}
+else {
+const err166 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -3024,10 +3023,11 @@ vErrors.push(err166);
 errors++;
 }
 }
-if(data60.type !== undefined){
-let data61 = data60.type;
-if("Feature" !== data61){
-const err167 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data61};
+if(data58.hazardBuffer_m !== undefined){
+let data61 = data58.hazardBuffer_m;
+if((typeof data61 == "number") && (isFinite(data61))){
+if(data61 > 10000 || isNaN(data61)){
+const err167 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -3036,15 +3036,8 @@ vErrors.push(err167);
 }
 errors++;
 }
-}
-if(data60.properties !== undefined){
-let data62 = data60.properties;
-if(data62 && typeof data62 == "object" && !Array.isArray(data62)){
-if(data62.name !== undefined){
-let data63 = data62.name;
-if(typeof data63 === "string"){
-if(func3(data63) > 200){
-const err168 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data63};
+if(data61 < 0 || isNaN(data61)){
+const err168 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -3055,7 +3048,7 @@ errors++;
 }
 }
 else {
-const err169 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data63};
+const err169 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -3065,9 +3058,11 @@ vErrors.push(err169);
 errors++;
 }
 }
-}
-else {
-const err170 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data62};
+if(data58.thrustMargin_pct !== undefined){
+let data62 = data58.thrustMargin_pct;
+if((typeof data62 == "number") && (isFinite(data62))){
+if(data62 > 90 || isNaN(data62)){
+const err170 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -3076,12 +3071,8 @@ vErrors.push(err170);
 }
 errors++;
 }
-}
-if(data60.geometry !== undefined){
-let data64 = data60.geometry;
-if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
-if(data64.type === undefined){
-const err171 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
+if(data62 < 0 || isNaN(data62)){
+const err171 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -3090,8 +3081,9 @@ vErrors.push(err171);
 }
 errors++;
 }
-if(data64.coordinates === undefined){
-const err172 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data64};
+}
+else {
+const err172 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -3100,9 +3092,12 @@ vErrors.push(err172);
 }
 errors++;
 }
-for(const key14 in data64){
-if(!((key14 === "type") || (key14 === "coordinates"))){
-const err173 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data64};
+}
+if(data58.noDropZones !== undefined){
+let data63 = data58.noDropZones;
+if(Array.isArray(data63)){
+if(data63.length > 200){
+const err173 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data63};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -3111,11 +3106,12 @@ vErrors.push(err173);
 }
 errors++;
 }
-}
-if(data64.type !== undefined){
-let data65 = data64.type;
-if("Polygon" !== data65){
-const err174 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data65};
+const len6 = data63.length;
+for(let i6=0; i6<len6; i6++){
+let data64 = data63[i6];
+if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
+if(data64.type === undefined){
+const err174 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data64};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -3124,12 +3120,8 @@ vErrors.push(err174);
 }
 errors++;
 }
-}
-if(data64.coordinates !== undefined){
-let data66 = data64.coordinates;
-if(Array.isArray(data66)){
-if(data66.length > 50){
-const err175 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+if(data64.geometry === undefined){
+const err175 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data64};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -3138,8 +3130,9 @@ vErrors.push(err175);
 }
 errors++;
 }
-if(data66.length < 1){
-const err176 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+for(const key13 in data64){
+if(!(((key13 === "type") || (key13 === "properties")) || (key13 === "geometry"))){
+const err176 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data64};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -3148,12 +3141,11 @@ vErrors.push(err176);
 }
 errors++;
 }
-const len7 = data66.length;
-for(let i7=0; i7<len7; i7++){
-let data67 = data66[i7];
-if(Array.isArray(data67)){
-if(data67.length > 5000){
-const err177 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+}
+if(data64.type !== undefined){
+let data65 = data64.type;
+if("Feature" !== data65){
+const err177 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data65};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -3162,8 +3154,15 @@ vErrors.push(err177);
 }
 errors++;
 }
-if(data67.length < 4){
-const err178 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+}
+if(data64.properties !== undefined){
+let data66 = data64.properties;
+if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
+if(data66.name !== undefined){
+let data67 = data66.name;
+if(typeof data67 === "string"){
+if(func3(data67) > 200){
+const err178 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data67};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -3172,12 +3171,9 @@ vErrors.push(err178);
 }
 errors++;
 }
-const len8 = data67.length;
-for(let i8=0; i8<len8; i8++){
-let data68 = data67[i8];
-if(Array.isArray(data68)){
-if(data68.length > 3){
-const err179 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+}
+else {
+const err179 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data67};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -3186,8 +3182,10 @@ vErrors.push(err179);
 }
 errors++;
 }
-if(data68.length < 2){
-const err180 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+}
+}
+else {
+const err180 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data66};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -3196,12 +3194,12 @@ vErrors.push(err180);
 }
 errors++;
 }
-const len9 = data68.length;
-for(let i9=0; i9<len9; i9++){
-let data69 = data68[i9];
-if((typeof data69 == "number") && (isFinite(data69))){
-if(data69 > 180 || isNaN(data69)){
-const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+}
+if(data64.geometry !== undefined){
+let data68 = data64.geometry;
+if(data68 && typeof data68 == "object" && !Array.isArray(data68)){
+if(data68.type === undefined){
+const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data68};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -3210,8 +3208,8 @@ vErrors.push(err181);
 }
 errors++;
 }
-if(data69 < -180 || isNaN(data69)){
-const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+if(data68.coordinates === undefined){
+const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data68};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -3220,9 +3218,9 @@ vErrors.push(err182);
 }
 errors++;
 }
-}
-else {
-const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data69};
+for(const key14 in data68){
+if(!((key14 === "type") || (key14 === "coordinates"))){
+const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data68};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -3232,9 +3230,10 @@ vErrors.push(err183);
 errors++;
 }
 }
-}
-else {
-const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data68};
+if(data68.type !== undefined){
+let data69 = data68.type;
+if("Polygon" !== data69){
+const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data69};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -3244,9 +3243,11 @@ vErrors.push(err184);
 errors++;
 }
 }
-}
-else {
-const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data67};
+if(data68.coordinates !== undefined){
+let data70 = data68.coordinates;
+if(Array.isArray(data70)){
+if(data70.length > 50){
+const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -3255,10 +3256,8 @@ vErrors.push(err185);
 }
 errors++;
 }
-}
-}
-else {
-const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data66};
+if(data70.length < 1){
+const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
 if(vErrors === null){
 vErrors = [err186];
 }
@@ -3267,10 +3266,12 @@ vErrors.push(err186);
 }
 errors++;
 }
-}
-}
-else {
-const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data64};
+const len7 = data70.length;
+for(let i7=0; i7<len7; i7++){
+let data71 = data70[i7];
+if(Array.isArray(data71)){
+if(data71.length > 5000){
+const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
 if(vErrors === null){
 vErrors = [err187];
 }
@@ -3279,10 +3280,8 @@ vErrors.push(err187);
 }
 errors++;
 }
-}
-}
-else {
-const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data60};
+if(data71.length < 4){
+const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
 if(vErrors === null){
 vErrors = [err188];
 }
@@ -3291,10 +3290,12 @@ vErrors.push(err188);
 }
 errors++;
 }
-}
-}
-else {
-const err189 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data59};
+const len8 = data71.length;
+for(let i8=0; i8<len8; i8++){
+let data72 = data71[i8];
+if(Array.isArray(data72)){
+if(data72.length > 3){
+const err189 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
 if(vErrors === null){
 vErrors = [err189];
 }
@@ -3303,12 +3304,8 @@ vErrors.push(err189);
 }
 errors++;
 }
-}
-if(data54.checklist !== undefined){
-let data70 = data54.checklist;
-if(Array.isArray(data70)){
-if(data70.length > 200){
-const err190 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
+if(data72.length < 2){
+const err190 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -3317,16 +3314,12 @@ vErrors.push(err190);
 }
 errors++;
 }
-const len10 = data70.length;
-for(let i10=0; i10<len10; i10++){
-if(!(validate15(data70[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data70,parentDataProperty:i10,rootData}))){
-vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
-errors = vErrors.length;
-}
-}
-}
-else {
-const err191 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data70};
+const len9 = data72.length;
+for(let i9=0; i9<len9; i9++){
+let data73 = data72[i9];
+if((typeof data73 == "number") && (isFinite(data73))){
+if(data73 > 180 || isNaN(data73)){
+const err191 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -3335,12 +3328,8 @@ vErrors.push(err191);
 }
 errors++;
 }
-}
-if(data54.signoff !== undefined){
-let data72 = data54.signoff;
-if(data72 && typeof data72 == "object" && !Array.isArray(data72)){
-if(data72.who === undefined){
-const err192 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+if(data73 < -180 || isNaN(data73)){
+const err192 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -3349,8 +3338,9 @@ vErrors.push(err192);
 }
 errors++;
 }
-if(data72.when === undefined){
-const err193 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+}
+else {
+const err193 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -3359,9 +3349,10 @@ vErrors.push(err193);
 }
 errors++;
 }
-for(const key15 in data72){
-if(!(((((key15 === "who") || (key15 === "when")) || (key15 === "reason")) || (key15 === "planHash")) || (key15 === "covers"))){
-const err194 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+}
+}
+else {
+const err194 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -3371,11 +3362,9 @@ vErrors.push(err194);
 errors++;
 }
 }
-if(data72.who !== undefined){
-let data73 = data72.who;
-if(typeof data73 === "string"){
-if(func3(data73) > 100){
-const err195 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+}
+else {
+const err195 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -3384,8 +3373,10 @@ vErrors.push(err195);
 }
 errors++;
 }
-if(func3(data73) < 1){
-const err196 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+}
+}
+else {
+const err196 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -3395,8 +3386,9 @@ vErrors.push(err196);
 errors++;
 }
 }
+}
 else {
-const err197 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data73};
+const err197 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data68};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -3406,11 +3398,9 @@ vErrors.push(err197);
 errors++;
 }
 }
-if(data72.when !== undefined){
-let data74 = data72.when;
-if(typeof data74 === "string"){
-if(func3(data74) > 40){
-const err198 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
+}
+else {
+const err198 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data64};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -3420,8 +3410,9 @@ vErrors.push(err198);
 errors++;
 }
 }
+}
 else {
-const err199 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data74};
+const err199 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data63};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -3431,11 +3422,11 @@ vErrors.push(err199);
 errors++;
 }
 }
-if(data72.reason !== undefined){
-let data75 = data72.reason;
-if(typeof data75 === "string"){
-if(func3(data75) > 2000){
-const err200 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
+if(data58.checklist !== undefined){
+let data74 = data58.checklist;
+if(Array.isArray(data74)){
+if(data74.length > 200){
+const err200 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data74};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -3444,9 +3435,16 @@ vErrors.push(err200);
 }
 errors++;
 }
+const len10 = data74.length;
+for(let i10=0; i10<len10; i10++){
+if(!(validate15(data74[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data74,parentDataProperty:i10,rootData}))){
+vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
+errors = vErrors.length;
+}
+}
 }
 else {
-const err201 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data75};
+const err201 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data74};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -3456,11 +3454,11 @@ vErrors.push(err201);
 errors++;
 }
 }
-if(data72.planHash !== undefined){
-let data76 = data72.planHash;
-if(typeof data76 === "string"){
-if(func3(data76) > 64){
-const err202 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
+if(data58.signoff !== undefined){
+let data76 = data58.signoff;
+if(data76 && typeof data76 == "object" && !Array.isArray(data76)){
+if(data76.who === undefined){
+const err202 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -3469,9 +3467,8 @@ vErrors.push(err202);
 }
 errors++;
 }
-}
-else {
-const err203 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data76};
+if(data76.when === undefined){
+const err203 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -3480,12 +3477,9 @@ vErrors.push(err203);
 }
 errors++;
 }
-}
-if(data72.covers !== undefined){
-let data77 = data72.covers;
-if(Array.isArray(data77)){
-if(data77.length > 50){
-const err204 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
+for(const key15 in data76){
+if(!(((((key15 === "who") || (key15 === "when")) || (key15 === "reason")) || (key15 === "planHash")) || (key15 === "covers"))){
+const err204 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -3494,12 +3488,12 @@ vErrors.push(err204);
 }
 errors++;
 }
-const len11 = data77.length;
-for(let i11=0; i11<len11; i11++){
-let data78 = data77[i11];
-if(typeof data78 === "string"){
-if(func3(data78) > 64){
-const err205 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
+}
+if(data76.who !== undefined){
+let data77 = data76.who;
+if(typeof data77 === "string"){
+if(func3(data77) > 100){
+const err205 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -3508,9 +3502,8 @@ vErrors.push(err205);
 }
 errors++;
 }
-}
-else {
-const err206 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data78};
+if(func3(data77) < 1){
+const err206 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -3520,9 +3513,8 @@ vErrors.push(err206);
 errors++;
 }
 }
-}
 else {
-const err207 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data77};
+const err207 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -3532,9 +3524,11 @@ vErrors.push(err207);
 errors++;
 }
 }
-}
-else {
-const err208 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data72};
+if(data76.when !== undefined){
+let data78 = data76.when;
+if(typeof data78 === "string"){
+if(func3(data78) > 40){
+const err208 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data78};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -3544,9 +3538,8 @@ vErrors.push(err208);
 errors++;
 }
 }
-}
 else {
-const err209 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data54};
+const err209 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data78};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -3556,14 +3549,139 @@ vErrors.push(err209);
 errors++;
 }
 }
-}
-else {
-const err210 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(data76.reason !== undefined){
+let data79 = data76.reason;
+if(typeof data79 === "string"){
+if(func3(data79) > 2000){
+const err210 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data79};
 if(vErrors === null){
 vErrors = [err210];
 }
 else {
 vErrors.push(err210);
+}
+errors++;
+}
+}
+else {
+const err211 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data79};
+if(vErrors === null){
+vErrors = [err211];
+}
+else {
+vErrors.push(err211);
+}
+errors++;
+}
+}
+if(data76.planHash !== undefined){
+let data80 = data76.planHash;
+if(typeof data80 === "string"){
+if(func3(data80) > 64){
+const err212 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data80};
+if(vErrors === null){
+vErrors = [err212];
+}
+else {
+vErrors.push(err212);
+}
+errors++;
+}
+}
+else {
+const err213 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data80};
+if(vErrors === null){
+vErrors = [err213];
+}
+else {
+vErrors.push(err213);
+}
+errors++;
+}
+}
+if(data76.covers !== undefined){
+let data81 = data76.covers;
+if(Array.isArray(data81)){
+if(data81.length > 50){
+const err214 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data81};
+if(vErrors === null){
+vErrors = [err214];
+}
+else {
+vErrors.push(err214);
+}
+errors++;
+}
+const len11 = data81.length;
+for(let i11=0; i11<len11; i11++){
+let data82 = data81[i11];
+if(typeof data82 === "string"){
+if(func3(data82) > 64){
+const err215 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data82};
+if(vErrors === null){
+vErrors = [err215];
+}
+else {
+vErrors.push(err215);
+}
+errors++;
+}
+}
+else {
+const err216 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data82};
+if(vErrors === null){
+vErrors = [err216];
+}
+else {
+vErrors.push(err216);
+}
+errors++;
+}
+}
+}
+else {
+const err217 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data81};
+if(vErrors === null){
+vErrors = [err217];
+}
+else {
+vErrors.push(err217);
+}
+errors++;
+}
+}
+}
+else {
+const err218 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
+if(vErrors === null){
+vErrors = [err218];
+}
+else {
+vErrors.push(err218);
+}
+errors++;
+}
+}
+}
+else {
+const err219 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data58};
+if(vErrors === null){
+vErrors = [err219];
+}
+else {
+vErrors.push(err219);
+}
+errors++;
+}
+}
+}
+else {
+const err220 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err220];
+}
+else {
+vErrors.push(err220);
 }
 errors++;
 }

@@ -3,9 +3,15 @@
  * `Plan` is the same with every default filled in (see `resolvePlan` in plan-defaults.ts).
  * Field names are a contract: docs/plan-format.md documents each one.
  */
-import type { AltitudeReference, Guidance, Uncertainty, WindLayer } from '../model';
+import type {
+  AltitudeReference,
+  Guidance,
+  TurbulenceClass,
+  Uncertainty,
+  WindLayer,
+} from '../model';
 
-export type { AltitudeReference, Guidance, Uncertainty, WindLayer };
+export type { AltitudeReference, Guidance, TurbulenceClass, Uncertainty, WindLayer };
 
 /** A wind profile valid at a time (ISO 8601). */
 export interface TimedWinds {
@@ -138,7 +144,7 @@ export interface Plan {
   carrier: { groundSpeed_mps: number; trackDeg: number };
   variants: ResolvedVariant[];
   sites: ResolvedSite[];
-  uncertainty: Uncertainty;
+  uncertainty: Uncertainty & { turbulence: TurbulenceClass };
   monteCarlo: { samples: number; seed: number };
   requiredPHit: number;
   /** As in the file; defaults are applied by the safety checks (DEFAULT_SAFETY_SETTINGS). */

@@ -9,6 +9,7 @@ export {
   type TimelineOptions,
   windowsFromTimeline,
 } from './forecast-series';
+export { type ErrorSource, errorSources, errorSourcesLine, turbulenceText } from './error-sources';
 export {
   type GeoEllipse,
   planDrop,

@@ -1,6 +1,8 @@
 import {
   bestShift,
+  classW20,
   type Dispersion,
+  fallTurbulence,
   FallTable,
   fixedHeadingProgramme,
   type FlightSetup,
@@ -21,6 +23,7 @@ import {
   streamSeed,
   summarize,
   type Vec,
+  W20_HEIGHT_M,
   type WindProfile,
 } from '../model';
 import {
@@ -31,6 +34,8 @@ import {
   type ResolvedVariant,
   soundingDensity,
 } from '../plan';
+
+import { type ErrorSource, errorSources } from './error-sources';
 
 const DEG = Math.PI / 180;
 
@@ -88,7 +93,15 @@ export interface VariantResult {
   ellipse99: GeoEllipse;
   meanLanding: LatLon;
   cep_m: number;
+  /** Share of the reported samples within the tolerance (independent of those that chose the release). */
   pHit: number;
+  /** Monte Carlo standard error of pHit, √(p(1−p)/n). */
+  pHitSE: number;
+  /** Gust of this fall: time-RMS 1σ per component (m/s) and mean correlation time (s); 0 = none. */
+  gust_mps: number;
+  gustTime_s: number;
+  /** 1σ vertical air velocity, constant through the fall, m/s; 0 = none. */
+  verticalAir_mps: number;
   releaseWindow: ReleaseWindow | null;
   releaseZone: ReleaseZone | null;
   headingTrue_deg?: number;
@@ -107,7 +120,13 @@ export interface SiteResult extends VariantResult {
   /** True when the site pins its variant. */
   pinned: boolean;
   meetsRequired: boolean;
-  comparison: { variant: string; reachable: boolean; pHit: number; cep_m: number }[];
+  comparison: {
+    variant: string;
+    reachable: boolean;
+    pHit: number;
+    pHitSE: number;
+    cep_m: number;
+  }[];
   byVariant: VariantResult[];
 }
 
@@ -121,6 +140,8 @@ export interface PlanResult {
   releasePoint: LatLon;
   track: { unit: Vec; groundSpeed_mps: number; trackDeg: number };
   sites: SiteResult[];
+  /** Error sources the Monte Carlo flew (σ above zero), in words. */
+  errorSources: ErrorSource[];
   warnings: string[];
 }
 
@@ -155,8 +176,17 @@ function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetu
     wind: ctx.wind,
   });
   const w = ctx.wind.at(ctx.top_m);
+  const u = ctx.plan.uncertainty;
+  const w20 = ctx.wind.at(s.elevation_m + W20_HEIGHT_M);
+  const turbulence = fallTurbulence(table, s.elevation_m, {
+    w20_mps: classW20(u.turbulence, Math.hypot(w20.east_mps, w20.north_mps)),
+    gust_mps: u.gust_mps,
+    gustTime_s: u.gustTime_s,
+    verticalAir_mps: u.verticalAir_mps,
+  });
   return {
     table,
+    turbulence,
     guidance: v.guidance,
     cotGamma: v.guidance === 'passive' ? 0 : 1 / Math.tan(v.glideAngle_deg * DEG),
     controlTime_s: v.guidance === 'passive' ? 0 : v.controlTime_s,
@@ -176,6 +206,9 @@ function geoEllipse(frame: LocalFrame, e: LocalEllipse): GeoEllipse {
     azimuth_deg: e.azimuth_deg,
   };
 }
+
+// Salts of the streams that choose (window selection, probes) apart from the one that reports.
+const SELECT_SALT = 0x5bd1e995;
 
 /** Flies n samples from `release` and returns the landing points. */
 function fly(
@@ -259,8 +292,11 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
   };
 
   if (moving && v.guidance !== 'homing') {
-    // Landing moves rigidly with the release point: the exact chord sweep applies.
-    const prof = hitProfile(xs, ys, site, tol, unit, speed);
+    // Landing moves rigidly with the release point: the exact chord sweep applies. The best time
+    // and the window are chosen on their own samples; P(hit), CEP and ellipses come from the main
+    // ones, so the maximum's luck does not flatter them (docs/model.md §9).
+    const sel = fly(ctx, su, rel, site, n, seed ^ SELECT_SALT, prog);
+    const prof = hitProfile(sel.xs, sel.ys, site, tol, unit, speed);
     const best = bestShift(prof);
     const b = Number.isFinite(best.shift) ? best.shift : 0;
     const run = runAround(prof, b, req);
@@ -334,6 +370,10 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
     meanLanding: frame.toLatLon(stats.mean.x, stats.mean.y),
     cep_m: stats.cep_m,
     pHit: stats.pHit,
+    pHitSE: Math.sqrt((stats.pHit * (1 - stats.pHit)) / n),
+    gust_mps: su.turbulence?.gust_mps ?? 0,
+    gustTime_s: su.turbulence && su.turbulence.gust_mps > 0 ? su.turbulence.gustTime_s : 0,
+    verticalAir_mps: su.turbulence?.verticalAir_mps ?? 0,
     releaseWindow,
     releaseZone,
   };
@@ -393,6 +433,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
         variant: r.variant,
         reachable: r.reachable,
         pHit: r.pHit,
+        pHitSE: r.pHitSE,
         cep_m: r.cep_m,
       })),
       byVariant: all,
@@ -407,6 +448,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     releasePoint: { lat: plan.release.lat, lon: plan.release.lon },
     track: { unit: ctx.unit, groundSpeed_mps: ctx.speed, trackDeg: plan.carrier.trackDeg },
     sites,
+    errorSources: errorSources(plan),
     warnings,
   };
 }

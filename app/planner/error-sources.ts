@@ -1,0 +1,99 @@
+// Which error sources a plan's P(hit), CEP and ellipses include, in words for the table, the map
+// tooltips and the brief (docs/model.md §8, §8a).
+import { CLASS_W20_MPS, W20_HEIGHT_M } from '../model';
+import { type Plan, planWindProfile } from '../plan';
+
+/** One error source the Monte Carlo flies. */
+export interface ErrorSource {
+  id:
+    | 'wind'
+    | 'gust'
+    | 'verticalAir'
+    | 'descentRate'
+    | 'releasePosition'
+    | 'releaseTiming'
+    | 'heading';
+  /** Short name, e.g. "gusts". */
+  label: string;
+  /** Size and origin in plain words, e.g. "0.5 m/s per component, modelled (auto)". */
+  detail: string;
+}
+
+const f1 = (x: number): string => (Math.round(x * 10) / 10).toString();
+
+/** The plan's modelled turbulence in words: class and the wind at 20 ft that sets it. */
+export function turbulenceText(plan: Plan): string {
+  const t = plan.uncertainty.turbulence;
+  if (t === 'none') return 'no modelled turbulence';
+  if (t !== 'auto') return `${t} turbulence (wind at 20 ft ${f1(CLASS_W20_MPS[t])} m/s)`;
+  const w = planWindProfile(plan).at(plan.groundElevation_m + W20_HEIGHT_M);
+  return `turbulence from the plan's wind at 20 ft (${f1(Math.hypot(w.east_mps, w.north_mps))} m/s at the plan ground)`;
+}
+
+/**
+ * The error sources a plan includes (σ above zero), in the order of docs/model.md §8. The
+ * modelled gust and vertical air are listed when the class models them or a value is set;
+ * a set value is named as set.
+ */
+export function errorSources(plan: Plan): ErrorSource[] {
+  const u = plan.uncertainty;
+  const out: ErrorSource[] = [];
+  const modelled = u.turbulence !== 'none';
+  if (u.windSpeed_mps > 0) {
+    out.push({
+      id: 'wind',
+      label: 'forecast wind error',
+      detail: `${f1(u.windSpeed_mps)} m/s per component, correlated over ${f1(u.windCorrelation_m)} m`,
+    });
+  }
+  const gustSet = u.gust_mps !== undefined;
+  if (gustSet ? u.gust_mps! > 0 : modelled) {
+    const size = gustSet
+      ? `${f1(u.gust_mps!)} m/s per component (set)`
+      : `modelled: ${turbulenceText(plan)}`;
+    const time =
+      u.gustTime_s !== undefined
+        ? `correlation time ${f1(u.gustTime_s)} s (set)`
+        : 'correlation time from the length scale and the descent speed';
+    out.push({ id: 'gust', label: 'gusts', detail: `${size}; ${time}` });
+  }
+  const vertSet = u.verticalAir_mps !== undefined;
+  if (vertSet ? u.verticalAir_mps! > 0 : modelled) {
+    out.push({
+      id: 'verticalAir',
+      label: 'vertical air',
+      detail: vertSet
+        ? `${f1(u.verticalAir_mps!)} m/s, constant through each fall (set)`
+        : `modelled: ${turbulenceText(plan)}`,
+    });
+  }
+  if (u.descentRate_pct > 0) {
+    out.push({ id: 'descentRate', label: 'descent rate', detail: `${f1(u.descentRate_pct)} %` });
+  }
+  if (u.releasePosition_m > 0) {
+    out.push({
+      id: 'releasePosition',
+      label: 'release position',
+      detail: `${f1(u.releasePosition_m)} m per axis`,
+    });
+  }
+  if (u.releaseTiming_s > 0 && plan.carrier.groundSpeed_mps > 0) {
+    out.push({
+      id: 'releaseTiming',
+      label: 'release timing',
+      detail: `${f1(u.releaseTiming_s)} s`,
+    });
+  }
+  if (u.heading_deg > 0 && plan.variants.some((v) => v.guidance !== 'passive')) {
+    out.push({ id: 'heading', label: 'heading (steered)', detail: `${f1(u.heading_deg)}°` });
+  }
+  return out;
+}
+
+/** One line: "Included: forecast wind error, gusts, …" (or that none are). */
+export function errorSourcesLine(plan: Plan): string {
+  const s = errorSources(plan);
+  return s.length === 0
+    ? 'Included error sources: none (every flight is the nominal one).'
+    : `Included error sources: ${s.map((e) => e.label).join(', ')}.`;
+}
