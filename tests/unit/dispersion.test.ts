@@ -260,6 +260,8 @@ describe('zero-uncertainty Monte Carlo equals the deterministic answer', () => {
           },
         ],
         sites: [{ id: 'a', ...site, tolerance_m: 10 }],
+        // Still air: no modelled gusts or vertical air either.
+        uncertainty: { turbulence: 'none' },
         monteCarlo: { samples: 64, seed: 5 },
       });
     // Hovering: the passive landing does not depend on the site, so place the site 30 m east and

@@ -39,6 +39,8 @@ function trackPlan(
     carrier: { groundSpeed_mps: 10, trackDeg: 0 },
     variants,
     sites,
+    // Still air unless a test sets its own uncertainty (no modelled gusts or vertical air).
+    uncertainty: { turbulence: 'none' },
     ...extra,
   });
 }
@@ -100,7 +102,7 @@ describe('homing with no uncertainty', () => {
     const site = offsetLatLng(landing, 25, 25);
     const r = planDrop(
       trackPlan([HOMING], [{ id: 's', ...site, tolerance_m: 0.5 }], {
-        uncertainty: { descentRate_pct: 10 },
+        uncertainty: { descentRate_pct: 10, turbulence: 'none' },
         monteCarlo: { samples: 300, seed: 8 },
       }),
     ).sites[0];
@@ -146,7 +148,7 @@ describe('recommendation', () => {
     const shortHoming = { ...HOMING, id: 'short-seeker', controlTime_s: 2 };
     const r = planDrop(
       trackPlan([PASSIVE, FIXED, shortHoming], [{ id: 's', ...landing, tolerance_m: 5 }], {
-        uncertainty: { releasePosition_m: 6 },
+        uncertainty: { releasePosition_m: 6, turbulence: 'none' },
         monteCarlo: { samples: 400, seed: 2 },
         requiredPHit: 0.99,
       }),

@@ -79,6 +79,8 @@ function movingPlan(
     carrier: { groundSpeed_mps: 12, trackDeg: 60 },
     variants,
     sites: [{ id: 's', ...offsetLatLng(RELEASE, site.x, site.y), tolerance_m: tol }],
+    // Still air unless a test sets its own uncertainty: the closed forms below have no gusts.
+    uncertainty: { turbulence: 'none' },
     ...extra,
   });
 }
@@ -265,6 +267,8 @@ describe('hovering carrier', () => {
       carrier: { groundSpeed_mps: 0, trackDeg: 0 },
       variants,
       sites: [{ id: 's', ...offsetLatLng(RELEASE, 80, -30), tolerance_m: tol }],
+      // Still air: the zone sizes below are those of no error at all.
+      uncertainty: { turbulence: 'none' },
       monteCarlo: { samples: 100, seed: 3 },
     });
 

@@ -545,7 +545,12 @@ describe('resolvePlan', () => {
       releasePosition_m: 0,
       heading_deg: 0,
       releaseTiming_s: 0,
+      turbulence: 'auto',
     });
+    // Gust and vertical air left out stay out: absent means "modelled" (docs/plan-format.md).
+    for (const k of ['gust_mps', 'gustTime_s', 'verticalAir_mps']) {
+      expect(Object.keys(p.uncertainty)).not.toContain(k);
+    }
     expect(p.monteCarlo).toEqual({ samples: 2000, seed: 1 });
     expect(p.requiredPHit).toBe(0.9);
     expect(DEFAULTS.uncertainty).toEqual(p.uncertainty);
