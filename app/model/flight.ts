@@ -78,9 +78,8 @@ interface WindFunctional {
   sdA: number;
   /** Correlation of A with the release-altitude error ε_0. */
   rhoAB: number;
-  /** AR(1) coefficients between consecutive bands, and innovation scale √(1−ρ²). */
+  /** AR(1) coefficients between consecutive bands (correlation of neighbouring band values). */
   arRho: Float64Array;
-  arScale: Float64Array;
 }
 
 // One functional per fall table and correlation height: probes reuse it.
@@ -108,13 +107,48 @@ function computeWindFunctional(table: FallTable, corr_m: number): WindFunctional
   }
   const sdA = Math.sqrt(Math.max(0, varA));
   const arRho = new Float64Array(k);
-  const arScale = new Float64Array(k);
-  arScale[0] = 1;
   for (let i = 1; i < k; i++) {
     arRho[i] = Math.exp(-Math.abs(z[i - 1] - z[i]) / corr_m);
-    arScale[i] = Math.sqrt(1 - arRho[i] * arRho[i]);
   }
-  return { sdA, rhoAB: sdA > 0 ? covAB / sdA : 0, arRho, arScale };
+  return { sdA, rhoAB: sdA > 0 ? covAB / sdA : 0, arRho };
+}
+
+const NO_AR = { arPhi: new Float64Array(0), arInn: new Float64Array(0) };
+
+/**
+ * AR(1) coefficients of forecast error plus gust over the bands: x_b = φ_b x_(b−1) + s_b n_b
+ * with band variance V_b = σ_w² + V_g,b and neighbour covariance C_b = σ_w² ρ_b + C_g,b, so
+ * φ_b = C_b / V_(b−1) and s_b = √(V_b − φ_b C_b). Without gust this is the exact AR(1) of the
+ * forecast error alone; with gust, farther correlations are products of neighbour ones.
+ */
+function combinedAR(
+  wf: WindFunctional,
+  sw: number,
+  turb: FallTurbulence | undefined,
+  k: number,
+): { arPhi: Float64Array; arInn: Float64Array } {
+  const arPhi = new Float64Array(k);
+  const arInn = new Float64Array(k);
+  let prevVar = 0;
+  let prevG = 0;
+  for (let b = 0; b < k; b++) {
+    // Gust band-mean σ from its own AR(1): σ_g,b² = φ_g,b² σ_g,(b−1)² + innov_b².
+    const gPhi = turb ? turb.phi[b] : 0;
+    const gInn = turb ? turb.innov[b] : 0;
+    const gVar = gPhi * gPhi * prevG + gInn * gInn;
+    const v = sw * sw + gVar;
+    if (b > 0) {
+      const c = sw * sw * wf.arRho[b] + gPhi * prevG;
+      const phi = prevVar > 0 ? c / prevVar : 0;
+      arPhi[b] = phi;
+      arInn[b] = Math.sqrt(Math.max(0, v - phi * c));
+    } else {
+      arInn[0] = Math.sqrt(v);
+    }
+    prevVar = v;
+    prevG = gVar;
+  }
+  return { arPhi, arInn };
 }
 
 /** Where and how a batch of samples is released. */
@@ -173,10 +207,9 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const fixed = s.guidance === 'fixed-heading';
   const k = tab.bandCount;
   const { bandDt, bandDz, bandEast, bandNorth, bandRemEast, bandRemNorth, bandControl } = tab;
-  const { arRho, arScale } = wf;
-  const gusty = turb !== undefined && (turb.varA > 0 || turb.sigma0_mps > 0);
-  const gPhi = turb?.phi;
-  const gInn = turb?.innov;
+  // Homing: forecast error (point values) and gust (band means) as one AR(1) series per axis
+  // whose band variances and neighbour covariances are the sums of the two (docs/model.md §8a).
+  const { arPhi, arInn } = homing ? combinedAR(wf, sw, turb, k) : NO_AR;
   const sx = req.site.x;
   const sy = req.site.y;
 
@@ -209,22 +242,14 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
     } else {
       const cd = Math.cos(dh);
       const sd = Math.sin(dh);
-      let ex = 0;
-      let ey = 0;
-      let gx = 0;
-      let gy = 0;
+      let wx = 0;
+      let wy = 0;
       let budget = s.controlTime_s;
       for (let b = 0; b < k; b++) {
-        const rho = arRho[b];
-        const inn = sw * arScale[b];
-        ex = rho * ex + inn * rng.normal();
-        ey = rho * ey + inn * rng.normal();
-        if (gusty) {
-          gx = gPhi![b] * gx + gInn![b] * rng.normal();
-          gy = gPhi![b] * gy + gInn![b] * rng.normal();
-        }
-        const wx = ex + gx;
-        const wy = ey + gy;
+        const rho = arPhi[b];
+        const inn = arInn[b];
+        wx = rho * wx + inn * rng.normal();
+        wy = rho * wy + inn * rng.normal();
         if (b === 0) {
           px += (airX - wx) * tau;
           py += (airY - wy) * tau;

@@ -4,7 +4,7 @@ import type { TurbulenceClass } from './types';
 
 /**
  * Wind at 20 ft (m/s) that names each intensity class of the low-altitude turbulence model:
- * 15, 30 and 45 kt (MIL-F-8785C §3.7.3.4 / MIL-HDBK-1797, docs/model.md §8a).
+ * 15, 30 and 45 kt (MIL-F-8785C / MIL-HDBK-1797 low-altitude model, docs/model.md §8a).
  */
 export const CLASS_W20_MPS: Readonly<Record<'light' | 'moderate' | 'severe', number>> =
   Object.freeze({ light: 15 * MPS_PER_KT, moderate: 30 * MPS_PER_KT, severe: 45 * MPS_PER_KT });
