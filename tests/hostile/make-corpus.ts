@@ -197,11 +197,23 @@ function renameVariant(p: Json, i: number, id: unknown): void {
   for (const s of p.sites as Json[]) if (s.variant === old) s.variant = id;
 }
 
+/**
+ * Optional fields whose absence has a meaning of its own (absent = modelled gust and vertical
+ * air), so the base plan leaves them out: each is mutated alone on the base, the others absent.
+ */
+const OPTIONAL_FIELDS: Record<string, number> = {
+  'uncertainty.gust_mps': 1,
+  'uncertainty.gustTime_s': 5,
+  'uncertainty.verticalAir_mps': 0.5,
+};
+
 /** Numeric and string mutations of every field of the filled-in demo plan. */
 function fieldCases(): HostileCase[] {
   const base = basePlan();
+  const filled = clone(base);
+  for (const [path, value] of Object.entries(OPTIONAL_FIELDS)) setAt(filled, path, value);
   const out: HostileCase[] = [];
-  for (const leaf of leaves(base, schemaJson as Node)) {
+  for (const leaf of leaves(filled, schemaJson as Node)) {
     const isNum = leaf.node.type === 'number' || leaf.node.type === 'integer';
     const values: [string, unknown, string][] = isNum
       ? numericValues(leaf.node).map(([k, v]) => [k, v, 'plan.schema.json range'])
@@ -333,6 +345,39 @@ function shapeCases(): HostileCase[] {
     })(),
     'guidance outside its enum',
     { path: 'variants[0].guidance' },
+  );
+  add(
+    'enum-turbulence',
+    (() => {
+      const p = b();
+      setAt(p, 'uncertainty.turbulence', 'stormy');
+      return p;
+    })(),
+    'turbulence class outside its enum',
+    { path: 'uncertainty.turbulence' },
+  );
+  add(
+    'turbulence-severe',
+    (() => {
+      const p = b();
+      setAt(p, 'uncertainty.turbulence', 'severe');
+      return p;
+    })(),
+    'the strongest turbulence class (wind at 20 ft of 45 kt) on every variant',
+    { path: 'uncertainty.turbulence', source: 'MIL-F-8785C §3.7.3.4 (severe: W20 = 45 kt)' },
+  );
+  add(
+    'turbulence-every-maximum',
+    (() => {
+      const p = b();
+      setAt(p, 'uncertainty.turbulence', 'severe');
+      setAt(p, 'uncertainty.gust_mps', 10);
+      setAt(p, 'uncertainty.gustTime_s', 3600);
+      setAt(p, 'uncertainty.verticalAir_mps', 5);
+      return p;
+    })(),
+    'gust, correlation time and vertical air all at their documented maximum',
+    { path: 'uncertainty.verticalAir_mps', source: 'plan.schema.json range' },
   );
   add(
     'unknown-field-proto',
