@@ -14,6 +14,7 @@ import {
 } from '../model';
 import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
+import { includedText, pHitText } from './uncertainty-text';
 import { hodographSvg, sweepSvg } from './wind-plots';
 import { type PlanResult, type SiteResult, type SweepPoint } from '../planner';
 import type { Plan } from '../plan';
@@ -129,12 +130,49 @@ function scheduleRows(plan: Plan, result: PlanResult): string {
   <td class="when">${when}</td>
   <td class="num">${prog}</td>
   <td class="num big">${s.thrustTime_s === undefined ? '—' : f(s.thrustTime_s)}</td>
-  <td class="num big ${s.meetsRequired ? '' : 'bad'}" data-col="phit">${f(s.pHit, 2)}</td>
+  <td class="num big ${s.meetsRequired ? '' : 'bad'}" data-col="phit">${phitCell(s)}</td>
   <td class="num" data-col="cep">${f(s.cep_m)}</td>
   <td class="num small">${f(s.ellipse95.semiMajor_m)} × ${f(s.ellipse95.semiMinor_m)}<br>@ ${f(s.ellipse95.azimuth_deg, 0)}°</td>
 </tr>`;
     })
     .join('\n');
+}
+
+/** P(hit) large, its standard error small beside it: "0.91 ± 0.01" as text. */
+function phitCell(s: SiteResult): string {
+  const [p, se] = pHitText(s.pHit, s.pHitSE).split(' ± ');
+  return se === undefined ? esc(p) : `${esc(p)}<span class="small se"> ± ${esc(se)}</span>`;
+}
+
+/** Smallest and largest of finite values as "a" or "a–b" (one decimal), or null when none. */
+function span(values: number[]): string | null {
+  const v = values.filter((x) => Number.isFinite(x) && x > 0);
+  if (v.length === 0) return null;
+  const lo = f(Math.min(...v));
+  const hi = f(Math.max(...v));
+  return lo === hi ? lo : `${lo}–${hi}`;
+}
+
+/**
+ * The error sources the Monte Carlo flew, each with its size and origin; gusts and vertical air
+ * with the effective values of the sites' falls.
+ */
+function uncertaintySection(plan: Plan, result: PlanResult): string {
+  const src = result.errorSources;
+  if (src.length === 0)
+    return '<p>No error sources: every flight is the nominal one, so P(hit) is 0 or 1.</p>';
+  const gust = span(result.sites.map((s) => s.gust_mps));
+  const gustTime = span(result.sites.filter((s) => s.gust_mps > 0).map((s) => s.gustTime_s));
+  const vert = span(result.sites.map((s) => s.verticalAir_mps));
+  const items = src.map((e) => {
+    let falls = '';
+    if (e.id === 'gust' && gust)
+      falls = `; in the sites’ falls ${gust} m/s per component, correlation time ${gustTime ?? '—'} s`;
+    if (e.id === 'verticalAir' && vert) falls = `; in the sites’ falls ${vert} m/s`;
+    return `<li data-source="${esc(e.id)}"><b>${esc(e.label)}</b>: ${esc(e.detail)}${esc(falls)}</li>`;
+  });
+  return `<ul class="sources">${items.join('')}</ul>
+<p class="small">P(hit) is given ± its Monte Carlo standard error, √(p(1−p)/n) with n = ${plan.monteCarlo.samples} samples.</p>`;
 }
 
 function windRows(plan: Plan): string {
@@ -230,6 +268,8 @@ tr { break-inside: avoid; }
 .schedule .pos { white-space: nowrap; }
 .schedule td.when { white-space: nowrap; }
 .two, section.safety, section.hazard { break-inside: avoid; }
+.sources { margin: 1mm 0; padding-left: 5mm; }
+.sources li { margin-bottom: 0.8mm; }
 .coords { font-family: 'DejaVu Sans Mono', monospace; font-size: 8.5pt; }
 .two { display: grid; grid-template-columns: 1fr 1fr; gap: 6mm; align-items: start; }
 .printbar { position: sticky; top: 0; background: #1f3a34; color: #fff; padding: 3mm; display: flex; gap: 4mm; align-items: center; }
@@ -292,12 +332,13 @@ ${opts.printBar ? `<div class="printbar"><button type="button" data-action="prin
 <p>${moving ? 'Times are seconds relative to passing the release point (− before, + after). Release point column: the best release point.' : 'Release point column: the hover point for each site.'}</p>
 <table class="sched"><thead><tr><th>#</th><th>Site</th><th>Variant</th><th>Release point (dec. °, MGRS, UTM)</th><th>Alt. m AGL</th><th>Carrier hdg</th><th>${moving ? 'Window' : 'Hover'}</th><th>Programmed heading</th><th>Thrust s</th><th>P(hit)</th><th>CEP m</th><th>95 % ellipse m</th></tr></thead>
 <tbody>${scheduleRows(plan, result)}</tbody></table>
+<p class="small" data-testid="included">${esc(includedText(result.errorSources))} P(hit) ± its Monte Carlo standard error.</p>
 ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 </section>
 <section class="two"><div><h2>Winds</h2><table><thead><tr><th>Altitude m</th><th>From</th><th>m/s</th><th>kt</th></tr></thead><tbody>${windRows(plan)}</tbody></table>
 <p class="small">Below the lowest layer the speed follows a power law with α = ${f(plan.winds.surfaceExponent, 3)}. Wind error σ ${f(u.windSpeed_mps)} m/s per component, correlated over ${f(u.windCorrelation_m, 0)} m.</p></div>
 <div><h2>Atmosphere</h2>${atmosphereText(plan, msl)}
-<h2>Uncertainty (1σ)</h2><p>Descent rate ${f(u.descentRate_pct)} %, release position ${f(u.releasePosition_m)} m, heading ${f(u.heading_deg)}°, release timing ${f(u.releaseTiming_s)} s.</p></div></section>
+<h2>Uncertainty (1σ)</h2>${uncertaintySection(plan, result)}</div></section>
 <section class="figure"><h3>Wind profile</h3>${windPlotSvg(plan, result)}
 ${opts.sweep ? `<h3>P(hit) and CEP against release altitude</h3>${sweepSvg(opts.sweep.points, { requiredPHit: plan.requiredPHit, title: opts.sweep.title })}` : ''}
 <h3>Hodograph</h3>${hodographSvg(plan, { releaseAltitudeMSL_m: result.releaseAltitudeMSL_m, width_px: 400, height_px: 380 })}</section>

@@ -1,6 +1,7 @@
 import { CAUTION_TEXT } from './caution';
 import type { Plan } from '../plan';
 import type { PlanResult } from '../planner';
+import { includedText, pHitText } from './uncertainty-text';
 
 const fix = (v: number | null | undefined, d = 1): string => {
   if (v === null || v === undefined || !Number.isFinite(v)) return '-';
@@ -33,6 +34,8 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
       : 'Carrier hovering; zones are where to hold for each site',
     `Declination ${r.declination_deg === null ? 'unavailable' : `${fix(r.declination_deg, 2)}° (${r.declinationModel})`}` +
       `  required P(hit) ${plan.requiredPHit}  samples ${plan.monteCarlo.samples} seed ${plan.monteCarlo.seed}`,
+    includedText(r.errorSources),
+    ...r.errorSources.map((e) => `  ${e.label}: ${e.detail}`),
     '',
   ];
   const rows = [
@@ -64,7 +67,7 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
       s.id,
       `${s.variant}${s.pinned ? ' (pinned)' : ''}${s.meetsRequired ? '' : ' !'}`,
       s.reachable ? 'yes' : 'NO',
-      fix(s.pHit, 2),
+      pHitText(s.pHit, s.pHitSE),
       fix(s.cep_m),
       fix(s.fallTime_s),
       win,
@@ -75,7 +78,11 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
       `${fix(s.ellipse95.semiMajor_m)} x ${fix(s.ellipse95.semiMinor_m)} @ ${fix(s.ellipse95.azimuth_deg, 0)}°`,
     ]);
   }
-  const foot = ['', '! = below the required P(hit)'];
+  const foot = [
+    '',
+    '! = below the required P(hit)',
+    '± = Monte Carlo standard error of P(hit), √(p(1−p)/n) over the samples',
+  ];
   const limitHit = r.sites.some(
     (s) =>
       s.releaseWindow?.openUnbounded || s.releaseWindow?.closeUnbounded || s.releaseZone?.unbounded,

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { briefHtml, briefTimes, scheduleOrder } from '../../app/brief/brief-html';
+import { fallTurbulenceText, pHitText } from '../../app/brief/uncertainty-text';
 import { planDrop } from '../../app/planner/planner';
 import { validatePlan } from '../../app/plan/validate';
 import demo from '../../data/demo-plan.json';
@@ -31,10 +32,17 @@ describe('the drop brief', () => {
     expect(positions).toEqual([...positions].sort((a, b) => a - b));
   });
 
-  it('prints the planner’s P(hit) and CEP for each site', () => {
+  it('prints the planner’s P(hit) ± its standard error and CEP for each site', () => {
     for (const s of result.sites) {
       const row = html.slice(html.indexOf(`<tr data-site="${s.id}">`));
       expect(row).toContain(`data-col="phit">${s.pHit.toFixed(2)}<`);
+      // Binomial standard error of a share of n = 200 samples, √(p(1−p)/n) (common practice).
+      const se = Math.sqrt((s.pHit * (1 - s.pHit)) / 200);
+      const cell = /data-col="phit">(.*?)<\/td>/
+        .exec(row)![1]
+        .replace(/<[^>]+>/g, '')
+        .replace(/&lt;/g, '<');
+      expect(cell).toBe(`${s.pHit.toFixed(2)} ± ${se < 0.005 ? '<0.01' : se.toFixed(2)}`);
       expect(row).toContain(`data-col="cep">${(Number(s.cep_m.toFixed(1)) || 0).toFixed(1)}<`);
     }
   });
@@ -49,6 +57,38 @@ describe('the drop brief', () => {
     const row = marked.slice(marked.indexOf(`<tr data-site="${s.id}">`));
     expect(row.slice(0, row.indexOf('</tr>'))).toMatch(/before [+−][\d.]+ … after [+−][\d.]+ s/);
     expect(html).not.toContain('before +');
+  });
+
+  it('says which error sources P(hit) includes, gusts and vertical air with their sizes', () => {
+    const unc = html.slice(html.indexOf('<h2>Uncertainty (1σ)</h2>'));
+    const section = unc.slice(0, unc.indexOf('</div>'));
+    // The demo plan leaves turbulence at its default, auto (docs/plan-format.md).
+    expect(html).toContain(
+      'Included error sources: forecast wind error, gusts, vertical air, descent rate',
+    );
+    expect(section).toMatch(/data-source="gust"><b>gusts<\/b>: modelled: turbulence from the plan/);
+    expect(section).toMatch(/in the sites’ falls [\d.–]+ m\/s per component, correlation time/);
+    expect(section).toContain('data-source="verticalAir"');
+    expect(section).toContain('n = 200 samples');
+    const { plan: calmPlan, result: calm } = demoPlan((d) => {
+      (d.uncertainty as Record<string, unknown>).turbulence = 'none';
+    });
+    const calmHtml = briefHtml(calmPlan, calm);
+    expect(calmHtml).toContain('Included error sources: forecast wind error, descent rate');
+    expect(calmHtml).not.toContain('data-source="gust"');
+    expect(calmHtml).not.toContain('data-source="verticalAir"');
+  });
+
+  it('names a set gust as set, with the sites’ falls flying exactly that gust', () => {
+    const { plan: p, result: r } = demoPlan((d) => {
+      Object.assign(d.uncertainty, { turbulence: 'none', gust_mps: 1.5, gustTime_s: 4 });
+    });
+    const h = briefHtml(p, r);
+    expect(h).toContain(
+      '<b>gusts</b>: 1.5 m/s per component (set); correlation time 4 s (set); in the sites’ falls 1.5 m/s per component, correlation time 4.0 s',
+    );
+    // Turbulence "none" with a set gust flies that gust and nothing else (the plan-format rule).
+    expect(h).not.toContain('data-source="verticalAir"');
   });
 
   it('draws the wind profile and the hodograph', () => {
@@ -118,7 +158,7 @@ describe('the brief from the command line', () => {
         '--samples',
         '200',
         '--sweep',
-        's02',
+        's02:plain-drifter',
       ],
       { stdio: 'pipe' },
     );
@@ -151,4 +191,27 @@ describe('the brief from the command line', () => {
     expect(err2).toContain('--paper must be A4 or Letter');
     // Four CLI runs (tsx start-up and a plan each): seconds apiece on a loaded 2-core machine.
   }, 180_000);
+});
+
+describe('P(hit) and turbulence in words', () => {
+  // Two decimals for both, "± <0.01" when the error rounds to 0.00 (issue 11's form "0.91 ± 0.01").
+  it('writes P(hit) ± its standard error to two decimals', () => {
+    // √(0.5·0.5/2000) = 0.01118; √(0.97·0.03/2000) = 0.00381; √(0.5·0.5/200) = 0.03536.
+    expect(pHitText(0.5, Math.sqrt(0.25 / 2000))).toBe('0.50 ± 0.01');
+    expect(pHitText(0.97, Math.sqrt((0.97 * 0.03) / 2000))).toBe('0.97 ± <0.01');
+    expect(pHitText(0.5, Math.sqrt(0.25 / 200))).toBe('0.50 ± 0.04');
+    expect(pHitText(1, 0)).toBe('1.00 ± <0.01');
+    expect(pHitText(0.0001, 0.0002)).toBe('0.00 ± <0.01');
+    expect(pHitText(Number.NaN, 0.01)).toBe('–');
+    expect(pHitText(0.91)).toBe('0.91');
+  });
+
+  it('gives one fall’s gust and vertical air, "none" where there is none', () => {
+    expect(fallTurbulenceText({ gust_mps: 0.84, gustTime_s: 3.16, verticalAir_mps: 0.42 })).toBe(
+      'gust 1σ 0.8 m/s, correlation time 3.2 s · vertical air 1σ 0.4 m/s',
+    );
+    expect(fallTurbulenceText({ gust_mps: 0, gustTime_s: 0, verticalAir_mps: 0 })).toBe(
+      'gust none · vertical air none',
+    );
+  });
 });
