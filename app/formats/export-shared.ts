@@ -93,6 +93,16 @@ export function planSite(plan: Plan, result: PlanResult, i: number): ResolvedSit
 export const ellipseRingOf = (e: GeoEllipse): Position[] =>
   ellipsePositions(e.center, e.semiMajor_m, e.semiMinor_m, e.azimuth_deg);
 
+/**
+ * P(hit) ± its Monte Carlo standard error to two decimals ("0.91 ± 0.01", "± <0.01" when the error
+ * rounds to 0.00). The same wording as app/brief's pHitText, which formats may not import.
+ */
+export function pHitText(pHit: number, se: number): string {
+  const p = (Number(pHit.toFixed(2)) || 0).toFixed(2);
+  if (!Number.isFinite(se)) return p;
+  return se < 0.005 ? `${p} ± <0.01` : `${p} ± ${se.toFixed(2)}`;
+}
+
 export const signed = (t: number): string => `${t >= 0 ? '+' : '−'}${Math.abs(t).toFixed(1)} s`;
 
 /** One-line human summary of a site's release, used in KML and GPX descriptions. */
@@ -112,7 +122,7 @@ export function releaseText(r: SiteResult): string {
       `heading ${r.headingTrue_deg.toFixed(0)}° true${mag}, thrust ${(r.thrustTime_s ?? 0).toFixed(1)} s`,
     );
   }
-  parts.push(`P(hit) ${r.pHit.toFixed(2)}, CEP ${r.cep_m.toFixed(1)} m`);
+  parts.push(`P(hit) ${pHitText(r.pHit, r.pHitSE)}, CEP ${r.cep_m.toFixed(1)} m`);
   return parts.join('; ');
 }
 

@@ -83,6 +83,7 @@ export function toGeoJSON(
         pinned: r.pinned,
         recommended: r.recommended,
         pHit: round(r.pHit, 4),
+        pHitSE: round(r.pHitSE, 4),
         cep_m: round(r.cep_m, 2),
         reachable: r.reachable,
         meetsRequired: r.meetsRequired,

@@ -7,6 +7,7 @@ import {
   moving,
   planSite,
   r7,
+  pHitText,
   releaseText,
   round,
   signed,
@@ -70,7 +71,7 @@ export function toGPX(plan: Plan, result: PlanResult): string {
         ele: s.elevation_m,
         name: r.id,
         cmt: r.name,
-        desc: `${r.name}; tolerance ${s.tolerance_m} m; variant ${r.variant}; P(hit) ${r.pHit.toFixed(2)}`,
+        desc: `${r.name}; tolerance ${s.tolerance_m} m; variant ${r.variant}; P(hit) ${pHitText(r.pHit, r.pHitSE)}`,
         type: 'site',
       }),
     );

@@ -361,6 +361,31 @@ describe('schedule CSV', () => {
     }
   });
 
+  // Binomial standard error of a share p of n independent samples, √(p(1−p)/n) (any statistics
+  // text; common practice for Monte Carlo estimates): recomputed here from the exported p_hit.
+  it('carries the standard error of P(hit) beside it in the schedule, GeoJSON and KML', () => {
+    const n = plan.monteCarlo.samples;
+    const binomialSE = (p: number) => Math.sqrt((p * (1 - p)) / n);
+    const back = Papa.parse<Record<string, string>>(toScheduleCSV(plan, result).trimEnd(), {
+      header: true,
+    });
+    const fields = back.meta.fields ?? [];
+    expect(fields.indexOf('p_hit_se')).toBe(fields.indexOf('p_hit') + 1);
+    for (const row of back.data) {
+      // Both are rounded to 4 decimals (±5e-5 each); p is a multiple of 1/n, so p(1−p)n ≥ 1 − 1/n
+      // and the SE's slope |1−2p|/(2√(p(1−p)n)) is under 1: 1e-4 covers both roundings.
+      expectClose(Number(row.p_hit_se), binomialSE(Number(row.p_hit)), 1e-4, `se ${row.site}`);
+    }
+    const sites = toGeoJSON(plan, result).features.filter((f) => f.properties.kind === 'site');
+    for (const f of sites) {
+      const p = f.properties as { pHit: number; pHitSE: number };
+      expectClose(p.pHitSE, binomialSE(p.pHit), 1e-4, 'geojson pHitSE');
+    }
+    expect(toKML(plan, result)).toMatch(/<Data name="pHitSE"><value>0\.\d+<\/value><\/Data>/);
+    // The descriptions a person reads say it too: "P(hit) 0.91 ± 0.01" (or "± <0.01").
+    expect(toGPX(plan, result)).toMatch(/P\(hit\) \d\.\d\d ± (<0\.01|0\.\d\d)/);
+  });
+
   it('round-trips a name with a comma and a quote (RFC 4180 §2.6–2.7)', () => {
     const text = toScheduleCSV(plan, result);
     expect(text).toContain('"Reed, ""North"" margin & <edge>"');
