@@ -278,6 +278,12 @@ describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () 
     ['uncertainty.windCorrelation_m', 1, 0.99, 'must be between 1 and 100000'],
     ['uncertainty.releasePosition_m', 1000, 1000.1, 'must be between 0 and 1000'],
     ['uncertainty.releaseTiming_s', 10, 10.1, 'must be between 0 and 10'],
+    ['uncertainty.gust_mps', 0, -1, 'must be between 0 and 10'],
+    ['uncertainty.gust_mps', 10, 10.01, 'must be between 0 and 10'],
+    ['uncertainty.gustTime_s', 0.1, 0.099, 'must be between 0.1 and 3600'],
+    ['uncertainty.gustTime_s', 3600, 3600.1, 'must be between 0.1 and 3600'],
+    ['uncertainty.verticalAir_mps', 0, -0.01, 'must be between 0 and 5'],
+    ['uncertainty.verticalAir_mps', 5, 5.01, 'must be between 0 and 5'],
     ['requiredPHit', 0.01, 0.0099, 'must be between 0.01 and 1'],
     ['requiredPHit', 1, 1.01, 'must be between 0.01 and 1'],
     ['safety.ceiling_m', 1, 0.99, 'must be between 1 and 10000'],
@@ -295,6 +301,54 @@ describe('ranges a practitioner recognises (docs/plan-format.md, "Ranges")', () 
     ['requiredPHit', 0, 'must be between 0.01 and 1'],
   ])('%s = %j is refused with the range', (path, bad, rest) => {
     expect(errorsOf(demoWith(path, bad))).toEqual([{ path, message: `${path} ${rest}` }]);
+  });
+
+  // Issue: negative or absurd σ, a correlation time of 0, an unknown class. Each is refused by
+  // its path with its range or the allowed values; nothing else is reported, the file given is
+  // left as it was, and once those fields are put right every other value comes through.
+  it('bad turbulence fields name the field and its range, and nothing else is lost', () => {
+    const bad = plan();
+    Object.assign(bad.uncertainty, {
+      turbulence: 'stormy',
+      gust_mps: 50,
+      gustTime_s: 0,
+      verticalAir_mps: 9,
+    });
+    const before = structuredClone(bad);
+    expect(messagesOf(bad)).toEqual([
+      'uncertainty.turbulence must be one of "none", "light", "moderate", "severe" or "auto"',
+      'uncertainty.gust_mps must be between 0 and 10',
+      'uncertainty.gustTime_s must be between 0.1 and 3600',
+      'uncertainty.verticalAir_mps must be between 0 and 5',
+    ]);
+    expect(bad).toEqual(before);
+    expect(messagesOf(demoWith('uncertainty.gust_mps', -1))).toEqual([
+      'uncertainty.gust_mps must be between 0 and 10',
+    ]);
+    expect(messagesOf(demoWith('uncertainty.gust_mps', 'NaN'))).toEqual([
+      'uncertainty.gust_mps must be a number between 0 and 10',
+    ]);
+    expect(allowedRange('uncertainty.gustTime_s')).toBe('a number between 0.1 and 3600');
+    expect(allowedRange('uncertainty.verticalAir_mps')).toBe('a number between 0 and 5');
+    // Put right: the plan validates and resolves to the demo's values plus the four fields.
+    Object.assign(bad.uncertainty, {
+      turbulence: 'light',
+      gust_mps: 1.5,
+      gustTime_s: 4,
+      verticalAir_mps: 0.5,
+    });
+    const r = validatePlan(bad, { now: NOW });
+    expect(r.ok ? r.warnings : r.errors).toEqual([]);
+    const resolved = resolvePlan(bad as PlanFile, { now: NOW });
+    const plain = resolvePlan(plan() as PlanFile, { now: NOW });
+    expect(resolved.uncertainty).toEqual({
+      ...plain.uncertainty,
+      turbulence: 'light',
+      gust_mps: 1.5,
+      gustTime_s: 4,
+      verticalAir_mps: 0.5,
+    });
+    expect({ ...resolved, uncertainty: null }).toEqual({ ...plain, uncertainty: null });
   });
 
   it('a carrier speed given as text names the range with its gap; form hints say the same', () => {
