@@ -5,6 +5,7 @@
  * Tooltips hold site and variant ids from files, so they are built from text nodes (tooltip.ts).
  */
 import L from 'leaflet';
+import { fallTurbulenceText, includedText, pHitText } from '../brief';
 import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../planner';
 import { circleRing, ellipseRing, trackSegment } from './geometry';
 import { lazyTip } from './tooltip';
@@ -37,6 +38,8 @@ export const DEFAULT_VISIBILITY: LayerVisibility = {
 /** Number formatting supplied by the UI (user's units). */
 export interface LayerFormat {
   length: (m: number) => string;
+  /** m/s in the user's unit (default "x.x m/s"). */
+  speed?: (mps: number) => string;
 }
 
 const f1 = (v: number): string => (Number(v.toFixed(1)) || 0).toFixed(1);
@@ -69,6 +72,7 @@ export function buildResultLayers(
 ): L.LayerGroup {
   const group = L.layerGroup();
   const release = (v: VariantResult) => v.release;
+  const included = includedText(result.errorSources);
   for (const site of result.sites) {
     for (const v of shownResults(site, vis)) {
       const c = colour(v.variant);
@@ -98,7 +102,9 @@ export function buildResultLayers(
             lazyTip(
               `95 % landing ellipse · ${who}`,
               `${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}, major axis ${Math.round(e.azimuth_deg)}°`,
-              `P(hit) ${v.pHit.toFixed(2)} · CEP ${fmt.length(v.cep_m)}`,
+              `P(hit) ${pHitText(v.pHit, v.pHitSE)} · CEP ${fmt.length(v.cep_m)}`,
+              `This fall: ${fallTurbulenceText(v, fmt.speed)}`,
+              included,
             ),
             { sticky: true },
           )
@@ -111,6 +117,9 @@ export function buildResultLayers(
             lazyTip(
               `50 % landing ellipse · ${who}`,
               `${fmt.length(e.semiMajor_m)} × ${fmt.length(e.semiMinor_m)}`,
+              `P(hit) ${pHitText(v.pHit, v.pHitSE)} · CEP ${fmt.length(v.cep_m)}`,
+              `This fall: ${fallTurbulenceText(v, fmt.speed)}`,
+              included,
             ),
             { sticky: true },
           )
@@ -129,6 +138,7 @@ export function buildResultLayers(
             lazyTip(
               `Uncontrolled landing · ${who}`,
               `fall ${f1(v.fallTime_s)} s · release ${signed(release(v).time_s)}`,
+              `site P(hit) with this variant ${pHitText(v.pHit, v.pHitSE)}`,
             ),
           )
           .addTo(group);
@@ -146,7 +156,8 @@ export function buildResultLayers(
         const tip = lazyTip(
           `Release window · ${who}`,
           `opens ${signed(w.open_s)}, closes ${signed(w.close_s)} (relative to passing the release point)`,
-          `best ${signed(w.best_s)} · P(hit) ${v.pHit.toFixed(2)}`,
+          `best ${signed(w.best_s)} · P(hit) ${pHitText(v.pHit, v.pHitSE)}`,
+          included,
         );
         L.polyline(line, {
           color: c,
@@ -186,6 +197,8 @@ export function buildResultLayers(
             lazyTip(
               `Hover release zone · ${who}`,
               `hold within ${fmt.length(z.radius_m)} of the centre for P(hit) ≥ required`,
+              `P(hit) ${pHitText(v.pHit, v.pHitSE)}`,
+              included,
             ),
             { sticky: true },
           )

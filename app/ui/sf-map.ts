@@ -22,7 +22,7 @@ import { nextSiteId } from './sf-sites-panel';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { SiteMarkers } from './site-markers';
 import { StoreController } from './store-controller';
-import { formatLength } from './units';
+import { formatLength, formatSpeed } from './units';
 import { ZoneDrawing } from './zone-drawing';
 
 /**
@@ -54,6 +54,10 @@ export class SfMap extends LitElement {
         font:
           12px/1.35 system-ui,
           sans-serif;
+        /* Long lines (the included error sources) wrap instead of running off the map. */
+        white-space: normal;
+        width: max-content;
+        max-width: 22rem;
       }
     `,
   ];
@@ -186,7 +190,7 @@ export class SfMap extends LitElement {
     const s = this.store!;
     const r = s.result;
     const visKey = JSON.stringify(this.vis);
-    const unitKey = s.settings.units.length;
+    const unitKey = `${s.settings.units.length}|${s.settings.units.speed}`;
     if (r === this.drawnResult && visKey === this.drawnVis && unitKey === this.drawnUnits) return;
     this.drawnResult = r;
     this.drawnVis = visKey;
@@ -196,6 +200,7 @@ export class SfMap extends LitElement {
     if (!r) return;
     this.resultLayer = buildResultLayers(r, this.colour, this.vis, {
       length: (m) => formatLength(m, s.settings.units.length, m < 10 ? 1 : 0),
+      speed: (v) => formatSpeed(v, s.settings.units.speed),
     }).addTo(this.map!);
     // Sites may have changed status colour with the new result.
     if (!this.drag.active) this.sites.sync();
@@ -228,6 +233,10 @@ export class SfMap extends LitElement {
         JSON.parse(zones) as unknown[],
         this.showHazard,
       ).addTo(this.map!);
+      // Beneath the result shapes, so their tooltips (P(hit), the fall's turbulence) stay in
+      // reach inside the hazard area, which covers them all; last first keeps their own order.
+      const paths = this.safetyLayer.getLayers().filter((l): l is L.Path => l instanceof L.Path);
+      for (const l of paths.reverse()) l.bringToBack();
     }
     this.drawing.place(this.map!);
   }

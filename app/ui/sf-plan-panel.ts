@@ -11,6 +11,15 @@ const REF: [string, string][] = [
   ['MSL', 'above sea level (MSL)'],
 ];
 
+/** The turbulence classes in plain words (wind at 20 ft of the MIL-F-8785C low-altitude classes). */
+const TURBULENCE: [string, string][] = [
+  ['auto', 'auto (20 ft wind)'],
+  ['none', 'none'],
+  ['light', 'light'],
+  ['moderate', 'moderate'],
+  ['severe', 'severe'],
+];
+
 /** Release, carrier, atmosphere, uncertainty and Monte Carlo settings of the plan. */
 @customElement('sf-plan-panel')
 export class SfPlanPanel extends StoreElement {
@@ -23,6 +32,14 @@ export class SfPlanPanel extends StoreElement {
       section {
         display: grid;
         gap: 2px;
+      }
+      .hint {
+        font-size: 12px;
+        color: var(--sf-muted);
+        margin: 2px 0 4px;
+      }
+      .sigma {
+        text-transform: none;
       }
       .coord {
         font-size: 12px;
@@ -42,6 +59,9 @@ export class SfPlanPanel extends StoreElement {
       unit = '',
       optional = true,
     ) => numberField(s, path, label, { kind, unit, optional });
+    // Optional overrides: empty removes the key, so the modelled value applies.
+    const m = (path: string, label: string, kind: 'speed' | 'plain', unit = '') =>
+      numberField(s, path, label, { kind, unit, optional: true, placeholder: 'modelled' });
     return html`
       <h3>Plan</h3>
       <section>
@@ -78,7 +98,7 @@ export class SfPlanPanel extends StoreElement {
         ${n('atmosphere.isaOffset_K', 'Temperature offset from ISA', 'plain', 'K')}
         ${n('winds.surfaceExponent', 'Near-ground wind exponent α', 'plain', '')}
       </section>
-      <h3>Uncertainty (1σ)</h3>
+      <h3>Uncertainty (1<span class="sigma">σ</span>)</h3>
       <section>
         ${n('uncertainty.windSpeed_mps', 'Wind, per component', 'speed')}
         ${n('uncertainty.windCorrelation_m', 'Wind error correlation height', 'length')}
@@ -86,6 +106,22 @@ export class SfPlanPanel extends StoreElement {
         ${n('uncertainty.releasePosition_m', 'Release position, per axis', 'length')}
         ${n('uncertainty.heading_deg', 'Heading (steered)', 'plain', '°')}
         ${n('uncertainty.releaseTiming_s', 'Release timing', 'plain', 's')}
+        <sf-text-field
+          .store=${s}
+          path="uncertainty.turbulence"
+          label="Turbulence (gusts, vertical air)"
+          fallback="auto"
+          .options=${TURBULENCE}
+        ></sf-text-field>
+        ${m('uncertainty.gust_mps', 'Gust, per component', 'speed')}
+        ${m('uncertainty.gustTime_s', 'Gust correlation time', 'plain', 's')}
+        ${m('uncertainty.verticalAir_mps', 'Vertical air', 'speed')}
+        <p class="hint">
+          Turbulence: auto takes its strength from the plan’s wind at 20 ft above the ground; light,
+          moderate and severe are the standard’s classes (as a wind at 20 ft of 15, 30 and 45 kt);
+          none models no gusts or vertical air. Leave gust, correlation time and vertical air empty
+          for the modelled values; a value set here replaces the modelled one of its kind.
+        </p>
       </section>
       <h3>Monte Carlo</h3>
       <section>

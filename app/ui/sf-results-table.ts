@@ -1,6 +1,7 @@
 import { css, html } from 'lit';
 import { customElement, state } from 'lit/decorators.js';
-import type { SiteResult } from '../planner';
+import { pHitText } from '../brief';
+import type { ErrorSource, SiteResult } from '../planner';
 import { formatLength } from './units';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
@@ -31,6 +32,29 @@ function sortValue(r: SiteResult, k: Key): number | string {
     case 'thrust':
       return r.thrustTime_s ?? Infinity;
   }
+}
+
+/** P(hit) with its standard error in a smaller, muted type: "0.91 ± 0.01" as text. */
+function pHitCell(r: SiteResult) {
+  const [p, se] = pHitText(r.pHit, r.pHitSE).split(' ± ');
+  return se === undefined ? p : html`${p}<span class="se"> ± ${se}</span>`;
+}
+
+/** "Included error sources: a, b, c." with each source's size and origin as its tooltip. */
+function includedLine(sources: readonly ErrorSource[]) {
+  if (sources.length === 0)
+    return html`<p class="included" data-testid="included">
+      Included error sources: none (every flight is the nominal one).
+    </p>`;
+  return html`<p class="included" data-testid="included">
+    Included error sources:
+    ${sources.map(
+      (e, i) =>
+        html`<span class="source" data-source=${e.id} title=${e.detail}>${e.label}</span
+          >${i < sources.length - 1 ? ', ' : '.'}`,
+    )}
+    <span class="muted">P(hit) ± its Monte Carlo standard error.</span>
+  </p>`;
 }
 
 /** Per-site results of the latest plan: sortable; a row click shows the site on the map. */
@@ -66,10 +90,24 @@ export class SfResultsTable extends StoreElement {
       .scroll {
         overflow-x: auto;
       }
+      .se {
+        color: var(--sf-muted);
+        font-weight: 400;
+        font-size: 11px;
+      }
+      .included {
+        font-size: 12px;
+        margin: 4px 0 6px;
+      }
+      .source {
+        text-decoration: underline dotted;
+        cursor: help;
+      }
       td,
       th {
         white-space: nowrap;
         font-size: 13px;
+        padding: 3px;
       }
     `,
   ];
@@ -124,7 +162,8 @@ export class SfResultsTable extends StoreElement {
             <tr>
               ${h('id', 'Site')}
               ${h('variant', 'Variant', 'Chosen variant (pinned or recommended)')}
-              ${h('pHit', 'P(hit)')} ${h('cep_m', 'CEP')} ${h('reachable', 'Reach')}
+              ${h('pHit', 'P(hit)', 'Share of the samples landing within tolerance, ± its Monte Carlo standard error √(p(1−p)/n)')}
+              ${h('cep_m', 'CEP')} ${h('reachable', 'Reach')}
               ${
                 moving
                   ? h(
@@ -150,7 +189,9 @@ export class SfResultsTable extends StoreElement {
                   <td>
                     ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pin)</span>` : ''}
                   </td>
-                  <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`}>${num(x.pHit, 2)}</td>
+                  <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`} data-col="phit">
+                    ${pHitCell(x)}
+                  </td>
                   <td class="num">${formatLength(x.cep_m, u.length, 1)}</td>
                   <td class=${x.reachable ? 'good' : 'bad'}>${x.reachable ? 'yes' : 'no'}</td>
                   ${
@@ -171,6 +212,7 @@ export class SfResultsTable extends StoreElement {
           </tbody>
         </table>
       </div>
+      ${includedLine(r.errorSources)}
     `;
   }
 }

@@ -20,6 +20,8 @@ export class SfTextField extends SfFieldBase {
   @property({ attribute: false }) options?: [string, string][];
   /** An empty input removes the value so its default applies. */
   @property({ type: Boolean }) optional = false;
+  /** What a select shows while the plan leaves the value out (the default that then applies). */
+  @property() fallback = '';
 
   constructor() {
     super('sf-text');
@@ -33,7 +35,7 @@ export class SfTextField extends SfFieldBase {
   render() {
     const s = this.store;
     const raw = s?.get(this.path);
-    const value = raw === undefined || raw === null ? '' : String(raw);
+    const value = raw === undefined || raw === null ? this.fallback : String(raw);
     const msg = s?.messageAt(this.path);
     const control = this.options
       ? html`<select

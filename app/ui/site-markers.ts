@@ -1,5 +1,6 @@
 /** The sites on the map: a draggable marker each, labelled with its id, coloured by its result. */
 import L from 'leaflet';
+import { pHitText } from '../brief';
 import { siteIcon, siteMarker, lazyTip } from '../map';
 import type { Site } from '../plan';
 import type { SiteResult } from '../planner';
@@ -62,7 +63,7 @@ export class SiteMarkers {
       const bad = r ? !r.meetsRequired : false;
       const label = String(site.id ?? '');
       const tipText = r
-        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${r.pHit.toFixed(2)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
+        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${pHitText(r.pHit, r.pHitSE)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
         : `Site ${label}`;
       const iconKey = `${bad ? 'bad' : 'ok'}|${label}`;
       let m = this.markers.get(i);

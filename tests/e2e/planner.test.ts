@@ -322,6 +322,82 @@ describe('the map planner in Chromium', () => {
     expect(download.suggestedFilename()).toMatch(/\.json$/);
   });
 
+  it('shows P(hit) ± its standard error and the error sources it includes; turbulence none drops the gusts', async () => {
+    await open();
+    const table = page.locator('sf-results-table');
+    const included = table.locator('[data-testid=included]');
+    // "0.91 ± 0.01": two decimals each, "± <0.01" when the error rounds to 0.00 (issue 11).
+    for (const cell of await table.locator('td[data-col=phit]').allInnerTexts())
+      expect(cell.trim()).toMatch(/^\d\.\d\d ± (<0\.01|0\.\d\d)$/);
+    // The demo plan leaves turbulence at auto: gusts and vertical air are modelled.
+    await expect(included.innerText()).resolves.toMatch(
+      /^Included error sources: forecast wind error, gusts, vertical air, /,
+    );
+    await expect(included.locator('[data-source=gust]').getAttribute('title')).resolves.toContain(
+      "modelled: turbulence from the plan's wind at 20 ft",
+    );
+    await shot(page, 'planner-results-se');
+
+    // A landing ellipse's tooltip gives that fall's gust and vertical air and the sources.
+    // The largest ellipse, pointed at above its centre where the site marker does not cover it.
+    const boxes = await page
+      .locator('sf-map path.sf-ellipse95')
+      .evaluateAll((els) => els.map((e) => e.getBoundingClientRect().toJSON() as DOMRect));
+    const big = boxes.reduce((a, b) => (b.width * b.height > a.width * a.height ? b : a));
+    await page.mouse.move(big.x + big.width / 2, big.y + big.height * 0.2);
+    const tip = page.locator('sf-map .leaflet-tooltip', { hasText: /\d+ % landing ellipse ·/ });
+    await expect(tip.innerText()).resolves.toMatch(
+      /This fall: gust 1σ [\d.]+ m\/s, correlation time [\d.]+ s · vertical air 1σ [\d.]+ m\/s/,
+    );
+    await expect(tip.innerText()).resolves.toContain('Included error sources: forecast wind error');
+    await shot(page, 'planner-ellipse-tooltip');
+
+    const before = await table.locator('tbody').innerText();
+    await page.locator('[data-tab=plan]').click();
+    const turb = page.locator('sf-plan-panel select[data-path="uncertainty.turbulence"]');
+    await expect(turb.inputValue()).resolves.toBe('auto');
+    await turb.selectOption('none');
+    await settled();
+    await page.locator('[data-tab=results]').click();
+    await expect.poll(() => included.innerText(), { timeout: 15_000 }).not.toContain('gusts');
+    await expect(included.innerText()).resolves.not.toContain('vertical air');
+    await expect(table.locator('tbody').innerText()).resolves.not.toBe(before);
+
+    // A set gust replaces the modelled one; out of range it is kept and explained with the range.
+    await page.locator('[data-tab=plan]').click();
+    const gust = page.locator('sf-plan-panel input[data-path="uncertainty.gust_mps"]');
+    await expect(gust.getAttribute('placeholder')).resolves.toBe('modelled');
+    await gust.fill('20');
+    await gust.press('Enter');
+    await expect(
+      page.locator('sf-number-field[path="uncertainty.gust_mps"] .field-error').innerText(),
+    ).resolves.toContain('uncertainty.gust_mps must be between 0 and 10');
+    await expect(gust.inputValue()).resolves.toBe('20');
+    await gust.fill('1');
+    await gust.press('Enter');
+    await settled();
+    await page.locator('sf-plan-panel .hint').scrollIntoViewIfNeeded();
+    await shot(page, 'planner-plan-panel-turbulence');
+    await page.locator('[data-tab=results]').click();
+    await expect.poll(() => included.innerText(), { timeout: 15_000 }).toContain('gusts');
+    await expect(included.locator('[data-source=gust]').getAttribute('title')).resolves.toContain(
+      '1 m/s per component (set)',
+    );
+    // Clearing the field removes the key (the modelled value applies), not 0 or "".
+    await page.locator('[data-tab=plan]').click();
+    await gust.fill('');
+    await gust.press('Enter');
+    await settled();
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'Save' }).click(),
+    ]);
+    const saved = JSON.parse(readFileSync(await download.path(), 'utf8'));
+    expect(saved.uncertainty.turbulence).toBe('none');
+    expect('gust_mps' in saved.uncertainty).toBe(false);
+    expect(errors).toEqual([]);
+  });
+
   it('is usable on a tablet-sized screen', async () => {
     await open({ width: 800, height: 1100 });
     expect(await count('.sf-site')).toBe(12);
