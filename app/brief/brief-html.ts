@@ -138,10 +138,10 @@ function scheduleRows(plan: Plan, result: PlanResult): string {
     .join('\n');
 }
 
-/** P(hit) large, its standard error small beside it: "0.91 ± 0.01" as text. */
+/** P(hit) large, its standard error small under it: "0.91 ± 0.01" as text. */
 function phitCell(s: SiteResult): string {
   const [p, se] = pHitText(s.pHit, s.pHitSE).split(' ± ');
-  return se === undefined ? esc(p) : `${esc(p)}<span class="small se"> ± ${esc(se)}</span>`;
+  return se === undefined ? esc(p) : `${esc(p)} <br><span class="small se">± ${esc(se)}</span>`;
 }
 
 /** Smallest and largest of finite values as "a" or "a–b" (one decimal), or null when none. */
@@ -268,6 +268,7 @@ tr { break-inside: avoid; }
 .schedule .pos { white-space: nowrap; }
 .schedule td.when { white-space: nowrap; }
 .two, section.safety, section.hazard { break-inside: avoid; }
+.se { font-weight: 400; white-space: nowrap; }
 .sources { margin: 1mm 0; padding-left: 5mm; }
 .sources li { margin-bottom: 0.8mm; }
 .coords { font-family: 'DejaVu Sans Mono', monospace; font-size: 8.5pt; }

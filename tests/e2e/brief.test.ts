@@ -22,13 +22,13 @@ describe('the printed brief', () => {
     await page.goto(inject('baseUrl'));
     await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
 
-    // What the planner shows, per site: P(hit), CEP and the window.
-    const shown = new Map<string, { pHit: number; cep: number; window: number[] | null }>();
+    // What the planner shows, per site: P(hit) ± its standard error, CEP and the window.
+    const shown = new Map<string, { pHit: string; cep: number; window: number[] | null }>();
     for (const row of await page.locator('sf-results-table tbody tr').all()) {
       const cells = await row.locator('td').allInnerTexts();
       const w = /(-?[\d.]+)…(-?[\d.]+)/.exec(cells[5]);
       shown.set(cells[0].trim(), {
-        pHit: Number(cells[2]),
+        pHit: cells[2].trim(),
         cep: Number(cells[3].replace(' m', '')),
         window: w ? [Number(w[1]), Number(w[2])] : null,
       });
@@ -51,12 +51,15 @@ describe('the printed brief', () => {
     expect(pages).toBeGreaterThanOrEqual(3);
 
     const found = new Set<string>();
-    for (const line of text.split('\n')) {
+    const lines = text.split('\n');
+    lines.forEach((line, i) => {
       const m = /^\s*(\d+) (s\d+)\s.*\s(\d\.\d\d)\s+(\d+\.\d)\s*$/.exec(line);
-      if (!m) continue;
+      if (!m) return;
       const site = shown.get(m[2]);
       expect(site, `site ${m[2]} of the PDF is in the planner`).toBeDefined();
-      expect(Number(m[3])).toBe(site!.pHit);
+      // P(hit) on the row's line, its standard error ("± 0.01") printed small under it.
+      const se = /± (<?0\.\d\d)/.exec(lines.slice(i, i + 6).join(' '));
+      expect(`${m[3]} ± ${se?.[1]}`).toBe(site!.pHit);
       expect(Number(m[4])).toBe(site!.cep);
       const w = /([−+]?[\d.]+) … ([−+]?[\d.]+) s/.exec(line);
       if (site!.window) {
@@ -66,7 +69,7 @@ describe('the printed brief', () => {
         expect(line).toContain('no window');
       }
       found.add(m[2]);
-    }
+    });
     expect(found.size).toBe(12);
     expect(text).toContain('airspace authorisation');
     expect(errors).toEqual([]);
