@@ -386,6 +386,8 @@ describe('P(hit) after the window choice (Rayleigh distribution)', () => {
   const seMean = Math.sqrt((rayleigh * (1 - rayleigh)) / (seeds.length * n));
   const runs = seeds.map((seed) => planDrop(planFor(seed, landing)).sites[0]);
 
+  // The release chosen on 200 other samples sits a little off the ideal one, which costs a few
+  // thousandths below Rayleigh (about 1.7 SE on these seeds); the Rice check below accounts for it.
   it('the reported P(hit), averaged over 60 seeds of 200 samples, is within 3 SE of Rayleigh', () => {
     const mean = runs.reduce((a, r) => a + r.pHit, 0) / runs.length;
     expectClose(mean, rayleigh, 3 * seMean, 'mean reported P(hit)');
