@@ -21,13 +21,18 @@ export interface ErrorSource {
 
 const f1 = (x: number): string => (Math.round(x * 10) / 10).toString();
 
+/** Wind speed (m/s) at 20 ft above the plan ground, which `auto` turbulence reads. */
+function autoW20(plan: Plan): number {
+  const w = planWindProfile(plan).at(plan.groundElevation_m + W20_HEIGHT_M);
+  return Math.hypot(w.east_mps, w.north_mps);
+}
+
 /** The plan's modelled turbulence in words: class and the wind at 20 ft that sets it. */
 export function turbulenceText(plan: Plan): string {
   const t = plan.uncertainty.turbulence;
   if (t === 'none') return 'no modelled turbulence';
   if (t !== 'auto') return `${t} turbulence (wind at 20 ft ${f1(CLASS_W20_MPS[t])} m/s)`;
-  const w = planWindProfile(plan).at(plan.groundElevation_m + W20_HEIGHT_M);
-  return `turbulence from the plan's wind at 20 ft (${f1(Math.hypot(w.east_mps, w.north_mps))} m/s at the plan ground)`;
+  return `turbulence from the plan's wind at 20 ft (${f1(autoW20(plan))} m/s at the plan ground)`;
 }
 
 /**
@@ -38,7 +43,8 @@ export function turbulenceText(plan: Plan): string {
 export function errorSources(plan: Plan): ErrorSource[] {
   const u = plan.uncertainty;
   const out: ErrorSource[] = [];
-  const modelled = u.turbulence !== 'none';
+  // `auto` in calm air at 20 ft models nothing: no gust, no vertical air.
+  const modelled = u.turbulence === 'auto' ? autoW20(plan) > 0 : u.turbulence !== 'none';
   if (u.windSpeed_mps > 0) {
     out.push({
       id: 'wind',
