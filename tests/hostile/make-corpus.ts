@@ -364,7 +364,10 @@ function shapeCases(): HostileCase[] {
       return p;
     })(),
     'the strongest turbulence class (wind at 20 ft of 45 kt) on every variant',
-    { path: 'uncertainty.turbulence', source: 'MIL-F-8785C §3.7.3.4 (severe: W20 = 45 kt)' },
+    {
+      path: 'uncertainty.turbulence',
+      source: 'MIL-F-8785C low-altitude model (severe: W20 = 45 kt)',
+    },
   );
   add(
     'turbulence-every-maximum',

@@ -154,7 +154,7 @@ function fly(s: FlightSetup, n: number, seed: number, u: Uncertainty = STILL) {
 
 // ---------------------------------------------------------------------------------------------
 
-describe('low-altitude turbulence (MIL-F-8785C §3.7.3.4 / MIL-HDBK-1797 low-altitude forms)', () => {
+describe('low-altitude turbulence (MIL-F-8785C / MIL-HDBK-1797 low-altitude forms)', () => {
   // The standard's printed forms, in its own units (h in ft, W20 in kt), computed here:
   // σ_w = 0.1·W20; σ_u = σ_v = σ_w/(0.177 + 0.000823h)^0.4; L_w = h; L_u = L_v = h/(0.177 + 0.000823h)^1.2.
   const printed = (hFt: number, w20Kt: number) => {
@@ -198,7 +198,7 @@ describe('low-altitude turbulence (MIL-F-8785C §3.7.3.4 / MIL-HDBK-1797 low-alt
   });
 
   it('the classes are W20 = 15, 30 and 45 kt; none is still air, auto the plan’s own wind', () => {
-    // MIL-F-8785C §3.7.3.4: light, moderate, severe turbulence at W20 of 15, 30, 45 kt.
+    // MIL-F-8785C low-altitude model: light, moderate, severe turbulence at W20 of 15, 30, 45 kt.
     expectClose(CLASS_W20_MPS.light, 15 * KT, 1e-12);
     expectClose(CLASS_W20_MPS.moderate, 30 * KT, 1e-12);
     expectClose(CLASS_W20_MPS.severe, 45 * KT, 1e-12);
