@@ -14,9 +14,14 @@ import {
 } from '../model';
 import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
-import { includedText, pHitText } from './uncertainty-text';
 import { hodographSvg, sweepSvg } from './wind-plots';
-import { type PlanResult, type SiteResult, type SweepPoint } from '../planner';
+import {
+  includedText,
+  type PlanResult,
+  pHitText,
+  type SiteResult,
+  type SweepPoint,
+} from '../planner';
 import type { Plan } from '../plan';
 
 /** Safety state to print (from the checklist panel and the automatic checks). */

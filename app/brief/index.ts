@@ -12,7 +12,7 @@ export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-
 export { CAUTION_TEXT } from './caution';
 export { formatPlanText } from './report-text';
 export { timelineSvg } from './timeline-svg';
-export { fallTurbulenceText, includedText, pHitText } from './uncertainty-text';
+export { fallTurbulenceText } from './uncertainty-text';
 export {
   type HodographOptions,
   type HodographPoint,

@@ -1,7 +1,6 @@
 import { CAUTION_TEXT } from './caution';
 import type { Plan } from '../plan';
-import type { PlanResult } from '../planner';
-import { includedText, pHitText } from './uncertainty-text';
+import { includedText, type PlanResult, pHitText } from '../planner';
 
 const fix = (v: number | null | undefined, d = 1): string => {
   if (v === null || v === undefined || !Number.isFinite(v)) return '-';

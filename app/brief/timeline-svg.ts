@@ -3,7 +3,7 @@
  * span at which its chosen variant meets the required P(hit), with P(hit) shaded along the row.
  */
 import { esc } from './brief-svg';
-import type { TimelineEntry } from '../planner';
+import { pHitText, type TimelineEntry } from '../planner';
 
 /** Timeline rows per site; times in the plan's local offset are left to the caller's labels. */
 export function timelineSvg(
@@ -39,7 +39,7 @@ export function timelineSvg(
       const xb = x(Math.min(t1, i + 1 < timeline.length ? (a + b) / 2 : a));
       const ok = s.pHit >= requiredPHit;
       cells.push(
-        `<rect class="${ok ? 'ok' : 'no'}" data-site="${esc(id)}" x="${xa.toFixed(1)}" y="${y + 2}" width="${Math.max(0.5, xb - xa).toFixed(1)}" height="${rowH - 4}" fill-opacity="${(0.25 + 0.75 * s.pHit).toFixed(2)}"><title>${esc(id)} ${esc(e.time)}: P(hit) ${s.pHit.toFixed(2)} (${esc(s.variant)})</title></rect>`,
+        `<rect class="${ok ? 'ok' : 'no'}" data-site="${esc(id)}" x="${xa.toFixed(1)}" y="${y + 2}" width="${Math.max(0.5, xb - xa).toFixed(1)}" height="${rowH - 4}" fill-opacity="${(0.25 + 0.75 * s.pHit).toFixed(2)}"><title>${esc(id)} ${esc(e.time)}: P(hit) ${esc(pHitText(s.pHit, s.pHitSE))} (${esc(s.variant)})</title></rect>`,
       );
     }
   });

@@ -2,7 +2,7 @@
 // rings.ts (geodesic vertices), track times, release text, XML escaping.
 import { alongTrack, ellipseRingLatLon, type LatLon } from '../model';
 import type { Plan, ResolvedSite } from '../plan';
-import type { GeoEllipse, PlanResult, SiteResult } from '../planner';
+import { type GeoEllipse, type PlanResult, pHitText, type SiteResult } from '../planner';
 import type { Position } from './geojson';
 
 /** Degrees rounded to 7 decimals (≈ 1 cm), without negative zero. */
@@ -92,16 +92,6 @@ export function planSite(plan: Plan, result: PlanResult, i: number): ResolvedSit
 
 export const ellipseRingOf = (e: GeoEllipse): Position[] =>
   ellipsePositions(e.center, e.semiMajor_m, e.semiMinor_m, e.azimuth_deg);
-
-/**
- * P(hit) ± its Monte Carlo standard error to two decimals ("0.91 ± 0.01", "± <0.01" when the error
- * rounds to 0.00). The same wording as app/brief's pHitText, which formats may not import.
- */
-export function pHitText(pHit: number, se: number): string {
-  const p = (Number(pHit.toFixed(2)) || 0).toFixed(2);
-  if (!Number.isFinite(se)) return p;
-  return se < 0.005 ? `${p} ± <0.01` : `${p} ± ${se.toFixed(2)}`;
-}
 
 export const signed = (t: number): string => `${t >= 0 ? '+' : '−'}${Math.abs(t).toFixed(1)} s`;
 

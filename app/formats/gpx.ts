@@ -1,13 +1,12 @@
 // GPX 1.1: the release points as waypoints and the carrier track.
 import type { LatLon } from '../model';
 import type { Plan } from '../plan';
-import type { PlanResult } from '../planner';
+import { type PlanResult, pHitText } from '../planner';
 import {
   el,
   moving,
   planSite,
   r7,
-  pHitText,
   releaseText,
   round,
   signed,

@@ -5,8 +5,15 @@
  * Tooltips hold site and variant ids from files, so they are built from text nodes (tooltip.ts).
  */
 import L from 'leaflet';
-import { fallTurbulenceText, includedText, pHitText } from '../brief';
-import type { GeoEllipse, PlanResult, SiteResult, VariantResult } from '../planner';
+import { fallTurbulenceText } from '../brief';
+import {
+  type GeoEllipse,
+  includedText,
+  type PlanResult,
+  pHitText,
+  type SiteResult,
+  type VariantResult,
+} from '../planner';
 import { circleRing, ellipseRing, trackSegment } from './geometry';
 import { lazyTip } from './tooltip';
 

@@ -96,10 +96,20 @@ export function errorSources(plan: Plan): ErrorSource[] {
   return out;
 }
 
-/** One line: "Included: forecast wind error, gusts, …" (or that none are). */
-export function errorSourcesLine(plan: Plan): string {
-  const s = errorSources(plan);
-  return s.length === 0
+/** One line naming the error sources P(hit), CEP and the ellipses include. */
+export function includedText(sources: readonly ErrorSource[]): string {
+  return sources.length === 0
     ? 'Included error sources: none (every flight is the nominal one).'
-    : `Included error sources: ${s.map((e) => e.label).join(', ')}.`;
+    : `Included error sources: ${sources.map((e) => e.label).join(', ')}.`;
+}
+
+/**
+ * P(hit) (0–1) with its Monte Carlo standard error, both to two decimals: "0.91 ± 0.01". An error
+ * that rounds to 0.00 is written "± <0.01", never "± 0.00"; a missing error leaves P(hit) alone.
+ */
+export function pHitText(pHit: number, se?: number | null): string {
+  if (!Number.isFinite(pHit)) return '–';
+  const p = (Number(pHit.toFixed(2)) || 0).toFixed(2);
+  if (se === null || se === undefined || !Number.isFinite(se)) return p;
+  return se < 0.005 ? `${p} ± <0.01` : `${p} ± ${se.toFixed(2)}`;
 }

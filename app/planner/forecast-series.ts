@@ -110,11 +110,12 @@ export interface TimelineEntry {
   time: string;
   sites: {
     id: string;
-    /** P(hit) of the chosen variant (pinned, else recommended) at this time. */
+    /** P(hit) of the chosen variant (pinned, else recommended) at this time, and its standard error. */
     pHit: number;
+    pHitSE: number;
     variant: string;
     meetsRequired: boolean;
-    byVariant: { variant: string; pHit: number }[];
+    byVariant: { variant: string; pHit: number; pHitSE: number }[];
   }[];
 }
 
@@ -155,9 +156,14 @@ export function pHitTimeline(
       sites: result.sites.map((s) => ({
         id: s.id,
         pHit: s.pHit,
+        pHitSE: s.pHitSE,
         variant: s.variant,
         meetsRequired: s.meetsRequired,
-        byVariant: s.byVariant.map((v) => ({ variant: v.variant, pHit: v.pHit })),
+        byVariant: s.byVariant.map((v) => ({
+          variant: v.variant,
+          pHit: v.pHit,
+          pHitSE: v.pHitSE,
+        })),
       })),
     });
   }

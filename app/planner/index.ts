@@ -9,7 +9,13 @@ export {
   type TimelineOptions,
   windowsFromTimeline,
 } from './forecast-series';
-export { type ErrorSource, errorSources, errorSourcesLine, turbulenceText } from './error-sources';
+export {
+  type ErrorSource,
+  errorSources,
+  includedText,
+  pHitText,
+  turbulenceText,
+} from './error-sources';
 export {
   type GeoEllipse,
   planDrop,

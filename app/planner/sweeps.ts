@@ -6,6 +6,8 @@ export interface SweepPoint {
   /** Release altitude above the plan ground, m. */
   altitude_m: number;
   pHit: number;
+  /** Monte Carlo standard error of pHit. */
+  pHitSE: number;
   cep_m: number;
   reachable: boolean;
 }
@@ -39,7 +41,7 @@ export function altitudeSweep(
       monteCarlo: { ...plan.monteCarlo, samples },
     };
     const s = planDrop(one, { probeSamples: 64 }).sites[0];
-    return { altitude_m, pHit: s.pHit, cep_m: s.cep_m, reachable: s.reachable };
+    return { altitude_m, pHit: s.pHit, pHitSE: s.pHitSE, cep_m: s.cep_m, reachable: s.reachable };
   });
 }
 

@@ -1,7 +1,6 @@
 import { css, html } from 'lit';
 import { customElement, state } from 'lit/decorators.js';
-import { pHitText } from '../brief';
-import type { ErrorSource, SiteResult } from '../planner';
+import { type ErrorSource, pHitText, type SiteResult } from '../planner';
 import { formatLength } from './units';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';

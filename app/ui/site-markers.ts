@@ -1,9 +1,8 @@
 /** The sites on the map: a draggable marker each, labelled with its id, coloured by its result. */
 import L from 'leaflet';
-import { pHitText } from '../brief';
 import { siteIcon, siteMarker, lazyTip } from '../map';
 import type { Site } from '../plan';
-import type { SiteResult } from '../planner';
+import { pHitText, type SiteResult } from '../planner';
 import { dragPointTo, shownPosition } from './map-position';
 import type { MarkerDrag } from './marker-drag';
 import type { PlanStore } from './plan-store';

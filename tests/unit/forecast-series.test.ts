@@ -127,11 +127,12 @@ describe('P(hit) over clock time', () => {
         {
           id: 's1',
           pHit: a,
+          pHitSE: 0.01,
           variant: 'v1',
           meetsRequired: a >= 0.9,
           byVariant: [
-            { variant: 'v1', pHit: a },
-            { variant: 'v2', pHit: b },
+            { variant: 'v1', pHit: a, pHitSE: 0.01 },
+            { variant: 'v2', pHit: b, pHitSE: 0.01 },
           ],
         },
       ],

@@ -8,16 +8,18 @@ const entry = (time: string, a: number, b: number): TimelineEntry => ({
     {
       id: 'a',
       pHit: a,
+      pHitSE: 0.02,
       variant: 'v',
       meetsRequired: a >= 0.9,
-      byVariant: [{ variant: 'v', pHit: a }],
+      byVariant: [{ variant: 'v', pHit: a, pHitSE: 0.02 }],
     },
     {
       id: 'b<x>',
       pHit: b,
+      pHitSE: 0.02,
       variant: 'v',
       meetsRequired: b >= 0.9,
-      byVariant: [{ variant: 'v', pHit: b }],
+      byVariant: [{ variant: 'v', pHit: b, pHitSE: 0.02 }],
     },
   ],
 });
@@ -43,6 +45,11 @@ describe('the release-time timeline plot', () => {
     );
     for (let i = 1; i < xs.length; i++)
       expect(xs[i][0]).toBeCloseTo(xs[i - 1][0] + xs[i - 1][1], 0);
+  });
+
+  it('each cell names P(hit) with its Monte Carlo standard error', () => {
+    // pHitSE 0.02 in every entry above; √(p(1−p)/n) is the binomial standard error (common practice).
+    expect(svg).toContain('P(hit) 0.95 ± 0.02 (v)');
   });
 
   it('escapes site ids and says when there is nothing to draw', () => {

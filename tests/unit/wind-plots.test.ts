@@ -204,9 +204,9 @@ describe('the release-altitude sweep', () => {
 
 describe('the sweep plot', () => {
   const points = [
-    { altitude_m: 150, pHit: 0.4, cep_m: 30, reachable: true },
-    { altitude_m: 50, pHit: 0.95, cep_m: 8, reachable: true },
-    { altitude_m: 100, pHit: 0.7, cep_m: 16, reachable: false },
+    { altitude_m: 150, pHit: 0.4, pHitSE: 0.01, cep_m: 30, reachable: true },
+    { altitude_m: 50, pHit: 0.95, pHitSE: 0.01, cep_m: 8, reachable: true },
+    { altitude_m: 100, pHit: 0.7, pHitSE: 0.01, cep_m: 16, reachable: false },
   ];
 
   it('draws one P(hit) point and one CEP point per altitude, in altitude order', () => {
