@@ -212,6 +212,8 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const { arPhi, arInn } = homing ? combinedAR(wf, sw, turb, k) : NO_AR;
   const sx = req.site.x;
   const sy = req.site.y;
+  const cot = s.cotGamma;
+  const budget0 = s.controlTime_s;
 
   for (let i = 0; i < req.n; i++) {
     const f = Math.max(0.2, 1 + sf * rng.normal());
@@ -244,7 +246,7 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
       const sd = Math.sin(dh);
       let wx = 0;
       let wy = 0;
-      let budget = s.controlTime_s;
+      let budget = budget0;
       for (let b = 0; b < k; b++) {
         const rho = arPhi[b];
         const inn = arInn[b];
@@ -257,7 +259,7 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
         const dt = bandDt[b];
         if (budget > 0 && bandControl[b] === 1) {
           const dtReal = dt * invF;
-          const full = s.cotGamma * bandDz[b];
+          const full = cot * bandDz[b];
           const cap = budget >= dtReal ? full : (full * budget) / dtReal;
           const rx = sx - px - bandRemEast[b] * invF;
           const ry = sy - py - bandRemNorth[b] * invF;
@@ -265,8 +267,9 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
           if (dist > 1e-9 && full > 0) {
             const use = dist < cap ? dist : cap;
             budget -= (use / full) * dtReal;
-            const ux = (rx / dist) * use;
-            const uy = (ry / dist) * use;
+            const q = use / dist;
+            const ux = rx * q;
+            const uy = ry * q;
             // Heading error rotates the steering vector clockwise by dh.
             px += ux * cd + uy * sd;
             py += -ux * sd + uy * cd;
