@@ -34,7 +34,6 @@ import {
   type ResolvedVariant,
   soundingDensity,
 } from '../plan';
-
 import { type ErrorSource, errorSources } from './error-sources';
 
 const DEG = Math.PI / 180;
@@ -207,7 +206,8 @@ function geoEllipse(frame: LocalFrame, e: LocalEllipse): GeoEllipse {
   };
 }
 
-// Salts of the streams that choose (window selection, probes) apart from the one that reports.
+// Salt of the stream on which passive and fixed-heading flights choose their release time, apart
+// from the main stream that reports (the homing and hover probes have their own salt, below).
 const SELECT_SALT = 0x5bd1e995;
 
 /** Flies n samples from `release` and returns the landing points. */
