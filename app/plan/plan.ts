@@ -41,6 +41,8 @@ export interface Variant {
   throwTime_s?: number;
   /** Largest wind the variant is cleared to fly in, m/s (used by the safety checks). */
   maxWind_mps?: number;
+  /** Cost of flying one, in the team's own unit (same for every variant); default 0. */
+  cost?: number;
 }
 
 export interface Site {

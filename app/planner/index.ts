@@ -16,6 +16,8 @@ export {
   pHitText,
   turbulenceText,
 } from './error-sources';
+export { type Candidate, recommend, type Recommendation } from './recommend';
+export { windCoverageWarnings } from './wind-coverage';
 export {
   type GeoEllipse,
   planDrop,

@@ -35,6 +35,8 @@ import {
   soundingDensity,
 } from '../plan';
 import { type ErrorSource, errorSources } from './error-sources';
+import { recommend, type Recommendation } from './recommend';
+import { windCoverageWarnings } from './wind-coverage';
 
 const DEG = Math.PI / 180;
 
@@ -114,8 +116,10 @@ export interface SiteResult extends VariantResult {
   /** The site's position. */
   lat: number;
   lon: number;
-  /** The recommended variant id (first in catalogue order meeting requiredPHit, else best P(hit)). */
+  /** The recommended variant id (cheapest meeting requiredPHit, ties in catalogue order; else best P(hit)). */
   recommended: string;
+  /** Why: meets / below (none meets) / unreachable (no variant can reach the site), in words. */
+  recommendation: Recommendation;
   /** True when the site pins its variant. */
   pinned: boolean;
   meetsRequired: boolean;
@@ -125,6 +129,8 @@ export interface SiteResult extends VariantResult {
     pHit: number;
     pHitSE: number;
     cep_m: number;
+    /** The variant's `cost` (0 when the plan gives none). */
+    cost: number;
   }[];
   byVariant: VariantResult[];
 }
@@ -401,6 +407,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   } catch (e) {
     warnings.push(`time: ${(e as Error).message}; magnetic headings are not given`);
   }
+  warnings.push(...windCoverageWarnings(plan, top_m));
   const ctx: Context = {
     plan,
     frame: new LocalFrame(plan.release),
@@ -415,9 +422,8 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   const sites = plan.sites.map((s, si): SiteResult => {
     const all = plan.variants.map((v) => evaluate(ctx, v, s));
     opts.onProgress?.(si + 1, plan.sites.length);
-    const meeting = all.find((r) => r.pHit >= plan.requiredPHit);
-    const top = all.reduce((a, b) => (b.pHit > a.pHit ? b : a));
-    const recommended = (meeting ?? top).variant;
+    const rec = recommend(all, plan.variants, plan.requiredPHit);
+    const recommended = rec.variant;
     const chosenId = s.variant ?? recommended;
     const chosen = all.find((r) => r.variant === chosenId) ?? all[0];
     return {
@@ -427,6 +433,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
       lon: s.lon,
       ...chosen,
       recommended,
+      recommendation: rec,
       pinned: s.variant !== undefined,
       meetsRequired: chosen.pHit >= plan.requiredPHit,
       comparison: all.map((r) => ({
@@ -435,6 +442,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
         pHit: r.pHit,
         pHitSE: r.pHitSE,
         cep_m: r.cep_m,
+        cost: plan.variants.find((v) => v.id === r.variant)?.cost ?? 0,
       })),
       byVariant: all,
     };

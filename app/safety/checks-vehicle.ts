@@ -1,6 +1,6 @@
 // Checks of the vehicles: impact energy against published categories, battery, P(hit).
 import { densityAt, RHO0 } from '../model';
-import { massFactor, type Plan, soundingDensity } from '../plan';
+import { massFactor, type Plan, type ResolvedVariant, soundingDensity } from '../plan';
 import type { PlanResult } from '../planner';
 import {
   type CheckResult,
@@ -26,10 +26,53 @@ export function impactEnergy_J(mass_kg: number, w_mps: number, u_mps: number): n
   return 0.5 * mass_kg * (w_mps * w_mps + u_mps * u_mps);
 }
 
-export function energyCheck(plan: Plan, result: PlanResult): CheckResult {
+/** Touchdown of one variant on ground at elevation_m: speeds (m/s) and energy (J, null without a mass). */
+export interface Touchdown {
+  variant: string;
+  mass_kg: number | null;
+  vertical_mps: number;
+  horizontal_mps: number;
+  speed_mps: number;
+  energy_J: number | null;
+}
+
+/**
+ * Touchdown speeds and energy of variant `v` landing on ground at elevation_m in the plan's air:
+ * vertical w ∝ √(ρ0/ρ) (momentum theory) at that ground, horizontal the surface wind plus, for a
+ * steered vehicle still gliding at full authority, w·cot γ; energy ½·m·(w² + u²).
+ */
+export function touchdown(
+  plan: Plan,
+  v: ResolvedVariant,
+  elevation_m: number,
+  surfaceWind_mps: number,
+): Touchdown {
   // The same air the planner used: the plan's sounding when it has one, else the ISA offset.
   const density =
     soundingDensity(plan) ?? ((z: number) => densityAt(z, plan.atmosphere.isaOffset_K));
+  const mass = v.payloadMass_kg ?? v.referenceMass_kg ?? null;
+  const w = v.descentRate_mps * massFactor(v) * Math.sqrt(RHO0 / density(elevation_m));
+  const steer = v.guidance === 'passive' ? 0 : w / Math.tan(v.glideAngle_deg * DEG);
+  const u = surfaceWind_mps + steer;
+  return {
+    variant: v.id,
+    mass_kg: mass,
+    vertical_mps: w,
+    horizontal_mps: u,
+    speed_mps: Math.hypot(w, u),
+    energy_J: mass === null ? null : impactEnergy_J(mass, w, u),
+  };
+}
+
+/** Touchdown of every variant of the plan at one site (the details view and the brief). */
+export function siteTouchdowns(plan: Plan, result: PlanResult, siteId: string): Touchdown[] {
+  const site = plan.sites.find((s) => s.id === siteId);
+  const elev = site?.elevation_m ?? plan.groundElevation_m;
+  const surface = windSpeeds(plan, result).surface_mps;
+  return plan.variants.map((v) => touchdown(plan, v, elev, surface));
+}
+
+export function energyCheck(plan: Plan, result: PlanResult): CheckResult {
   const used = usedVariants(plan, result);
   const surface = windSpeeds(plan, result).surface_mps;
   const cat2 = IMPACT_CAT2_FT_LBF * J_PER_FT_LBF;
@@ -37,27 +80,24 @@ export function energyCheck(plan: Plan, result: PlanResult): CheckResult {
   const elevationOf = new Map<string, number>();
   for (const p of plan.sites) if (!elevationOf.has(p.id)) elevationOf.set(p.id, p.elevation_m);
   const items = used.map((v): Record<string, number | string> => {
-    const mass = v.payloadMass_kg ?? v.referenceMass_kg;
-    if (mass === undefined) return { variant: v.id, status: 'warn', note: 'mass unknown' };
-    // Highest site is the thinnest air and the fastest touchdown: w ∝ √(ρ0/ρ) (momentum theory).
+    // Highest site is the thinnest air and the fastest touchdown.
     let elev = -Infinity;
     for (const s of result.sites) {
       if (s.variant === v.id)
         elev = Math.max(elev, elevationOf.get(s.id) ?? plan.groundElevation_m);
     }
-    const w = v.descentRate_mps * massFactor(v) * Math.sqrt(RHO0 / density(elev));
-    // Steered vehicles may still glide at full authority at touchdown: add w·cot γ to the wind.
-    const steer = v.guidance === 'passive' ? 0 : w / Math.tan(v.glideAngle_deg * DEG);
-    const u = surface + steer;
-    const e = impactEnergy_J(mass, w, u);
+    const t = touchdown(plan, v, elev, surface);
+    if (t.mass_kg === null || t.energy_J === null)
+      return { variant: v.id, status: 'warn', note: 'mass unknown' };
+    const e = t.energy_J;
     const s: CheckStatus = e > cat3 ? 'fail' : e > cat2 ? 'warn' : 'pass';
     return {
       variant: v.id,
       status: s,
-      mass_kg: mass,
-      vertical_mps: r3(w),
-      horizontal_mps: r3(u),
-      speed_mps: r3(Math.hypot(w, u)),
+      mass_kg: t.mass_kg,
+      vertical_mps: r3(t.vertical_mps),
+      horizontal_mps: r3(t.horizontal_mps),
+      speed_mps: r3(t.speed_mps),
       energy_J: r3(e),
       energy_ftlbf: r3(e / J_PER_FT_LBF),
     };

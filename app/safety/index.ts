@@ -28,5 +28,8 @@ export {
   safetyChecks,
   type SafetyReport,
   type SafetySettings,
+  siteTouchdowns,
+  type Touchdown,
+  touchdown,
   windSpeeds,
 } from './safety';

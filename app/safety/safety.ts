@@ -28,6 +28,9 @@ export {
   IMPACT_CAT3_FT_LBF,
   impactEnergy_J,
   J_PER_FT_LBF,
+  siteTouchdowns,
+  type Touchdown,
+  touchdown,
 } from './checks-vehicle';
 
 /** Every automatic check for a plan and its result, plus the hazard area (m²). */

@@ -67,6 +67,7 @@ export class PlanStore extends EventTarget {
    */
   private holdSave = false;
   private saveTimer: ReturnType<typeof setTimeout> | undefined;
+  private selected: string | null = null;
 
   constructor(fallback: Draft, storage: Storage | null = browserStorage()) {
     super();
@@ -262,6 +263,25 @@ export class PlanStore extends EventTarget {
   /** Asks the map to show a site (results table row click). */
   focusSite(id: string): void {
     this.dispatchEvent(new CustomEvent<string>('focus-site', { detail: id }));
+  }
+
+  /**
+   * The site the crew is looking at (its details view is open; the map highlights its windows),
+   * or null. Views listen for 'select-site' (detail: the id or null); an id that is no longer in
+   * the plan reads as no selection.
+   */
+  get selectedSite(): string | null {
+    const id = this.selected;
+    return id !== null && this.list<{ id?: unknown }>('sites').some((s) => s?.id === id)
+      ? id
+      : null;
+  }
+
+  /** Selects a site (or none) and tells the views. */
+  selectSite(id: string | null): void {
+    if (this.selected === id) return;
+    this.selected = id;
+    this.dispatchEvent(new CustomEvent<string | null>('select-site', { detail: id }));
   }
 
   /** Writes the draft to storage now (page hide). */
