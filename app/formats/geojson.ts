@@ -82,6 +82,8 @@ export function toGeoJSON(
         variant: r.variant,
         pinned: r.pinned,
         recommended: r.recommended,
+        recommendation: r.recommendation.kind,
+        recommendationWhy: r.recommendation.why,
         pHit: round(r.pHit, 4),
         pHitSE: round(r.pHitSE, 4),
         cep_m: round(r.cep_m, 2),

@@ -386,6 +386,26 @@ describe('schedule CSV', () => {
     expect(toGPX(plan, result)).toMatch(/P\(hit\) \d\.\d\d ± (<0\.01|0\.\d\d)/);
   });
 
+  it('says per site whether its variant meets P(hit), is the best below it, or none can reach', () => {
+    const back = Papa.parse<Record<string, string>>(toScheduleCSV(plan, result).trimEnd(), {
+      header: true,
+    });
+    expect(back.meta.fields?.indexOf('recommendation')).toBe(
+      (back.meta.fields?.indexOf('variant') ?? -2) + 1,
+    );
+    for (const row of back.data) {
+      const r = result.sites.find((s) => s.id === row.site)!;
+      expect(row.recommendation).toBe(r.recommendation.kind);
+      expect(['meets', 'below', 'unreachable']).toContain(row.recommendation);
+    }
+    const sites = toGeoJSON(plan, result).features.filter((f) => f.properties.kind === 'site');
+    for (const f of sites) {
+      const r = result.sites.find((s) => s.id === f.properties.id)!;
+      expect(f.properties.recommendation).toBe(r.recommendation.kind);
+      expect(f.properties.recommendationWhy).toBe(r.recommendation.why);
+    }
+  });
+
   it('round-trips a name with a comma and a quote (RFC 4180 §2.6–2.7)', () => {
     const text = toScheduleCSV(plan, result);
     expect(text).toContain('"Reed, ""North"" margin & <edge>"');
