@@ -27,3 +27,11 @@ export {
   type VariantResult,
 } from './planner';
 export { altitudeSweep, sweepHeightsAGL, type SweepPoint } from './sweeps';
+export {
+  evenIndices,
+  type FallProfile,
+  type SiteEllipse,
+  type SiteSamples,
+  siteSamples,
+  type SiteSamplesOptions,
+} from './site-samples';

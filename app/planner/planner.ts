@@ -165,6 +165,7 @@ interface Context {
   unit: Vec;
   speed: number;
   declination: number | null;
+  declinationModel: string | null;
   probeN: number;
   /** Density from the plan's sounding, when it has one. */
   density?: (z_m: number) => number;
@@ -253,7 +254,23 @@ function hitShare(xs: Float64Array, ys: Float64Array, site: Vec, tol: number): n
   return h / xs.length;
 }
 
-function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantResult {
+/** What evaluate reports from: the main stream's landings (local frame, before `shift`), and more. */
+export interface Reported {
+  xs: Float64Array;
+  ys: Float64Array;
+  /** The moving carrier's best-time shift of the release, added to every landing. */
+  shift: Vec;
+  site: Vec;
+  stats: Dispersion;
+  table: FallTable;
+}
+
+function evaluate(
+  ctx: Context,
+  v: ResolvedVariant,
+  s: ResolvedSite,
+  keep?: (r: Reported) => void,
+): VariantResult {
   const { plan, frame, unit, speed } = ctx;
   const su = setupFor(ctx, v, s);
   const site = frame.toLocal(s);
@@ -336,6 +353,7 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
   }
 
   const stats: Dispersion = summarize(xs, ys, site, tol, shift);
+  keep?.({ xs, ys, shift, site, stats, table: su.table });
   rel = add(rel, shift);
   const nominal = add(rel, off);
   const miss = Math.hypot(site.x - nominal.x, site.y - nominal.y);
@@ -392,9 +410,24 @@ function evaluate(ctx: Context, v: ResolvedVariant, s: ResolvedSite): VariantRes
   return result;
 }
 
-/** Plans every site with every variant and picks one per site (docs/model.md §10). */
-export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
-  const warnings: string[] = [];
+/**
+ * Re-flies one site × variant exactly as planDrop does (same seed, release and best-time shift)
+ * and hands back its result with the main stream it reported from; null for an unknown id.
+ */
+export function reportedStream(
+  plan: Plan,
+  siteId: string,
+  variantId: string,
+): (Reported & { result: VariantResult }) | null {
+  const s = plan.sites.find((x) => x.id === siteId);
+  const v = plan.variants.find((x) => x.id === variantId);
+  if (!s || !v) return null;
+  let kept: Reported | undefined;
+  const result = evaluate(context(plan, {}, []), v, s, (r) => (kept = r));
+  return kept ? { ...kept, result } : null;
+}
+
+function context(plan: Plan, opts: PlanOptions, warnings: string[]): Context {
   const ground = plan.groundElevation_m;
   const top_m = plan.release.altitude_m + (plan.release.reference === 'AGL' ? ground : 0);
   const trackRad = plan.carrier.trackDeg * DEG;
@@ -408,7 +441,7 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     warnings.push(`time: ${(e as Error).message}; magnetic headings are not given`);
   }
   warnings.push(...windCoverageWarnings(plan, top_m));
-  const ctx: Context = {
+  return {
     plan,
     frame: new LocalFrame(plan.release),
     wind: planWindProfile(plan),
@@ -416,9 +449,16 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
     speed: plan.carrier.groundSpeed_mps,
     declination,
+    declinationModel,
     probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 128)),
     density: soundingDensity(plan),
   };
+}
+
+/** Plans every site with every variant and picks one per site (docs/model.md §10). */
+export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
+  const warnings: string[] = [];
+  const ctx = context(plan, opts, warnings);
   const sites = plan.sites.map((s, si): SiteResult => {
     const all = plan.variants.map((v) => evaluate(ctx, v, s));
     opts.onProgress?.(si + 1, plan.sites.length);
@@ -450,9 +490,9 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   return {
     name: plan.name,
     time: plan.time,
-    declination_deg: declination,
-    declinationModel,
-    releaseAltitudeMSL_m: top_m,
+    declination_deg: ctx.declination,
+    declinationModel: ctx.declinationModel,
+    releaseAltitudeMSL_m: ctx.top_m,
     releasePoint: { lat: plan.release.lat, lon: plan.release.lon },
     track: { unit: ctx.unit, groundSpeed_mps: ctx.speed, trackDeg: plan.carrier.trackDeg },
     sites,
