@@ -11,7 +11,17 @@ export { briefSafety } from './brief-safety';
 export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 export { CAUTION_TEXT } from './caution';
 export { formatPlanText } from './report-text';
-export { timelineSvg } from './timeline-svg';
+export { isUtc, planZone, type PlanZone, UTC_ZONE, zoneClock, zoneClockText } from './plan-clock';
+export {
+  type ClockWindowText,
+  noWindowText,
+  stepText,
+  timelineSection,
+  timelineWindows,
+  type TimelineWindows,
+  windowsNote,
+} from './timeline-section';
+export { timelineSiteIds, timelineSvg } from './timeline-svg';
 export { fallTurbulenceText } from './uncertainty-text';
 export {
   type HodographOptions,
