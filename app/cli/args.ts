@@ -1,7 +1,7 @@
 // The command line: commands, options and their checks, exit codes, and text made safe for a
 // terminal. Exit codes: 0 done, 1 usage or file error, 2 invalid plan, 3 internal error.
 
-export type Command = 'plan' | 'brief' | 'export';
+export type Command = 'plan' | 'brief' | 'export' | 'timeline';
 export type Format = 'json' | 'text' | 'geojson' | 'kml' | 'gpx' | 'csv';
 
 export interface Args {
@@ -17,6 +17,8 @@ export interface Args {
   sweep?: string;
   /** CSV export starts with a UTF-8 byte-order mark (for spreadsheets). */
   bom?: boolean;
+  /** Timeline step, s (--step). */
+  step_s?: number;
 }
 
 /** Where the CLI writes: the process's stdout/stderr, or a test's buffers. */
@@ -30,19 +32,33 @@ export const USAGE = `usage:
   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
                              [--sweep SITE[:VARIANT]]
   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
+  npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
 `;
 
 const OPTIONS: Record<Command, string[]> = {
   plan: ['--format', '--samples', '--seed'],
   brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep'],
   export: ['--format', '--out', '--samples', '--seed', '--bom'],
+  timeline: ['--step', '--format', '--samples', '--seed'],
 };
 
 const FORMATS: Record<Command, Format[]> = {
   plan: ['json', 'text'],
   brief: [],
   export: ['geojson', 'kml', 'gpx', 'csv'],
+  timeline: ['json', 'text'],
 };
+
+/** Allowed timeline steps, s: 1 min to 6 h. */
+export const STEP_RANGE_S = { min: 60, max: 6 * 3600 } as const;
+
+/** A duration with its unit ("90s", "5m", "1.5h") in whole seconds, or null when it is not one. */
+export function durationSeconds(text: string): number | null {
+  const m = /^(\d{1,6}(?:\.\d{1,6})?)([smh])$/.exec(text.trim());
+  if (!m) return null;
+  const s = Number(m[1]) * { s: 1, m: 60, h: 3600 }[m[2] as 's' | 'm' | 'h'];
+  return Number.isInteger(Math.round(s * 1e6) / 1e6) ? Math.round(s) : null;
+}
 
 /** Ends the command with `code`; `message` (may be '') goes to stderr. */
 export class CliExit extends Error {
@@ -76,7 +92,7 @@ export function terminalText(text: string): string {
 export const oneLine = (text: string): string => terminalText(text).replace(/\n/g, '\\u{000A}');
 
 export function parseArgs(argv: string[], io: CliIO): Args {
-  const commands: Command[] = ['plan', 'brief', 'export'];
+  const commands: Command[] = ['plan', 'brief', 'export', 'timeline'];
   const command = commands.includes(argv[0] as Command) ? (argv.shift() as Command) : 'plan';
   const args: Args = { command, format: command === 'export' ? 'geojson' : 'text', paper: 'A4' };
   for (let i = 0; i < argv.length; i++) {
@@ -114,6 +130,16 @@ export function parseArgs(argv: string[], io: CliIO): Args {
       }
       if (a === '--samples') args.samples = n;
       else args.seed = n;
+    } else if (a === '--step') {
+      const v = value();
+      const s = durationSeconds(v);
+      if (s === null || s < STEP_RANGE_S.min || s > STEP_RANGE_S.max) {
+        fail(
+          `--step must be a duration from 1m to 6h in whole seconds, with its unit s, m or h (e.g. 90s, 5m, 1h); got "${oneLine(v)}"`,
+          1,
+        );
+      }
+      args.step_s = s;
     } else if (a === '--sweep') {
       args.sweep = value();
     } else if (a === '--bom') {

@@ -3,6 +3,7 @@
  *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
  *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
  *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
+ *   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
  * Exit codes: 0 done, 1 usage or file error, 2 invalid plan, 3 internal error (one line, no trace).
  *
  * Everything is written through the `CliIO` given to `runCli` and the exit code is returned, never
@@ -18,6 +19,7 @@ import { briefCommand } from './brief';
 import { exportCommand } from './export';
 import { planCommand } from './plan';
 import { readPlan, sameFile } from './plan-file';
+import { timelineCommand } from './timeline';
 
 async function main(argv: string[], io: CliIO): Promise<void> {
   const args = parseArgs(argv, io);
@@ -38,6 +40,8 @@ async function main(argv: string[], io: CliIO): Promise<void> {
     const work = workIssue(plan);
     if (work) fail(`--samples: ${oneLine(work.message)}`, 2);
   }
+  // The timeline runs its own planDrop per time; the plan time's result alone is not needed.
+  if (args.command === 'timeline') return timelineCommand(args, io, plan, warnings);
   const result: PlanResult = planDrop(plan);
   result.warnings.unshift(...warnings);
 

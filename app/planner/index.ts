@@ -16,6 +16,13 @@ export {
   pHitText,
   turbulenceText,
 } from './error-sources';
+export {
+  planForecastSeries,
+  planTimeline,
+  TIMELINE_MAX_STEPS,
+  TIMELINE_STEP_S,
+  timelineSamples,
+} from './plan-timeline';
 export { type Candidate, recommend, type Recommendation } from './recommend';
 export { windCoverageWarnings } from './wind-coverage';
 export {
