@@ -1,18 +1,25 @@
 // The forecast section of <sf-wind-sources>: stored forecast times and the release-time timeline.
 import { html } from 'lit';
 import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
-import { timelineSvg } from '../brief';
-import type { TimelineEntry } from '../planner';
+import {
+  noWindowText,
+  planZone,
+  timelineSvg,
+  timelineWindows,
+  windowsNote,
+  zoneClockText,
+} from '../brief';
+import type { Plan } from '../plan';
+import { planForecastSeries, TIMELINE_STEP_S, type TimelineEntry } from '../planner';
 import type { WindLayer } from '../model';
 import { schemaMaxItems } from '../formats';
 import { deleteRowButton } from './delete-row-button';
 import type { SweepClient } from './sweep-client';
 import type { WindSourcesHost } from './wind-sources-host';
 
-/** The time typed for the next forecast and the last timeline computed; renders its section. */
+/** The time typed for the next forecast; renders its section and the store's last timeline. */
 export class ForecastTimeline {
   private forecastTime = '';
-  private timeline: TimelineEntry[] | null = null;
 
   constructor(
     private readonly host: WindSourcesHost,
@@ -23,8 +30,10 @@ export class ForecastTimeline {
   private readonly run = (): void => {
     const plan = this.host.store?.plan;
     if (!plan) return;
-    this.client.ask({ id: 0, kind: 'timeline', plan, step_s: 900 }, (reply) => {
-      if ('timeline' in reply) this.timeline = reply.timeline;
+    this.client.ask({ id: 0, kind: 'timeline', plan, step_s: TIMELINE_STEP_S }, (reply) => {
+      const s = this.host.store;
+      // Kept on the store with its plan: the brief prints it while the plan is unchanged.
+      if ('timeline' in reply && s) s.timeline = { entries: reply.timeline, plan };
     });
   };
 
@@ -98,13 +107,73 @@ export class ForecastTimeline {
         <button ?disabled=${c.sweeping} @click=${this.run}>Timeline</button>
         ${c.error ? html`<span class="field-error" role="alert">${c.error}</span>` : ''}
       </div>
-      ${
-        this.timeline && s.plan
-          ? html`<div class="plot" data-testid="timeline">
-              ${unsafeSVG(timelineSvg(this.timeline, s.plan.requiredPHit))}
-            </div>`
+      ${s.timeline ? this.timelineView(s.timeline.entries, s.timeline.plan, s.plan) : ''}
+    </section>`;
+  }
+
+  /** The drawing (site ids escaped by timelineSvg) and each site's window clock times. */
+  private timelineView(entries: TimelineEntry[], plan: Plan, current: Plan | null) {
+    const zone = planZone(plan.time);
+    const w = timelineWindows(entries, plan.requiredPHit, zone);
+    // pHitTimeline stops after TIMELINE_MAX_STEPS times: say so when the span reaches further.
+    const spanEnd = planForecastSeries(plan).span.end_ms;
+    const cut = entries.length > 0 && Date.parse(w.end) + TIMELINE_STEP_S * 1000 <= spanEnd;
+    return html`${
+        current !== plan
+          ? html`<p class="muted" data-testid="timeline-stale">
+              Computed for an earlier version of the plan: press Timeline again.
+            </p>`
           : ''
       }
-    </section>`;
+      <div class="plot" data-testid="timeline">
+        ${unsafeSVG(timelineSvg(entries, plan.requiredPHit, { zone }))}
+      </div>
+      ${
+        cut
+          ? html`<p class="field-error">
+              The timeline stops at ${zoneClockText(Date.parse(w.end), zone, true)}, before the last
+              forecast time: at most ${entries.length} times are evaluated.
+            </p>`
+          : ''
+      }
+      <h4>Release windows by clock time</h4>
+      <table data-testid="timeline-windows">
+        <thead>
+          <tr>
+            <th>Site</th>
+            <th>Opens</th>
+            <th>Closes</th>
+            <th>Variant</th>
+            <th>Note</th>
+          </tr>
+        </thead>
+        <tbody>
+          ${w.sites.map((site) =>
+            site.windows.length === 0
+              ? html`<tr data-site=${site.id}>
+                  <td>${site.id}</td>
+                  <td colspan="4" class="muted">${noWindowText(plan.requiredPHit)}</td>
+                </tr>`
+              : site.windows.map(
+                  (x, i) =>
+                    html`<tr data-site=${site.id}>
+                      <td>${i === 0 ? site.id : ''}</td>
+                      <td>${x.openText}</td>
+                      <td>${x.closeText}</td>
+                      <td>${x.variants.join(', ')}</td>
+                      <td>
+                        ${[
+                          x.atStart ? 'from the first time' : '',
+                          x.atEnd ? 'to the last time' : '',
+                        ]
+                          .filter(Boolean)
+                          .join('; ')}
+                      </td>
+                    </tr>`,
+                ),
+          )}
+        </tbody>
+      </table>
+      <p class="muted">${windowsNote(w, plan.requiredPHit)}</p>`;
   }
 }

@@ -2,7 +2,7 @@
 import { parseCoordinate } from '../model';
 import { allowedRange, type Plan, type PlanIssue, validatePlan } from '../plan';
 import type { PlanSafety } from '../safety';
-import type { PlanResult, SweepPoint } from '../planner';
+import type { PlanResult, SweepPoint, TimelineEntry } from '../planner';
 import { getAt, setAt } from './paths';
 import { PlanHistory } from './plan-history';
 import { PlanningRun } from './planning-run';
@@ -41,6 +41,8 @@ export class PlanStore extends EventTarget {
   result: PlanResult | null = null;
   /** The last altitude sweep and the plan it was computed for (printed in the brief). */
   sweep: { title: string; points: SweepPoint[]; plan: Plan } | null = null;
+  /** The last release-time timeline and the plan it was computed for (printed in the brief). */
+  timeline: { entries: TimelineEntry[]; plan: Plan } | null = null;
   /** The plan `result` was computed from (exports and the brief use this pair). */
   resultPlan: Plan | null = null;
   /** Safety checks of `result` (computed with it in the worker). */
