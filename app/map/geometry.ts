@@ -58,6 +58,21 @@ export function trackSegment(
   return points;
 }
 
+/**
+ * The points of a line (degrees) moved offset_m metres sideways, to the right of trackDeg when
+ * positive and to the left when negative: a lane beside a track.
+ */
+export function offsetLine(
+  line: readonly LatLngTuple[],
+  trackDeg: number,
+  offset_m: number,
+): LatLngTuple[] {
+  return line.map(([lat, lon]) => {
+    const p = alongTrack({ lat, lon }, trackDeg + 90, offset_m);
+    return [p.lat, p.lon];
+  });
+}
+
 /** Position of a drag handle distance_m metres ahead of release (degrees) along trackDeg. */
 export function bearingHandle(release: LatLon, trackDeg: number, distance_m: number): LatLngTuple {
   const p = alongTrack(release, trackDeg, distance_m);

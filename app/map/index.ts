@@ -1,5 +1,5 @@
 // Leaflet adapters: plan results, the plan's marks and the safety picture → map layers, the
-// graticule, tooltips built from text nodes.
+// graticule, tooltips built from text nodes, and the screen layout of lanes and labels.
 // The public face of app/map/: other folders import from here only.
 export {
   bearingHandle,
@@ -7,11 +7,21 @@ export {
   ellipseRing,
   intervalDecimals,
   niceInterval,
+  offsetLine,
   trackSegment,
   type LatLngTuple,
 } from './geometry';
 export { defaultLabelFormat, Graticule, graticule, type GraticuleOptions } from './graticule';
 export {
+  laneSide,
+  placeLabels,
+  windowLanes,
+  type Box,
+  type LabelPlace,
+  type LabelRequest,
+} from './layout';
+export {
+  buildFocusLayers,
   buildResultLayers,
   DEFAULT_VISIBILITY,
   SHAPE_KINDS,
@@ -22,3 +32,4 @@ export {
 export { releaseMarker, siteIcon, siteMarker, trackHandleMarker, trackLine } from './plan-marks';
 export { buildSafetyLayers, drawingOutline } from './safety-layers';
 export { escapeHtml, lazyTip, tipNode } from './tooltip';
+export { buildWindowLayers, type WindowView } from './window-layers';

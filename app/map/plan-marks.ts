@@ -10,13 +10,21 @@ export function siteIcon(label: string, bad: boolean): L.DivIcon {
   const text = document.createElement('span');
   text.className = 'site-label';
   text.textContent = label;
-  dot.append(text);
+  // A short line from the dot to its label when the label had to move away (site-markers.ts).
+  const leader = document.createElement('span');
+  leader.className = 'site-leader';
+  dot.append(leader, text);
   return L.divIcon({ className: `sf-site-icon sf-site`, html: dot, iconSize: [14, 14] });
 }
 
 /** A draggable site marker at [lat, lon] (degrees). */
 export function siteMarker(at: L.LatLngTuple, label: string, bad: boolean): L.Marker {
-  return L.marker(at, { draggable: true, keyboard: true, icon: siteIcon(label, bad) });
+  return L.marker(at, {
+    draggable: true,
+    keyboard: true,
+    riseOnHover: true,
+    icon: siteIcon(label, bad),
+  });
 }
 
 /** A draggable square mark: the icon box has the classes `className`, its one child `mark`. */

@@ -20,12 +20,18 @@ export const planMarkStyles = css`
   .site-dot.bad {
     border-color: #b42318;
   }
+  .sf-site.selected .site-dot {
+    box-shadow:
+      0 0 0 2px #fff,
+      0 0 0 4px #1c2b27;
+  }
+  /* Placed by site-markers.ts (left, top); these are the place of a label with none. */
   .site-label {
     position: absolute;
-    left: 16px;
-    top: -3px;
+    left: 17px;
+    top: -1px;
     font:
-      600 12px system-ui,
+      600 12px/15px system-ui,
       sans-serif;
     color: #1c2b27;
     text-shadow:
@@ -33,6 +39,31 @@ export const planMarkStyles = css`
       0 0 3px #fff,
       0 0 2px #fff;
     white-space: nowrap;
+  }
+  .site-label.off {
+    display: none;
+  }
+  .sf-site:hover .site-label.off,
+  .sf-site.selected .site-label.off {
+    display: block;
+    background: rgb(255 255 255 / 85%);
+  }
+  .site-leader {
+    display: none;
+    position: absolute;
+    left: 7px;
+    top: 6.5px;
+    height: 1px;
+    background: #1c2b27;
+    transform-origin: 0 50%;
+  }
+  /* A keyboard user sees which mark has the focus; a click leaves no rectangle. */
+  .leaflet-marker-icon:focus {
+    outline: none;
+  }
+  .leaflet-marker-icon:focus-visible {
+    outline: 2px solid #0f766e;
+    outline-offset: 2px;
   }
   .release-mark {
     width: 20px;

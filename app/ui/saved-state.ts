@@ -30,13 +30,29 @@ export interface Settings {
   tileAttribution: string;
   /** Paper of the printed brief. */
   paper: 'A4' | 'Letter';
+  /** Map layers the user switched on or off (a missing key takes the map's default). */
+  mapLayers: Partial<Record<MapLayerKey, boolean>>;
 }
+
+/** The map's layer switches kept in settings (sf-map.ts). */
+export const MAP_LAYER_KEYS = [
+  'hazard',
+  'reach',
+  'landing',
+  'ellipse50',
+  'ellipse95',
+  'window',
+  'zone',
+  'chosenOnly',
+] as const;
+export type MapLayerKey = (typeof MAP_LAYER_KEYS)[number];
 
 export const DEFAULT_SETTINGS: Readonly<Settings> = Object.freeze({
   units: { ...DEFAULT_UNITS },
   tileUrl: '',
   tileAttribution: '',
   paper: 'A4',
+  mapLayers: {},
 });
 
 export const PAPERS: readonly Settings['paper'][] = ['A4', 'Letter'];
@@ -134,7 +150,19 @@ export function checkSettings(raw: unknown): { settings: Settings; problems: str
     tileUrl: text('tileUrl', s.tileUrl, MAX_TILE_URL_CHARS),
     tileAttribution: text('tileAttribution', s.tileAttribution, MAX_ATTRIBUTION_CHARS),
     paper: pick('paper', s.paper, PAPERS, DEFAULT_SETTINGS.paper),
+    mapLayers: {},
   };
+  if (s.mapLayers !== undefined) {
+    if (s.mapLayers !== null && typeof s.mapLayers === 'object' && !Array.isArray(s.mapLayers)) {
+      // Unknown keys (another version's layers) are dropped; a known one must be true or false.
+      const m = s.mapLayers as Record<string, unknown>;
+      for (const k of MAP_LAYER_KEYS) {
+        if (m[k] === undefined) continue;
+        if (typeof m[k] === 'boolean') settings.mapLayers[k] = m[k];
+        else problems.push(`mapLayers.${k} ${shown(m[k])} is not true or false`);
+      }
+    } else problems.push(`mapLayers must be an object, not ${jsonKind(s.mapLayers)}`);
+  }
   return { settings, problems };
 }
 

@@ -4,12 +4,16 @@ import leafletCss from 'leaflet/dist/leaflet.css?inline';
 import { LitElement, css, html, unsafeCSS } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import {
+  buildFocusLayers,
   buildResultLayers,
   buildSafetyLayers,
+  buildWindowLayers,
   DEFAULT_VISIBILITY,
   escapeHtml,
   Graticule,
+  type LayerFormat,
   type LayerVisibility,
+  SHAPE_KINDS,
 } from '../map';
 import type { Site, Variant } from '../plan';
 import { layerBar, layerBarStyles } from './map-layer-bar';
@@ -24,6 +28,11 @@ import { SiteMarkers } from './site-markers';
 import { StoreController } from './store-controller';
 import { formatLength, formatSpeed } from './units';
 import { ZoneDrawing } from './zone-drawing';
+import type { Settings } from './saved-state';
+
+/** Above this many sites the result shapes are drawn on one canvas instead of as SVG elements. */
+export const CANVAS_SITES = 300;
+const WINDOW_PANE = 'seedfallWindows';
 
 /**
  * The planning map: coordinate grid and scale (no tiles needed; a tile URL can be set), the
@@ -41,11 +50,35 @@ export class SfMap extends LitElement {
         display: flex;
         flex-direction: column;
         min-height: 0;
+        /* Nothing of the map (grid, shapes, labels) is ever drawn outside its own box. */
+        overflow: hidden;
+        position: relative;
       }
       #map {
         flex: 1;
-        min-height: 300px;
+        min-height: 0;
         background: #f3f4ef;
+        /* Its own stacking context: Leaflet's panes (z-index 400–1000) stay inside it. */
+        isolation: isolate;
+        contain: paint;
+        /* Panning never selects the scale or attribution text. */
+        user-select: none;
+        -webkit-user-select: none;
+      }
+      #map:focus {
+        outline: none;
+      }
+      #map:focus-visible {
+        outline: 2px solid #0f766e;
+        outline-offset: -2px;
+      }
+      .leaflet-control-container {
+        user-select: none;
+        -webkit-user-select: none;
+      }
+      .sf-window-time {
+        font-weight: 600;
+        padding: 1px 4px;
       }
       #map.add-mode {
         cursor: crosshair;
@@ -63,9 +96,7 @@ export class SfMap extends LitElement {
   ];
 
   @property({ attribute: false }) store?: PlanStore;
-  @state() private vis: LayerVisibility = structuredClone(DEFAULT_VISIBILITY);
   @state() private addMode = false;
-  @state() private showHazard = true;
 
   private map?: L.Map;
   private resultLayer?: L.LayerGroup;
@@ -77,7 +108,19 @@ export class SfMap extends LitElement {
     this.requestUpdate();
   });
   private readonly track = new ReleaseTrack(() => this.store!, this.drag);
-  private readonly sites = new SiteMarkers(() => this.store!, this.drag);
+  private readonly sites = new SiteMarkers(() => this.store!, this.drag, {
+    hover: (id) => {
+      this.hovered = id;
+      this.syncFocus();
+    },
+  });
+  private windowLayer?: L.LayerGroup;
+  private focusLayer?: L.LayerGroup;
+  private canvas?: L.Canvas;
+  private windowCanvas?: L.Canvas;
+  private hovered: string | null = null;
+  private selected: string | null = null;
+  private drawnFocus = '';
   private readonly drawing = new ZoneDrawing(() => this.requestUpdate());
   private drawnResult: unknown = null;
   private drawnVis = '';
@@ -95,15 +138,52 @@ export class SfMap extends LitElement {
   connectedCallback(): void {
     super.connectedCallback();
     this.store?.addEventListener('focus-site', this.onFocus);
+    this.store?.addEventListener('select-site', this.onSelect);
   }
 
   disconnectedCallback(): void {
     this.store?.removeEventListener('focus-site', this.onFocus);
+    this.store?.removeEventListener('select-site', this.onSelect);
     super.disconnectedCallback();
   }
 
   private readonly onFocus = (e: Event): void =>
     this.sites.focus(this.map, (e as CustomEvent<string>).detail);
+
+  /** The selected site: its marker ringed, its windows on top with their times, its shapes. */
+  private readonly onSelect = (e: Event): void => {
+    this.selected = (e as CustomEvent<string | null>).detail;
+    this.sites.select(this.selected);
+    this.syncWindows();
+    this.syncFocus();
+  };
+
+  /** The layer switches: the user's saved choice over the defaults, key by key. */
+  private get vis(): LayerVisibility {
+    const saved = this.store?.settings.mapLayers ?? {};
+    const kinds = { ...DEFAULT_VISIBILITY.kinds };
+    for (const k of SHAPE_KINDS) kinds[k] = saved[k] ?? kinds[k];
+    return {
+      kinds,
+      chosenOnly: saved.chosenOnly ?? DEFAULT_VISIBILITY.chosenOnly,
+      variants: this.variantVis,
+    };
+  }
+
+  /** Which variants are compared (for this visit only: variant ids come and go with plans). */
+  @state() private variantVis: Record<string, boolean> = {};
+
+  private get showHazard(): boolean {
+    return this.store?.settings.mapLayers.hazard ?? true;
+  }
+
+  /** Keeps the switches in settings (stored for the next visit). */
+  private setLayers(vis: LayerVisibility, hazard: boolean): void {
+    this.variantVis = vis.variants;
+    const mapLayers: Settings['mapLayers'] = { hazard, chosenOnly: vis.chosenOnly };
+    for (const k of SHAPE_KINDS) mapLayers[k] = vis.kinds[k];
+    this.store?.setSettings({ mapLayers });
+  }
 
   firstUpdated(): void {
     const el = this.renderRoot.querySelector('#map') as HTMLElement;
@@ -111,9 +191,14 @@ export class SfMap extends LitElement {
     this.map = map;
     map.attributionControl.setPrefix('Seedfall · coordinate grid WGS 84');
     this.fit();
-    new Graticule().addTo(map);
+    // The scale first, so the grid's labels know what it covers from the start.
     L.control.scale({ metric: true, imperial: true, position: 'bottomleft' }).addTo(map);
+    new Graticule().addTo(map);
+    // Release windows above the other result shapes (overlay pane 400), below the markers.
+    map.createPane(WINDOW_PANE).style.zIndex = '450';
     this.sites.addTo(map);
+    // Lanes of release windows are screen pixels apart.
+    map.on('zoomend', () => this.syncWindows());
     map.on('click', (e: L.LeafletMouseEvent) => this.onMapClick(e));
     new ResizeObserver(() => map.invalidateSize()).observe(el);
     this.sync();
@@ -197,13 +282,77 @@ export class SfMap extends LitElement {
     this.drawnUnits = unitKey;
     this.resultLayer?.remove();
     this.resultLayer = undefined;
+    this.syncWindows();
+    this.syncFocus(true);
     if (!r) return;
-    this.resultLayer = buildResultLayers(r, this.colour, this.vis, {
-      length: (m) => formatLength(m, s.settings.units.length, m < 10 ? 1 : 0),
-      speed: (v) => formatSpeed(v, s.settings.units.speed),
-    }).addTo(this.map!);
+    this.resultLayer = buildResultLayers(
+      r,
+      this.colour,
+      this.vis,
+      this.format(),
+      this.renderer(r.sites.length),
+    ).addTo(this.map!);
     // Sites may have changed status colour with the new result.
     if (!this.drag.active) this.sites.sync();
+  }
+
+  private format(): LayerFormat {
+    const u = this.store!.settings.units;
+    return {
+      length: (m) => formatLength(m, u.length, m < 10 ? 1 : 0),
+      speed: (v) => formatSpeed(v, u.speed),
+    };
+  }
+
+  /** One canvas for the shapes of a big plan (SVG elements by the thousand pan slowly). */
+  private renderer(sites: number): L.Renderer | undefined {
+    if (sites <= CANVAS_SITES) return undefined;
+    this.canvas ??= L.canvas({ padding: 0.5 });
+    return this.canvas;
+  }
+
+  /** Release windows in lanes beside the track, the selected site's on top. */
+  private syncWindows(): void {
+    const map = this.map;
+    const r = this.store?.result;
+    this.windowLayer?.remove();
+    this.windowLayer = undefined;
+    if (!map || !r) return;
+    const c = map.latLngToContainerPoint([r.releasePoint.lat, r.releasePoint.lon]);
+    const metresPerPixel =
+      map.distance(map.containerPointToLatLng(c), map.containerPointToLatLng(c.add([100, 0]))) /
+      100;
+    if (!(metresPerPixel > 0)) return;
+    this.windowLayer = buildWindowLayers(r, this.colour, this.vis, {
+      metresPerPixel,
+      selected: this.selected,
+      pane: WINDOW_PANE,
+      renderer:
+        r.sites.length > CANVAS_SITES
+          ? (this.windowCanvas ??= L.canvas({ padding: 0.5, pane: WINDOW_PANE }))
+          : undefined,
+    }).addTo(map);
+  }
+
+  /** Reach, 50 % ellipse and landing of the site pointed at and the selected one. */
+  private syncFocus(force = false): void {
+    const map = this.map;
+    const r = this.store?.result;
+    const ids = [...new Set([this.selected, this.hovered])].filter((x): x is string => !!x);
+    const key = `${ids.join('\n')}|${this.selected}`;
+    if (!force && key === this.drawnFocus) return;
+    this.drawnFocus = key;
+    this.focusLayer?.remove();
+    this.focusLayer = undefined;
+    if (!map || !r || ids.length === 0) return;
+    this.focusLayer = buildFocusLayers(
+      r,
+      ids,
+      this.selected,
+      this.colour,
+      this.vis,
+      this.format(),
+    ).addTo(map);
   }
 
   private onMapClick(e: L.LeafletMouseEvent): void {
@@ -260,8 +409,8 @@ export class SfMap extends LitElement {
             this.addMode = false;
           }
         },
-        setHazard: (on) => (this.showHazard = on),
-        changeVis: (change) => (this.vis = change(this.vis)),
+        setHazard: (on) => this.setLayers(this.vis, on),
+        changeVis: (change) => this.setLayers(change(this.vis), this.showHazard),
       })}
       <div
         id="map"
