@@ -1,4 +1,5 @@
-// Outside formats in and out: site import, GeoJSON/KML/GPX/CSV export, winds-aloft text, sounding CSV, surface readings.
+// Outside formats in and out: site import, GeoJSON/KML/GPX/CSV export, winds-aloft text, sounding CSV, surface readings,
+// elevation models (GeoTIFF, ESRI ASCII grid).
 // The public face of app/formats/: other folders import from here only.
 export {
   neutraliseCell,
@@ -52,3 +53,26 @@ export {
   type WindsAloftLayer,
   type WindsAloftStation,
 } from './winds-aloft';
+export { readAsciiGrid, MAX_ASCII_GRID_CHARS, type AsciiGridOptions } from './ascii-grid';
+export {
+  boxText,
+  crsConverter,
+  Dem,
+  DEM_MARGIN_CELLS,
+  DemError,
+  type DemGrid,
+  type GridGeometry,
+  type GridWindow,
+  type LatLonBox,
+  MAX_DEM_CELLS,
+  SUPPORTED_CRS_TEXT,
+  windowFor,
+} from './dem';
+export {
+  blobSource,
+  bufferSource,
+  type ByteSource,
+  type DemRead,
+  type DemReadOptions,
+  readGeoTiffDem,
+} from './geotiff-dem';

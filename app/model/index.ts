@@ -74,6 +74,22 @@ export {
   type TerrainClass,
 } from './surface-wind';
 export {
+  type Crossing,
+  type CrossingOptions,
+  type DescentPath,
+  flatGround,
+  glideRays,
+  type Ground,
+  groundCrossing,
+  hiddenGround,
+  linePath,
+  MIN_REACH_RAYS,
+  type PathPoint,
+  type ReachPolygon,
+  reachPolygon,
+  type SiteView,
+} from './terrain';
+export {
   CLASS_W20_MPS,
   classW20,
   type FallTurbulence,
