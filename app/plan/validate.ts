@@ -284,6 +284,14 @@ function warningsFor(file: PlanFile): string[] {
     w.push('winds.layers are not in altitude order; they are used sorted by altitude');
   }
   if (file.sites.length === 0) w.push('sites is empty; there is nothing to plan');
+  (file.safety?.checklist ?? []).forEach((m, i) => {
+    // Kept as written (the file is not corrected); readiness counts the item as open.
+    if (m.state === 'done' && !m.who?.trim()) {
+      w.push(
+        `safety.checklist[${i}] is done but who is empty; it counts as open until someone is named`,
+      );
+    }
+  });
   file.variants.forEach((v, i) => {
     if (STEERED.has(v.guidance) && v.controlTime_s === 0) {
       w.push(`variants[${i}].controlTime_s is 0, so this steered variant flies as a passive one`);

@@ -45,6 +45,8 @@ export interface CheckResult {
   why: string;
   numbers: Record<string, number | string>;
   items?: Record<string, number | string>[];
+  /** Ids of the sites the finding is about, in plan order (the panel links each one). */
+  sites?: string[];
 }
 
 export interface SafetyReport {
@@ -60,6 +62,24 @@ export const overall = (items: { status?: number | string }[], n: number): Check
   items.reduce<CheckStatus>((a, i) => worst(a, i.status as CheckStatus), n ? 'pass' : 'n/a');
 export const r1 = (x: number): number => Math.round(x * 10) / 10;
 export const r3 = (x: number): number => Math.round(x * 1000) / 1000;
+
+/** A site as a reader finds it: its id, and its name in quotes when the name says more. */
+export function siteLabel(result: PlanResult, id: string): string {
+  const name = result.sites.find((s) => s.id === id)?.name?.trim() ?? '';
+  return name && name !== id ? `${id} “${name}”` : id;
+}
+
+/** Phrases as a short list: "a", "a and b", "a, b, c and d", "a, b, c and 14 more" (never "1 more"). */
+export function shortList(parts: readonly string[], shown = 3): string {
+  if (parts.length <= 1) return parts[0] ?? '';
+  if (parts.length <= shown + 1) {
+    return `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+  }
+  return `${parts.slice(0, shown).join(', ')} and ${parts.length - shown} more`;
+}
+
+/** "1 site" / "3 sites". */
+export const sitesWord = (n: number): string => `${n} site${n === 1 ? '' : 's'}`;
 
 /** Variants chosen for at least one site, in catalogue order. */
 export function usedVariants(plan: Plan, result: PlanResult): ResolvedVariant[] {

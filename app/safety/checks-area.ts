@@ -1,7 +1,7 @@
 // Checks of where and in what wind the drop happens: surface and release wind, ceiling, no-drop zones.
 import { LocalFrame } from '../model';
-import type { Plan } from '../plan';
-import type { PlanResult } from '../planner';
+import { type Plan, planWindProfile } from '../plan';
+import { type PlanResult, windCoverageWarnings } from '../planner';
 import {
   type CheckResult,
   type CheckStatus,
@@ -10,6 +10,9 @@ import {
   r1,
   r3,
   type SafetySettings,
+  shortList,
+  siteLabel,
+  sitesWord,
   usedVariants,
   windSpeeds,
 } from './check-result';
@@ -29,20 +32,25 @@ export function windCheck(plan: Plan, result: PlanResult): CheckResult {
     };
   });
   const status = overall(items, used.length);
+  // The variants behind the verdict, each with the sites it was chosen for.
+  const flagged = items.filter((i) => i.status === status && status !== 'pass');
+  const sitesOf = (variant: string) =>
+    result.sites.filter((s) => s.variant === variant).map((s) => s.id);
+  const named = flagged.map((i) => {
+    const at = sitesOf(i.variant);
+    const limit = typeof i.limit_mps === 'number' ? ` (limit ${i.limit_mps} m/s)` : '';
+    return `${i.variant}${limit}, used at ${shortList(at.map((id) => siteLabel(result, id)))}`;
+  });
   const why =
     status === 'fail'
-      ? `Wind up to ${r1(w.max_mps)} m/s between the surface and the release altitude exceeds the limit of ${items
-          .filter((i) => i.status === 'fail')
-          .map((i) => i.variant)
-          .join(', ')}.`
+      ? `Wind up to ${r1(w.max_mps)} m/s between the surface and the release altitude exceeds ` +
+        `the limit of ${named.join('; ')}.`
       : status === 'warn'
-        ? `No wind limit set for ${items
-            .filter((i) => i.status === 'warn')
-            .map((i) => i.variant)
-            .join(', ')}; the wind could not be checked for it.`
+        ? `No wind limit set for ${named.join('; ')}; the wind could not be checked for it.`
         : status === 'n/a'
           ? 'No variant is used.'
           : `Wind up to ${r1(w.max_mps)} m/s is within every used variant's limit.`;
+  const flaggedIds = new Set(flagged.map((i) => i.variant));
   return {
     id: 'wind-limit',
     title: 'Wind within variant limits',
@@ -55,6 +63,34 @@ export function windCheck(plan: Plan, result: PlanResult): CheckResult {
       strongest_mps: r3(w.max_mps),
     },
     items,
+    sites: result.sites.filter((s) => flaggedIds.has(s.variant)).map((s) => s.id),
+  };
+}
+
+/**
+ * Whether the wind layers reach down to the release and up to it: the planner's own coverage
+ * warnings (windCoverageWarnings), so the check and PlanResult.warnings always say the same.
+ */
+export function windCoverageCheck(plan: Plan, result: PlanResult): CheckResult {
+  const found = windCoverageWarnings(plan, result.releaseAltitudeMSL_m);
+  const z = planWindProfile(plan).z;
+  const sentence = (w: string): string => {
+    const t = w.replace(/^winds:\s*/, '');
+    return `${t.charAt(0).toUpperCase()}${t.slice(1)}.`;
+  };
+  return {
+    id: 'wind-coverage',
+    title: 'Wind profile covers the fall',
+    status: found.length ? 'warn' : 'pass',
+    why: found.length
+      ? found.map(sentence).join(' ')
+      : 'The wind layers reach from below the release to its altitude, so no part of the fall ' +
+        'uses wind extrapolated beyond them.',
+    numbers: {
+      releaseMSL_m: r1(result.releaseAltitudeMSL_m),
+      lowestLayerMSL_m: z.length ? r1(z[0]) : 'none',
+      topLayerMSL_m: z.length ? r1(z[z.length - 1]) : 'none',
+    },
   };
 }
 
@@ -126,14 +162,28 @@ export function noDropCheck(result: PlanResult, st: SafetySettings): CheckResult
     });
   });
   const ok = items.length === 0;
+  // Each site once, in plan order, with its closest zone.
+  const closest = new Map<string, Record<string, number | string>>();
+  for (const it of items) {
+    const had = closest.get(it.site as string);
+    if (!had || (it.clearance_m as number) < (had.clearance_m as number))
+      closest.set(it.site as string, it);
+  }
+  const sites = result.sites.map((s) => s.id).filter((id) => closest.has(id));
+  const named = sites.map((id) => {
+    const it = closest.get(id)!;
+    return `${siteLabel(result, id)} (${it.clearance_m} m from ${it.zone})`;
+  });
   return {
     id: 'no-drop-zones',
     title: 'Landing ellipses clear of no-drop zones',
     status: ok ? 'pass' : 'fail',
     why: ok
       ? `Every 99 % landing ellipse, over its whole release window, is at least ${st.noDropBuffer_m} m from every no-drop zone.`
-      : `${items.length} site–zone pair(s) closer than ${st.noDropBuffer_m} m (0 m = overlapping).`,
+      : `The 99 % landing ellipses of ${sitesWord(sites.length)} come closer than ` +
+        `${st.noDropBuffer_m} m to a no-drop zone (0 m = overlapping): ${shortList(named)}.`,
     numbers: { zones: zones.length, buffer_m: st.noDropBuffer_m, leastClearance_m: r1(least) },
     items,
+    sites,
   };
 }

@@ -1,7 +1,7 @@
 // Checks of the vehicles: impact energy against published categories, battery, P(hit).
 import { densityAt, RHO0 } from '../model';
 import { massFactor, type Plan, type ResolvedVariant, soundingDensity } from '../plan';
-import type { PlanResult } from '../planner';
+import { pHitText, type PlanResult } from '../planner';
 import {
   type CheckResult,
   type CheckStatus,
@@ -11,6 +11,9 @@ import {
   r1,
   r3,
   type SafetySettings,
+  shortList,
+  siteLabel,
+  sitesWord,
   usedVariants,
   windSpeeds,
 } from './check-result';
@@ -141,6 +144,9 @@ export function batteryCheck(plan: Plan, result: PlanResult, st: SafetySettings)
     const thrust = s.thrustTime_s ?? 0;
     return thrust > limit ? [{ site: s.id, thrust_s: r1(thrust), limit_s: r1(limit) }] : [];
   });
+  const named = items.map(
+    (i) => `${siteLabel(result, i.site)} (${i.thrust_s} s of thrust, ${i.limit_s} s allowed)`,
+  );
   return {
     id: 'battery',
     title: 'Thrust time within the battery margin',
@@ -149,25 +155,43 @@ export function batteryCheck(plan: Plan, result: PlanResult, st: SafetySettings)
       rows.length === 0
         ? 'No site uses a fixed-heading variant.'
         : items.length
-          ? `${items.length} site(s) need more than ${100 - st.thrustMargin_pct} % of the control time.`
+          ? `${sitesWord(items.length)} need${items.length === 1 ? 's' : ''} more than ` +
+            `${100 - st.thrustMargin_pct} % of the control time: ${shortList(named)}.`
           : `Every fixed-heading site keeps ${st.thrustMargin_pct} % of its control time in reserve.`,
     numbers: { margin_pct: st.thrustMargin_pct, sites: rows.length },
     items,
+    sites: items.map((i) => i.site),
   };
 }
 
 export function pHitCheck(plan: Plan, result: PlanResult): CheckResult {
-  const items = result.sites
-    .filter((s) => !s.meetsRequired)
-    .map((s) => ({ site: s.id, variant: s.variant, pHit: r3(s.pHit) }));
+  const below = result.sites.filter((s) => !s.meetsRequired);
+  const items = below.map((s) => ({
+    site: s.id,
+    variant: s.variant,
+    pHit: r3(s.pHit),
+    pHitSE: r3(s.pHitSE),
+    ...(s.recommendation.kind === 'unreachable' ? { note: 'no variant can reach this site' } : {}),
+  }));
+  const named = below.map(
+    (s) =>
+      `${siteLabel(result, s.id)} (` +
+      (s.recommendation.kind === 'unreachable'
+        ? 'no variant can reach it'
+        : `${pHitText(s.pHit, s.pHitSE)} with ${s.variant}`) +
+      ')',
+  );
   return {
     id: 'p-hit',
     title: 'Every site meets the required P(hit)',
     status: result.sites.length === 0 ? 'n/a' : items.length ? 'fail' : 'pass',
     why: items.length
-      ? `${items.length} site(s) below the required P(hit) of ${plan.requiredPHit}.`
+      ? `${sitesWord(items.length)} ${items.length === 1 ? 'is' : 'are'} below the required ` +
+        `P(hit) of ${plan.requiredPHit}: ` +
+        `${shortList(named)}.`
       : `All ${result.sites.length} site(s) reach P(hit) ≥ ${plan.requiredPHit}.`,
     numbers: { required: plan.requiredPHit, sites: result.sites.length },
     items,
+    sites: items.map((i) => i.site),
   };
 }

@@ -11,6 +11,8 @@ export {
 } from './plan-safety';
 export {
   DEFAULT_MANUAL_ITEMS,
+  doneWithoutName,
+  itemOpen,
   type ManualItem,
   overallReady,
   readiness,

@@ -5,7 +5,13 @@
  */
 import { type Plan, planFingerprint, type Signoff } from '../plan';
 import type { PlanResult } from '../planner';
-import { DEFAULT_MANUAL_ITEMS, readiness, type ManualItem, type Readiness } from './readiness';
+import {
+  DEFAULT_MANUAL_ITEMS,
+  doneWithoutName,
+  readiness,
+  type ManualItem,
+  type Readiness,
+} from './readiness';
 import {
   DEFAULT_SAFETY_SETTINGS,
   safetyChecks,
@@ -81,6 +87,8 @@ export function blockingText(s: PlanSafety, only?: 'check' | 'item'): string[] {
   return blocking.map((b) => {
     const [kind, id] = b.split(':');
     if (kind === 'check') return `failing check: ${s.checks.find((c) => c.id === id)?.title ?? id}`;
-    return `open crew item: ${s.checklist.find((m) => m.id === id)?.text ?? id}`;
+    const m = s.checklist.find((x) => x.id === id);
+    if (m && doneWithoutName(m)) return `crew item marked done with nobody named: ${m.text}`;
+    return `open crew item: ${m?.text ?? id}`;
   });
 }

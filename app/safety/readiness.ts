@@ -1,6 +1,6 @@
 /**
  * Readiness for release: no failing automatic check (or a recorded override) and every item of
- * the crew's manual checklist done or marked not applicable. Warnings never block.
+ * the crew's manual checklist done, with who did it, or marked not applicable. Warnings never block.
  */
 import type { ChecklistItem } from '../plan';
 import type { CheckResult } from './safety';
@@ -40,8 +40,22 @@ export const DEFAULT_MANUAL_ITEMS: readonly Readonly<ManualItem>[] = Object.free
 ]);
 
 /**
- * Ready when no automatic check fails and every manual item is done or n/a. Failing checks may
- * be set aside only by an override with a non-empty reason; open manual items never can.
+ * An item marked done with nobody named: it counts as open (a tick must say who checked), and the
+ * app shows the problem beside the item rather than filling in a name.
+ */
+export function doneWithoutName(m: Readonly<Partial<ManualItem>>): boolean {
+  return m.state === 'done' && !(typeof m.who === 'string' && m.who.trim());
+}
+
+/** The item still stands in the way: open, or done with nobody named. */
+export function itemOpen(m: Readonly<Partial<ManualItem>>): boolean {
+  return m.state === 'open' || doneWithoutName(m);
+}
+
+/**
+ * Ready when no automatic check fails and every manual item is done (with a name) or n/a.
+ * Failing checks may be set aside only by an override with a non-empty reason; open manual items
+ * never can.
  */
 export function readiness(
   checks: readonly CheckResult[],
@@ -49,14 +63,14 @@ export function readiness(
   override?: ReadinessOverride,
 ): Readiness {
   const failing = checks.filter((c) => c.status === 'fail').map((c) => `check:${c.id}`);
-  const open = manual.filter((m) => m.state === 'open').map((m) => `manual:${m.id}`);
+  const open = manual.filter(itemOpen).map((m) => `manual:${m.id}`);
   const valid = override !== undefined && override.reason.trim().length > 0;
   const overridden = valid && failing.length > 0;
   const blocking = [...(overridden ? [] : failing), ...open];
   return { ready: blocking.length === 0, blocking, overridden };
 }
 
-/** Ready only if no automatic check fails and every manual item is done or n/a (no override). */
+/** Ready only if no automatic check fails and every manual item is done (named) or n/a (no override). */
 export function overallReady(
   checks: readonly CheckResult[],
   manual: readonly ManualItem[],

@@ -11,7 +11,7 @@ import {
   type SafetyReport,
   type SafetySettings,
 } from './check-result';
-import { ceilingCheck, noDropCheck, windCheck } from './checks-area';
+import { ceilingCheck, noDropCheck, windCheck, windCoverageCheck } from './checks-area';
 import { daylightCheck, magneticCheck } from './checks-sky';
 import { batteryCheck, energyCheck, pHitCheck } from './checks-vehicle';
 import { hazardArea } from './hazard-area';
@@ -59,6 +59,7 @@ export function safetyChecks(
   return {
     checks: [
       windCheck(plan, result),
+      windCoverageCheck(plan, result),
       ceilingCheck(plan, result, settings),
       noDropCheck(result, settings),
       hazard,

@@ -19,7 +19,7 @@ function signedDemo(mutate: (d: PlanFile) => void = () => {}): PlanFile {
   d.monteCarlo = { samples: 100, seed: 1 };
   d.safety = {
     ...d.safety,
-    checklist: DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m, state: 'done' as const })),
+    checklist: DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m, state: 'done' as const, who: 'R. Ilves' })),
   };
   const { plan, safety } = evaluate(d);
   const failing = safety.checks.filter((c) => c.status === 'fail').map((c) => c.id);

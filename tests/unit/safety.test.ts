@@ -78,6 +78,7 @@ describe('safety checks', () => {
   it('lists the automatic checks under stable ids', () => {
     expect(run().report.checks.map((c) => c.id)).toEqual([
       'wind-limit',
+      'wind-coverage',
       'ceiling',
       'no-drop-zones',
       'hazard-area',
@@ -391,7 +392,20 @@ describe('safety checks', () => {
         ],
       }).check('p-hit');
       expect(c.status).toBe('fail');
-      expect(c.items).toEqual([{ site: 'far', variant: 'drifter', pHit: 0 }]);
+      expect(c.items).toEqual([
+        {
+          site: 'far',
+          variant: 'drifter',
+          pHit: 0,
+          pHitSE: 0,
+          note: 'no variant can reach this site',
+        },
+      ]);
+      expect(c.sites).toEqual(['far']);
+      // A passive drifter cannot leave the track's line: said as such, not as a chosen variant.
+      expect(c.why).toBe(
+        '1 site is below the required P(hit) of 0.9: far (no variant can reach it).',
+      );
     });
   });
 });
