@@ -58,6 +58,11 @@ export function timelineCommand(args: Args, io: CliIO, plan: Plan, warnings: str
       1,
     );
   }
+  if (steps === 1) {
+    problems.push(
+      `--step ${stepArg(step_s)} is longer than the forecast span (${stepText((end_ms - start_ms) / 1000)}): only its first time is evaluated`,
+    );
+  }
   const samples = timelineSamples(plan, args.samples);
   const entries = planTimeline(plan, { step_s, samples: args.samples });
   const zone = planZone(plan.time);

@@ -1,6 +1,10 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launch, shot, watchErrors } from './browser';
+import { timelineWindows, planZone } from '../../app/brief';
+import { validatePlan } from '../../app/plan';
+import { planTimeline, TIMELINE_STEP_S } from '../../app/planner';
+import demo from '../../data/demo-plan.json';
+import { launch, openApp, shot, watchErrors } from './browser';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -67,6 +71,67 @@ describe('wind inputs in Chromium', () => {
     // One undo brings the previous profile back.
     await page.getByRole('button', { name: 'Undo' }).click();
     await expect.poll(() => page.locator('sf-wind-panel tr[data-layer]').count()).toBe(6);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it('shows the demo timeline in the plan zone with UTC, labels inside the drawing, and the CLI windows', async () => {
+    const { context, page, errors } = await openApp(browser, inject('baseUrl'), {
+      width: 1280,
+      height: 900,
+    });
+    await page.locator('[data-tab=winds]').click();
+    await page.getByRole('button', { name: 'Timeline' }).click();
+    await page.locator('[data-testid=timeline-windows]').waitFor({ timeout: 90_000 });
+    const svg = page.locator('[data-testid=timeline] svg');
+    // The demo plan time is 2026-12-01T09:30:00+01:00: each local label is its UTC label + 1 h
+    // (RFC 3339 §5.6 offset), the first at 09:30.
+    const local = await svg.locator('text.t-local').allTextContents();
+    const utc = await svg.locator('text.t-utc:not(.zone)').allTextContents();
+    expect(local.length).toBeGreaterThanOrEqual(4);
+    expect(utc.length).toBe(local.length);
+    const min = (t: string): number => Number(t.slice(0, 2)) * 60 + Number(t.slice(3, 5));
+    expect(local[0]).toBe('09:30');
+    expect(local.at(-1)).toBe('13:00');
+    local.forEach((l, i) => expect(min(l)).toBe(min(utc[i]) + 60));
+    expect(await svg.locator('text.zone').allTextContents()).toEqual(['UTC+01:00', 'UTC']);
+    // Every label, the last one included, lies inside the drawing as the browser lays it out.
+    const outside = await svg.evaluate((el) => {
+      const box = el.getBoundingClientRect();
+      return [...el.querySelectorAll('text')]
+        .map((t) => ({ text: t.textContent, r: t.getBoundingClientRect() }))
+        .filter(({ r }) => r.left < box.left - 0.5 || r.right > box.right + 0.5)
+        .map(({ text, r }) => `${text}: ${r.left}…${r.right} outside ${box.left}…${box.right}`);
+    });
+    expect(outside).toEqual([]);
+    // Under it, each site's windows: the same clock times the CLI gives for the same plan.
+    const v = validatePlan(structuredClone(demo));
+    if (!v.ok) throw new Error('the demo plan must validate');
+    const expected = timelineWindows(
+      planTimeline(v.plan, { step_s: TIMELINE_STEP_S }),
+      v.plan.requiredPHit,
+      planZone(v.plan.time),
+    ).sites.flatMap((s) =>
+      s.windows.length === 0
+        ? [`${s.id}|no evaluated time meets P(hit) ≥ 0.9`]
+        : s.windows.map((w, i) => `${i === 0 ? s.id : ''}|${w.openText}|${w.closeText}`),
+    );
+    const shown = await page
+      .locator('[data-testid=timeline-windows] tbody tr')
+      .evaluateAll((rows) =>
+        rows.map((r) =>
+          [...r.querySelectorAll('td')]
+            .slice(0, 3)
+            .map((td) => td.textContent!.trim())
+            .join('|'),
+        ),
+      );
+    expect(shown).toEqual(expected);
+    expect(shown.some((r) => r.includes('no evaluated time'))).toBe(true);
+    await svg.scrollIntoViewIfNeeded();
+    await shot(page, 'winds-timeline-zone');
+    await page.locator('[data-testid=timeline-windows]').scrollIntoViewIfNeeded();
+    await shot(page, 'winds-timeline-windows');
     expect(errors).toEqual([]);
     await context.close();
   });
