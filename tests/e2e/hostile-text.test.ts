@@ -200,7 +200,9 @@ describe('text from files and fields reaches the page as text', () => {
       .poll(() => page.locator('sf-map .leaflet-control-attribution').innerText())
       .toContain(P.attribution);
 
-    // Every variant's layers, so every variant id is in some tooltip.
+    // Every variant's layers of every kind, so every variant id is in some tooltip.
+    for (const kind of ['reach', 'ellipse50', 'landing'])
+      await page.locator(`sf-map input[data-kind=${kind}]`).check();
     await page.locator('sf-map input[data-kind=chosen-only]').uncheck();
     await expect
       .poll(() => page.locator('[data-testid=planned]').innerText(), { timeout: 60_000 })

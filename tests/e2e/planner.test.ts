@@ -55,9 +55,12 @@ describe('the map planner in Chromium', () => {
     expect(await count('.sf-site')).toBe(12);
     expect(await count('.sf-release')).toBe(1);
     expect(await count('path.sf-track')).toBe(1);
-    // Chosen variant per site: one landing, one 50 % and one 95 % ellipse each; a reach area for
-    // every steered choice (the table's variants other than the passive plain-drifter); a window
-    // on the track for each site whose row gives one.
+    // By default the chosen variant's 95 % ellipse and window (map.test.ts checks the defaults);
+    // switched on: per site one landing and one 50 % ellipse, a reach area for every steered
+    // choice (the table's variants other than the passive plain-drifter), and a window beside
+    // the track for each site whose row gives one.
+    for (const kind of ['reach', 'ellipse50', 'landing'])
+      await page.locator(`sf-map input[data-kind=${kind}]`).check();
     expect(await count('path.sf-ellipse95')).toBe(12);
     expect(await count('path.sf-ellipse50')).toBe(12);
     expect(await count('path.sf-landing')).toBe(12);
@@ -141,6 +144,7 @@ describe('the map planner in Chromium', () => {
 
   it('changing a wind layer moves the reach areas', async () => {
     await open();
+    await page.locator('sf-map input[data-kind=reach]').check();
     const d0 = await page.locator('sf-map path.sf-reach').first().getAttribute('d');
     await page.locator('[data-tab=winds]').click();
     const speed = page.locator('sf-wind-panel input[data-path="winds.layers[2].speed_mps"]');
