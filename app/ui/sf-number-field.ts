@@ -1,17 +1,21 @@
 import { css, html, type TemplateResult } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import {
-  fromDisplayLength,
-  fromDisplaySpeed,
+  DEFAULT_UNITS,
+  fieldText,
+  fromDisplay,
   parseNumber,
-  toDisplayLength,
-  toDisplaySpeed,
+  quantityUnit,
+  type Quantity,
 } from './units';
 import type { PlanStore } from './plan-store';
 import { SfFieldBase, fieldStyles } from './sf-field-base';
 
-/** What a field holds: converted to the user's units for length and speed, as is otherwise. */
-export type FieldKind = 'length' | 'speed' | 'plain';
+/**
+ * What a field holds: a quantity (shown in the user's unit for lengths and speeds, rounded by the
+ * quantity's rule), 'length' (a horizontal distance), or 'plain' (shown as stored, no unit rule).
+ */
+export type FieldKind = Quantity | 'length' | 'plain';
 
 /**
  * A labelled number input bound to one plan path. Text that does not read as a number, or a
@@ -20,15 +24,19 @@ export type FieldKind = 'length' | 'speed' | 'plain';
 @customElement('sf-number-field')
 export class SfNumberField extends SfFieldBase {
   static styles = [
-    fieldStyles('7.5em'),
+    fieldStyles('9.5em'),
     css`
       .unit {
         color: var(--sf-muted);
         font-size: 12px;
         margin-left: 3px;
+        white-space: nowrap;
+        /* One slot for every unit ("m" … "° true"), so the inputs of a panel line up. */
+        flex: 0 0 3.3em;
       }
       input {
         width: 100%;
+        box-sizing: border-box;
         text-align: right;
       }
       .box {
@@ -55,25 +63,24 @@ export class SfNumberField extends SfFieldBase {
     super('sf-num');
   }
 
-  private unitLabel(): string {
-    const u = this.store?.settings.units;
-    if (this.kind === 'length') return u?.length ?? 'm';
-    if (this.kind === 'speed') return u?.speed ?? 'm/s';
-    return this.unit;
+  private quantity(): Quantity | undefined {
+    if (this.kind === 'plain') return undefined;
+    return this.kind === 'length' ? 'distance' : this.kind;
   }
 
-  private toDisplay(v: number): number {
-    const u = this.store?.settings.units;
-    if (this.kind === 'length' && u) return toDisplayLength(v, u.length);
-    if (this.kind === 'speed' && u) return toDisplaySpeed(v, u.speed);
-    return v;
+  /** The unit shown: the preferred one for lengths and speeds, else `unit` or the quantity's. */
+  private unitLabel(): string {
+    const q = this.quantity();
+    const u = this.store?.settings.units ?? DEFAULT_UNITS;
+    if (!q) return this.unit;
+    const converted = q === 'distance' || q === 'height' || q === 'speed';
+    return converted ? quantityUnit(q, u) : this.unit || quantityUnit(q, u);
   }
 
   private fromDisplay(v: number): number {
+    const q = this.quantity();
     const u = this.store?.settings.units;
-    if (this.kind === 'length' && u) return fromDisplayLength(v, u.length);
-    if (this.kind === 'speed' && u) return fromDisplaySpeed(v, u.speed);
-    return v;
+    return q && u ? fromDisplay(v, q, u) : v;
   }
 
   // The input's value is bound without lit's live(): lit then writes it only when the value to
@@ -85,8 +92,9 @@ export class SfNumberField extends SfFieldBase {
     if (typed) return typed.text;
     const v = s.get(this.path);
     if (typeof v !== 'number') return v === undefined || v === null ? '' : String(v);
-    // Converted values are shown to 6 significant digits so unit round trips stay readable.
-    return String(Number(this.toDisplay(v).toPrecision(6)));
+    const q = this.quantity();
+    // Rounded by the quantity's rule in the shown unit; the plan keeps the exact value.
+    return q ? fieldText(v, q, s.settings.units) : String(v);
   }
 
   private onChange(e: Event): void {
@@ -108,7 +116,7 @@ export class SfNumberField extends SfFieldBase {
     if (this.compact) {
       return html`<input
           class="compact"
-          aria-label=${`${this.label} (${this.unitLabel()})`}
+          aria-label=${this.unitLabel() ? `${this.label} (${this.unitLabel()})` : this.label}
           inputmode="decimal"
           .value=${this.text()}
           aria-invalid=${msg ? 'true' : 'false'}

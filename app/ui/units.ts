@@ -72,20 +72,161 @@ export function fromDisplaySpeed(value: number, unit: SpeedUnit): number {
   return unit === 'km/h' ? value / 3.6 : value * MPS_PER[unit];
 }
 
-function formatValue(value: number, digits: number, label: string): string {
-  if (!Number.isFinite(value)) return `— ${label}`;
-  const text = value.toFixed(digits);
-  // "-0" and "-0.0" read as a sign error; a value that rounds to zero has no sign.
-  return `${/^-0(\.0*)?$/.test(text) ? text.slice(1) : text} ${label}`;
+/**
+ * What a number measures. Each quantity has one display rounding per unit (DECIMALS), used by
+ * read-only text and by number fields alike.
+ */
+export type Quantity =
+  | 'distance' // horizontal lengths: CEP, tolerance, radii, buffers, position error
+  | 'height' // altitudes, elevations, heights above ground
+  | 'speed' // wind, ground, descent and vertical air speeds
+  | 'time'
+  | 'angle' // glide angles, heading errors
+  | 'bearing' // tracks and wind directions, ° true
+  | 'coordinate' // latitude, longitude in degrees
+  | 'mass'
+  | 'energy'
+  | 'percent'
+  | 'probability' // 0 … 1
+  | 'temperature' // a temperature difference
+  | 'ratio' // dimensionless: exponents
+  | 'count' // samples, seeds
+  | 'cost'; // any unit the team likes
+
+/** The units each quantity can be shown in (the first is the one the plan stores). */
+const QUANTITY_UNITS = {
+  distance: ['m', 'ft'],
+  height: ['m', 'ft'],
+  speed: ['m/s', 'kt', 'km/h'],
+  time: ['s'],
+  angle: ['°'],
+  bearing: ['°'],
+  coordinate: ['°'],
+  mass: ['kg'],
+  energy: ['J'],
+  percent: ['%'],
+  probability: [''],
+  temperature: ['K'],
+  ratio: [''],
+  count: [''],
+  cost: [''],
+} as const satisfies Record<Quantity, readonly string[]>;
+
+/** A unit a quantity can be shown in. */
+export type QuantityUnit<Q extends Quantity> = (typeof QUANTITY_UNITS)[Q][number];
+
+/**
+ * Decimals shown for each quantity in each unit: the one rounding rule of the display. Chosen
+ * so the last digit is about the resolution a crew reads or sets the quantity to (a few
+ * centimetres of CEP, a metre or foot of altitude, a tenth of a knot) and never finer than
+ * what the model can tell apart. // common practice
+ */
+export const DECIMALS: { readonly [Q in Quantity]: Readonly<Record<QuantityUnit<Q>, number>> } = {
+  distance: { m: 1, ft: 1 },
+  height: { m: 0, ft: 0 },
+  speed: { 'm/s': 1, kt: 1, 'km/h': 1 },
+  time: { s: 1 },
+  angle: { '°': 1 },
+  bearing: { '°': 0 },
+  coordinate: { '°': 6 },
+  mass: { kg: 3 },
+  energy: { J: 2 },
+  percent: { '%': 1 },
+  probability: { '': 2 },
+  temperature: { K: 1 },
+  ratio: { '': 3 },
+  count: { '': 0 },
+  cost: { '': 2 },
+};
+
+/** The unit a quantity is shown in under the person's preferences. */
+export function quantityUnit(q: Quantity, prefs: Readonly<UnitPrefs>): string {
+  if (q === 'distance' || q === 'height') return prefs.length;
+  if (q === 'speed') return prefs.speed;
+  return QUANTITY_UNITS[q][0];
 }
 
-/** "110 m" / "361 ft": metres shown in unit with digits decimals (default 0); NaN → "— m". */
-export function formatLength(m: number, unit: LengthUnit, digits = 0): string {
+/** Decimals of quantity q in unit (a unit q does not have: those of its stored unit). */
+export function decimalsOf(q: Quantity, unit: string): number {
+  const table = DECIMALS[q] as Record<string, number>;
+  return table[unit] ?? table[QUANTITY_UNITS[q][0]];
+}
+
+/** A stored (SI) value of quantity q → the number shown in the preferred unit. */
+export function toDisplay(si: number, q: Quantity, prefs: Readonly<UnitPrefs>): number {
+  if (q === 'distance' || q === 'height') return toDisplayLength(si, prefs.length);
+  if (q === 'speed') return toDisplaySpeed(si, prefs.speed);
+  return si;
+}
+
+/** A number typed in the preferred unit of quantity q → the stored (SI) value. */
+export function fromDisplay(value: number, q: Quantity, prefs: Readonly<UnitPrefs>): number {
+  if (q === 'distance' || q === 'height') return fromDisplayLength(value, prefs.length);
+  if (q === 'speed') return fromDisplaySpeed(value, prefs.speed);
+  return value;
+}
+
+/** value.toFixed(digits) without a sign on a value that rounds to zero ("-0.0" reads as an error). */
+function fixed(value: number, digits: number): string {
+  const text = value.toFixed(digits);
+  return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
+}
+
+function formatValue(value: number, digits: number, label: string): string {
+  // SI Brochure (9th ed.) 5.4.3: a space before the unit symbol, none before the degree sign.
+  const tail = !label ? '' : label === '°' ? label : ` ${label}`;
+  if (!Number.isFinite(value)) return `—${tail}`;
+  return `${fixed(value, digits)}${tail}`;
+}
+
+/**
+ * A stored (SI) value of quantity q as text in the preferred unit, rounded by DECIMALS, with the
+ * unit: "32.8 ft", "1.4 kt", "0.90". NaN → "— ft".
+ */
+export function formatQuantity(si: number, q: Quantity, prefs: Readonly<UnitPrefs>): string {
+  const unit = quantityUnit(q, prefs);
+  return formatValue(toDisplay(si, q, prefs), decimalsOf(q, unit), unit);
+}
+
+/** Digits after the decimal point in the shortest text of a finite number (1e-7 → 7). */
+function fractionDigits(v: number): number {
+  const m = /^-?\d*(?:\.(\d+))?(?:e([+-]\d+))?$/.exec(String(v));
+  if (!m) return Infinity;
+  return Math.max(0, (m[1]?.length ?? 0) - Number(m[2] ?? 0));
+}
+
+/**
+ * The text a number field shows for a stored (SI) value of quantity q. A value that is short in
+ * the shown unit (at most two decimals past the rule: what someone typed, or a file gave) is shown
+ * as it is, so nothing typed seems to change; anything longer (a unit conversion: 10 m is
+ * 32.808 398 95… ft) is rounded by DECIMALS, trailing zeros dropped. Only the text is rounded:
+ * the plan keeps the exact value until the field is edited.
+ */
+export function fieldText(si: number, q: Quantity, prefs: Readonly<UnitPrefs>): string {
+  const v = toDisplay(si, q, prefs);
+  if (!Number.isFinite(v)) return String(si);
+  const d = decimalsOf(q, quantityUnit(q, prefs));
+  // 12 significant digits drop a conversion's last-bit noise (33 ft → 10.0584 m → 33.000000000000004).
+  const clean = Number(v.toPrecision(12));
+  if (fractionDigits(clean) <= d + 2) return String(Object.is(clean, -0) ? 0 : clean);
+  return String(Number(fixed(v, d)));
+}
+
+/** "110 m" / "361 ft": metres shown in unit with digits decimals (default: the height rule). */
+export function formatLength(
+  m: number,
+  unit: LengthUnit,
+  digits: number = DECIMALS.height[unit],
+): string {
   return formatValue(toDisplayLength(m, unit), digits, LABELS.length[unit]);
 }
 
-/** "12.5 m/s" / "24.3 kt": m/s shown in unit with digits decimals (default 1); NaN → "— kt". */
-export function formatSpeed(mps: number, unit: SpeedUnit, digits = 1): string {
+/** "12.5 m/s" / "24.3 kt": m/s shown in unit with digits decimals (default: the speed rule). */
+export function formatSpeed(
+  mps: number,
+  unit: SpeedUnit,
+  digits: number = DECIMALS.speed[unit],
+): string {
   return formatValue(toDisplaySpeed(mps, unit), digits, LABELS.speed[unit]);
 }
 
