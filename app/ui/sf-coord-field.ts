@@ -10,13 +10,11 @@ import { SfFieldBase, fieldStyles } from './sf-field-base';
 @customElement('sf-coord-field')
 export class SfCoordField extends SfFieldBase {
   static styles = [
-    fieldStyles('14em'),
+    fieldStyles('min(16em, 60%)'),
     css`
       input {
         width: 100%;
-      }
-      input.compact {
-        width: 15em;
+        box-sizing: border-box;
       }
     `,
   ];

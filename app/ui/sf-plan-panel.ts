@@ -3,7 +3,7 @@ import { customElement } from 'lit/decorators.js';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import './sf-coord-field';
-import { numberField } from './sf-number-field';
+import { numberField, type FieldKind } from './sf-number-field';
 import './sf-text-field';
 
 const REF: [string, string][] = [
@@ -38,9 +38,6 @@ export class SfPlanPanel extends StoreElement {
         color: var(--sf-muted);
         margin: 2px 0 4px;
       }
-      .sigma {
-        text-transform: none;
-      }
       .coord {
         font-size: 12px;
         color: var(--sf-muted);
@@ -52,16 +49,11 @@ export class SfPlanPanel extends StoreElement {
   render() {
     const s = this.store;
     if (!s) return html``;
-    const n = (
-      path: string,
-      label: string,
-      kind: 'length' | 'speed' | 'plain' = 'plain',
-      unit = '',
-      optional = true,
-    ) => numberField(s, path, label, { kind, unit, optional });
+    const n = (path: string, label: string, kind: FieldKind, optional = true, unit = '') =>
+      numberField(s, path, label, { kind, unit, optional });
     // Optional overrides: empty removes the key, so the modelled value applies.
-    const m = (path: string, label: string, kind: 'speed' | 'plain', unit = '') =>
-      numberField(s, path, label, { kind, unit, optional: true, placeholder: 'modelled' });
+    const m = (path: string, label: string, kind: FieldKind) =>
+      numberField(s, path, label, { kind, optional: true, placeholder: 'modelled' });
     return html`
       <h3>Plan</h3>
       <section>
@@ -72,40 +64,40 @@ export class SfPlanPanel extends StoreElement {
           label="Release time (ISO 8601, with zone)"
           placeholder="2026-12-01T09:30:00Z"
         ></sf-text-field>
-        ${n('requiredPHit', 'Required P(hit), 0–1', 'plain', '')}
+        ${n('requiredPHit', 'Required P(hit), 0 to 1', 'probability')}
       </section>
       <h3>Release point</h3>
       <section>
-        ${n('release.lat', 'Latitude', 'plain', '°', false)}
-        ${n('release.lon', 'Longitude', 'plain', '°', false)}
+        ${n('release.lat', 'Latitude', 'coordinate', false)}
+        ${n('release.lon', 'Longitude', 'coordinate', false)}
         <sf-coord-field .store=${s} path="release" label="Position (any format)"></sf-coord-field>
-        ${n('release.altitude_m', 'Release altitude', 'length', '', false)}
+        ${n('release.altitude_m', 'Release altitude', 'height', false)}
         <sf-text-field
           .store=${s}
           path="release.reference"
-          label="Altitude measured"
+          label="Altitude reference"
           .options=${REF}
         ></sf-text-field>
-        ${n('groundElevation_m', 'Plan ground elevation (MSL)', 'length')}
+        ${n('groundElevation_m', 'Ground elevation of the area (MSL)', 'height')}
       </section>
       <h3>Carrier</h3>
       <section>
         ${n('carrier.groundSpeed_mps', 'Ground speed (0 = hover)', 'speed')}
-        ${n('carrier.trackDeg', 'Track', 'plain', '° true')}
+        ${n('carrier.trackDeg', 'Track over the ground', 'bearing', true, '° true')}
       </section>
       <h3>Atmosphere</h3>
       <section>
-        ${n('atmosphere.isaOffset_K', 'Temperature offset from ISA', 'plain', 'K')}
-        ${n('winds.surfaceExponent', 'Near-ground wind exponent α', 'plain', '')}
+        ${n('atmosphere.isaOffset_K', 'Temperature offset from ISA', 'temperature')}
+        ${n('winds.surfaceExponent', 'Wind exponent α below the lowest layer', 'ratio')}
       </section>
-      <h3>Uncertainty (1<span class="sigma">σ</span>)</h3>
+      <h3>Uncertainty (1σ)</h3>
       <section>
-        ${n('uncertainty.windSpeed_mps', 'Wind, per component', 'speed')}
-        ${n('uncertainty.windCorrelation_m', 'Wind error correlation height', 'length')}
-        ${n('uncertainty.descentRate_pct', 'Descent rate', 'plain', '%')}
-        ${n('uncertainty.releasePosition_m', 'Release position, per axis', 'length')}
-        ${n('uncertainty.heading_deg', 'Heading (steered)', 'plain', '°')}
-        ${n('uncertainty.releaseTiming_s', 'Release timing', 'plain', 's')}
+        ${n('uncertainty.windSpeed_mps', 'Wind forecast error, per component', 'speed')}
+        ${n('uncertainty.windCorrelation_m', 'Height over which wind errors decorrelate', 'height')}
+        ${n('uncertainty.descentRate_pct', 'Descent rate error', 'percent')}
+        ${n('uncertainty.releasePosition_m', 'Release position error, per axis', 'distance')}
+        ${n('uncertainty.heading_deg', 'Heading error (steered variants)', 'angle')}
+        ${n('uncertainty.releaseTiming_s', 'Release timing error', 'time')}
         <sf-text-field
           .store=${s}
           path="uncertainty.turbulence"
@@ -114,7 +106,7 @@ export class SfPlanPanel extends StoreElement {
           .options=${TURBULENCE}
         ></sf-text-field>
         ${m('uncertainty.gust_mps', 'Gust, per component', 'speed')}
-        ${m('uncertainty.gustTime_s', 'Gust correlation time', 'plain', 's')}
+        ${m('uncertainty.gustTime_s', 'Gust correlation time', 'time')}
         ${m('uncertainty.verticalAir_mps', 'Vertical air', 'speed')}
         <p class="hint">
           Turbulence: auto takes its strength from the plan’s wind at 20 ft above the ground; light,
@@ -125,8 +117,8 @@ export class SfPlanPanel extends StoreElement {
       </section>
       <h3>Monte Carlo</h3>
       <section>
-        ${n('monteCarlo.samples', 'Samples', 'plain', '')}
-        ${n('monteCarlo.seed', 'Seed', 'plain', '')}
+        ${n('monteCarlo.samples', 'Samples', 'count')}
+        ${n('monteCarlo.seed', 'Random seed', 'count')}
       </section>
     `;
   }

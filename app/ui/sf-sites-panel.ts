@@ -6,9 +6,10 @@ import { importSitesFile, tooLarge } from './import-file';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import './sf-coord-field';
-import { numberField } from './sf-number-field';
+import { numberField, type FieldKind } from './sf-number-field';
 import { takePickedFile } from './picked-file';
 import { errorText } from './safe-storage';
+import { unitLabel } from './units';
 
 /** Next free site id of the form s01, s02, … */
 export function nextSiteId(sites: { id?: unknown }[]): string {
@@ -28,26 +29,84 @@ export class SfSitesPanel extends StoreElement {
       :host {
         display: block;
       }
-      input.id {
-        width: 4.5em;
+      /* One site is one row on two lines, so every field fits a side panel of ~560 px:
+         id · name · variant · delete, then position · lat · lon · ground · tolerance. The head
+         row uses the same grid, so each heading sits over its column. Units are in the heads. */
+      table,
+      thead,
+      tbody {
+        display: block;
       }
-      input.name {
-        width: 8em;
+      tr {
+        display: grid;
+        grid-template-columns:
+          4.2em minmax(6em, 1fr) minmax(5.6em, 6.6em) minmax(5.6em, 6.6em)
+          4.4em 4.4em 2.3em;
+        grid-template-areas:
+          'id name name variant variant variant del'
+          'pos pos lat lon ground tol .';
+        column-gap: 4px;
+        row-gap: 2px;
+        padding: 4px 0;
+        border-bottom: 1px solid var(--sf-line);
+        align-items: start;
       }
-      table {
-        min-width: 980px;
+      thead tr {
+        align-items: end;
+        padding-top: 0;
+      }
+      th,
+      td {
+        border: none;
+        padding: 0;
+        min-width: 0;
+      }
+      th {
+        line-height: 1.2;
+      }
+      .c-id {
+        grid-area: id;
+      }
+      .c-name {
+        grid-area: name;
+      }
+      .c-variant {
+        grid-area: variant;
+      }
+      .c-del {
+        grid-area: del;
+        text-align: right;
+      }
+      .c-pos {
+        grid-area: pos;
+      }
+      .c-lat {
+        grid-area: lat;
+      }
+      .c-lon {
+        grid-area: lon;
+      }
+      .c-ground {
+        grid-area: ground;
+      }
+      .c-tol {
+        grid-area: tol;
+      }
+      td input,
+      td select,
+      td sf-coord-field,
+      td sf-number-field {
+        width: 100%;
+        box-sizing: border-box;
+      }
+      td.c-del button {
+        padding: 3px 7px;
       }
       .row-actions {
         margin-top: 6px;
         display: flex;
         gap: 6px;
         align-items: center;
-      }
-      td {
-        white-space: nowrap;
-      }
-      .scroll {
-        overflow-x: auto;
       }
       .problems li {
         color: var(--sf-bad);
@@ -172,77 +231,78 @@ export class SfSitesPanel extends StoreElement {
       i: number,
       key: string,
       what: string,
-      kind: 'plain' | 'length',
-      unit: string,
+      kind: FieldKind,
+      cls: string,
       optional = false,
     ) =>
-      html`<td>
-        ${numberField(s, `sites[${i}].${key}`, `Site ${i + 1} ${what}`, { kind, unit, optional, compact: true })}
+      html`<td class=${cls}>
+        ${numberField(s, `sites[${i}].${key}`, `Site ${i + 1} ${what}`, { kind, optional, compact: true })}
       </td>`;
     return html`
       <h3>Sensor sites (${sites.length})</h3>
-      <div class="scroll">
-        <table>
-          <thead>
-            <tr>
-              <th>Id</th>
-              <th>Name</th>
-              <th>Position (${u.coords === 'decimal' ? 'lat, lon' : u.coords.toUpperCase()})</th>
-              <th>Lat °</th>
-              <th>Lon °</th>
-              <th>Ground (${u.length} MSL)</th>
-              <th>Tolerance (${u.length})</th>
-              <th>Variant</th>
-              <th></th>
-            </tr>
-          </thead>
-          <tbody>
-            ${sites.map((site, i) => {
-              const pinPath = `sites[${i}].variant`;
-              const pinMsg = s.messageAt(pinPath);
-              return html`<tr data-site-row=${String(site.id)}>
-                <td>${text(i, 'id', 'id')}</td>
-                <td>${text(i, 'name', 'name')}</td>
-                <td>
-                  <sf-coord-field
-                    compact
-                    .store=${s}
-                    path=${`sites[${i}]`}
-                    label=${`Site ${i + 1} position`}
-                  ></sf-coord-field>
-                </td>
-                ${cell(i, 'lat', 'latitude', 'plain', '°')}
-                ${cell(i, 'lon', 'longitude', 'plain', '°')}
-                ${cell(i, 'elevation_m', 'ground elevation', 'length', '', true)}
-                ${cell(i, 'tolerance_m', 'tolerance', 'length', '', true)}
-                <td>
-                  <select
-                    aria-label=${`Site ${i + 1} variant`}
-                    data-path=${pinPath}
-                    @change=${(e: Event) => {
-                      const v = (e.target as HTMLSelectElement).value;
-                      s.edit(pinPath, v === '' ? undefined : v);
-                    }}
-                  >
-                    <option value="" ?selected=${site.variant === undefined}>recommended</option>
-                    ${variants.map((v) => html`<option value=${String(v.id)} ?selected=${site.variant === v.id}>${String(v.id)}</option>`)}
-                  </select>
-                  ${pinMsg ? html`<div class="field-error" role="alert">${pinMsg}</div>` : ''}
-                </td>
-                <td>
-                  <button
-                    aria-label=${`Delete site ${site.id}`}
-                    title="Delete this site"
-                    @click=${() => this.removeAt(i)}
-                  >
-                    ✕
-                  </button>
-                </td>
-              </tr>`;
-            })}
-          </tbody>
-        </table>
-      </div>
+      <table>
+        <thead>
+          <tr>
+            <th class="c-id">Id</th>
+            <th class="c-name">Name</th>
+            <th class="c-pos">
+              Position (${u.coords === 'decimal' ? 'lat, lon' : unitLabel('coords', u.coords)})
+            </th>
+            <th class="c-lat">Lat °</th>
+            <th class="c-lon">Lon °</th>
+            <th class="c-ground">Ground ${u.length} MSL</th>
+            <th class="c-tol">Tolerance ${u.length}</th>
+            <th class="c-variant">Variant</th>
+            <th class="c-del"></th>
+          </tr>
+        </thead>
+        <tbody>
+          ${sites.map((site, i) => {
+            const pinPath = `sites[${i}].variant`;
+            const pinMsg = s.messageAt(pinPath);
+            return html`<tr data-site-row=${String(site.id)}>
+              <td class="c-id">${text(i, 'id', 'id')}</td>
+              <td class="c-name">${text(i, 'name', 'name')}</td>
+              <td class="c-variant">
+                <select
+                  aria-label=${`Site ${i + 1} variant`}
+                  title="The variant this site flies: the recommended one, or one pinned here"
+                  data-path=${pinPath}
+                  @change=${(e: Event) => {
+                    const v = (e.target as HTMLSelectElement).value;
+                    s.edit(pinPath, v === '' ? undefined : v);
+                  }}
+                >
+                  <option value="" ?selected=${site.variant === undefined}>recommended</option>
+                  ${variants.map((v) => html`<option value=${String(v.id)} ?selected=${site.variant === v.id}>${String(v.id)}</option>`)}
+                </select>
+                ${pinMsg ? html`<div class="field-error" role="alert">${pinMsg}</div>` : ''}
+              </td>
+              <td class="c-del">
+                <button
+                  aria-label=${`Delete site ${site.id}`}
+                  title="Delete this site"
+                  @click=${() => this.removeAt(i)}
+                >
+                  ✕
+                </button>
+              </td>
+              <td class="c-pos">
+                <sf-coord-field
+                  compact
+                  .store=${s}
+                  path=${`sites[${i}]`}
+                  label=${`Site ${i + 1} position`}
+                ></sf-coord-field>
+              </td>
+              ${cell(i, 'lat', 'latitude', 'coordinate', 'c-lat')}
+              ${cell(i, 'lon', 'longitude', 'coordinate', 'c-lon')}
+              ${cell(i, 'elevation_m', 'ground elevation', 'height', 'c-ground', true)}
+              ${cell(i, 'tolerance_m', 'tolerance', 'distance', 'c-tol', true)}
+            </tr>`;
+          })}
+        </tbody>
+      </table>
       <div class="row-actions">
         <button @click=${this.add}>Add site</button>
         <span class="muted">or switch on “Add sites by clicking” above the map.</span>

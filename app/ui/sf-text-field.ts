@@ -6,11 +6,12 @@ import { SfFieldBase, fieldStyles } from './sf-field-base';
 @customElement('sf-text-field')
 export class SfTextField extends SfFieldBase {
   static styles = [
-    fieldStyles('11em'),
+    fieldStyles('min(18em, 60%)'),
     css`
       input,
       select {
         width: 100%;
+        box-sizing: border-box;
       }
     `,
   ];

@@ -3,7 +3,7 @@ import { customElement } from 'lit/decorators.js';
 import type { Variant } from '../plan';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { StoreElement } from './store-element';
-import { numberField } from './sf-number-field';
+import { numberField, type FieldKind } from './sf-number-field';
 import './sf-text-field';
 
 const GUIDANCE: [string, string][] = [
@@ -79,18 +79,13 @@ export class SfVariantsPanel extends StoreElement {
     if (!s) return html``;
     // Read through rows(): an entry that is not an object shows as an empty card.
     const list = s.rows<Variant>('variants');
-    const n = (
-      i: number,
-      key: string,
-      label: string,
-      kind: 'length' | 'speed' | 'plain',
-      unit = '',
-      optional = true,
-    ) => numberField(s, `variants[${i}].${key}`, label, { kind, unit, optional });
+    const n = (i: number, key: string, label: string, kind: FieldKind, optional = true) =>
+      numberField(s, `variants[${i}].${key}`, label, { kind, optional });
     return html`
       <h3>Vehicle variants</h3>
       <p class="muted">
-        Sites get the first variant, in this order, that meets the required P(hit).
+        Each site gets the cheapest variant that meets the required P(hit); at equal cost, the first
+        in this order.
       </p>
       ${list.map((v, i) => {
         const idPath = `variants[${i}].id`;
@@ -147,18 +142,19 @@ export class SfVariantsPanel extends StoreElement {
             label="Guidance"
             .options=${GUIDANCE}
           ></sf-text-field>
-          ${n(i, 'descentRate_mps', 'Descent rate at sea level', 'speed', '', false)}
+          ${n(i, 'descentRate_mps', 'Descent rate in standard sea-level air (1.225 kg/m³)', 'speed', false)}
           ${
             steered
-              ? html`${n(i, 'glideAngle_deg', 'Glide angle below horizontal', 'plain', '°')}
-                ${n(i, 'controlTime_s', 'Steering (thrust) time', 'plain', 's')}
-                ${n(i, 'entryLoss_m', 'Altitude lost before steering', 'length')}`
+              ? html`${n(i, 'glideAngle_deg', 'Glide angle below the horizon', 'angle')}
+                ${n(i, 'controlTime_s', 'Steering time (thrust)', 'time')}
+                ${n(i, 'entryLoss_m', 'Height lost before steering starts', 'height')}`
               : ''
           }
-          ${n(i, 'referenceMass_kg', 'Mass the rate was measured with', 'plain', 'kg')}
-          ${n(i, 'payloadMass_kg', 'Mass flown', 'plain', 'kg')}
-          ${n(i, 'throwTime_s', 'Forward-throw time (blank = w/g)', 'plain', 's')}
-          ${n(i, 'maxWind_mps', 'Largest wind cleared for', 'speed')}
+          ${n(i, 'referenceMass_kg', 'Mass when the descent rate was measured', 'mass')}
+          ${n(i, 'payloadMass_kg', 'Mass as flown in this plan', 'mass')}
+          ${n(i, 'throwTime_s', 'Forward-throw time (empty: from the descent rate)', 'time')}
+          ${n(i, 'maxWind_mps', 'Wind limit (largest wind it may fly in)', 'speed')}
+          ${n(i, 'cost', 'Cost of one (any unit, the same for all)', 'cost')}
         </div>`;
       })}
       <button @click=${this.add}>Add variant</button>

@@ -60,7 +60,7 @@ export class SfWindPanel extends StoreElement {
       <sf-text-field
         .store=${s}
         path="winds.reference"
-        label="Layer altitudes measured"
+        label="Layer altitude reference"
         .options=${[
           ['AGL', 'above plan ground (AGL)'],
           ['MSL', 'above sea level (MSL)'],
@@ -81,13 +81,14 @@ export class SfWindPanel extends StoreElement {
               html`<tr data-layer=${i}>
                 <td>
                   ${numberField(s, `winds.layers[${i}].altitude_m`, `Layer ${i + 1} altitude`, {
-                    kind: 'length',
+                    kind: 'height',
                     compact: true,
                   })}
                 </td>
                 <td>
                   ${numberField(s, `winds.layers[${i}].fromDeg`, `Layer ${i + 1} direction from`, {
-                    unit: '°',
+                    kind: 'bearing',
+                    unit: '° true',
                     compact: true,
                   })}
                 </td>

@@ -22,12 +22,15 @@ export const sharedStyles = css`
     font-size: 15px;
     margin: 0.8rem 0 0.4rem;
   }
+  /* Section headings keep the case they are written in: a style that changes case would turn
+     a symbol into another (σ, a standard deviation, into Σ, a sum). */
   h3 {
-    font-size: 13px;
-    margin: 0.6rem 0 0.3rem;
-    color: var(--sf-muted);
-    text-transform: uppercase;
-    letter-spacing: 0.04em;
+    font-size: 14px;
+    font-weight: 600;
+    margin: 0.9rem 0 0.35rem;
+    padding-bottom: 2px;
+    color: #24453e;
+    border-bottom: 1px solid var(--sf-line);
   }
   table {
     border-collapse: collapse;
@@ -45,6 +48,12 @@ export const sharedStyles = css`
     font-size: 12px;
     color: var(--sf-muted);
   }
+  /* Widths include padding and border, so a control set to 100% stays inside its box. */
+  input,
+  select,
+  textarea {
+    box-sizing: border-box;
+  }
   input,
   select {
     font: inherit;
@@ -54,6 +63,9 @@ export const sharedStyles = css`
     background: #fff;
     color: inherit;
     min-width: 0;
+  }
+  textarea {
+    max-width: 100%;
   }
   input:focus-visible,
   select:focus-visible,
