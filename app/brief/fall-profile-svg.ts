@@ -50,7 +50,7 @@ export function fallProfileSvg(p: FallProfile, opts: FallProfileOptions = {}): s
   const h = idx.map((i) => p.height_m[i]);
   const d = idx.map((i) => Math.hypot(p.driftEast_m[i], p.driftNorth_m[i]));
   const hMax = Math.max(...h, 1);
-  const top = 16;
+  const top = 32;
   const bottom = H - 38;
   const Y = (z: number): number => bottom - (z / hMax) * (bottom - top);
   const left = 46;
@@ -104,6 +104,6 @@ export function fallProfileSvg(p: FallProfile, opts: FallProfileOptions = {}): s
   return `<svg class="fall" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="Fall profile">
 <style>.fall{font:10px 'DejaVu Sans',system-ui,sans-serif;background:#fff}.fall .grid{stroke:#e3e7e5}.fall .axis,.fall .tick{stroke:#555}.fall .line{fill:none;stroke:#0f766e;stroke-width:2}</style>
 ${out.join('')}
-<text x="${W - 10}" y="${top - 5}" text-anchor="end">${caption}: fall ${num(t[t.length - 1])} s, drift ${num(d[d.length - 1] * unit.perMetre)} ${u}</text>
+<text x="4" y="11">${caption}: fall ${num(Math.round(t[t.length - 1] * 10) / 10)} s, wind drift ${num(Math.round(d[d.length - 1] * unit.perMetre))} ${u}</text>
 </svg>`;
 }

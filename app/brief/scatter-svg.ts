@@ -56,7 +56,8 @@ export function scatterSvg(s: ScatterInput, opts: ScatterOptions = {}): string {
     .filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
   const tol = Number.isFinite(s.tolerance_m) && s.tolerance_m > 0 ? s.tolerance_m : 0;
 
-  // The box holds every drawn point, both ellipses, the tolerance circle and the site.
+  // The frame holds both ellipses, the tolerance circle, the site and the middle 99 % of the
+  // landings each way; the few beyond it are drawn on its edge (class "out") and counted.
   let [x0, x1, y0, y1] = [-tol, tol, -tol, tol];
   const grow = (x: number, y: number): void => {
     x0 = Math.min(x0, x);
@@ -64,47 +65,60 @@ export function scatterSvg(s: ScatterInput, opts: ScatterOptions = {}): string {
     y0 = Math.min(y0, y);
     y1 = Math.max(y1, y);
   };
-  for (const p of pts) grow(p.x, p.y);
+  if (pts.length > 0) {
+    const q = (v: number[], f: number): number => v[Math.round(f * (v.length - 1))];
+    const ex = pts.map((p) => p.x).sort((a, b) => a - b);
+    const ny = pts.map((p) => p.y).sort((a, b) => a - b);
+    grow(q(ex, 0.005), q(ny, 0.005));
+    grow(q(ex, 0.995), q(ny, 0.995));
+  }
   for (const e of [s.ellipse50, s.ellipse95]) {
     if (![e.east_m, e.north_m, e.semiMajor_m, e.semiMinor_m].every(Number.isFinite)) continue;
     const h = ellipseHalfBox(e);
     grow(e.east_m - h.x, e.north_m - h.y);
     grow(e.east_m + h.x, e.north_m + h.y);
   }
-  const span = Math.max(x1 - x0, y1 - y0, 2);
+  const span = Math.max(x1 - x0, y1 - y0, 2) * 1.04;
   const [cx, cy] = [(x0 + x1) / 2, (y0 + y1) / 2];
-  const pad = 28;
-  const k = (S - 2 * pad) / (span * 1.04); // px per metre
-  const X = (x: number): number => S / 2 + (x - cx) * k;
-  const Y = (y: number): number => S / 2 - (y - cy) * k;
+  // Plot square: left margin for the north labels, top for the heading, bottom for the east labels.
+  const [L, T] = [46, 22];
+  const A = S - L - 8;
+  const k = A / span; // px per metre
+  const X = (x: number): number => L + A / 2 + (x - cx) * k;
+  const Y = (y: number): number => T + A / 2 - (y - cy) * k;
+  const half = span / 2;
+  const clampX = (x: number): number => Math.min(cx + half, Math.max(cx - half, x));
+  const clampY = (y: number): number => Math.min(cy + half, Math.max(cy - half, y));
+  const label = (v: number): string => esc(Number(v.toPrecision(6)).toString().replace('-', '−'));
 
   // Grid in the display unit: a nice step, lines at its multiples, labels at the edges.
   const stepU = niceStep(span * unit.perMetre, 5);
   const step = stepU / unit.perMetre;
-  const lo = (S / 2 - pad) / k;
   const grid: string[] = [];
-  for (let g = Math.ceil((cx - lo) / step) * step; g <= cx + lo; g += step) {
+  for (let g = Math.ceil((cx - half) / step) * step; g <= cx + half; g += step) {
     const xp = X(g);
-    const v = Math.round(g / step) * stepU;
     grid.push(
-      `<line class="grid" data-axis="east" data-m="${f1(g)}" x1="${f1(xp)}" x2="${f1(xp)}" y1="${pad}" y2="${S - pad}"/>`,
-      `<text x="${f1(xp)}" y="${S - pad + 12}" text-anchor="middle">${esc(Number(v.toPrecision(6)))}</text>`,
+      `<line class="grid" data-axis="east" data-m="${f1(g)}" x1="${f1(xp)}" x2="${f1(xp)}" y1="${T}" y2="${T + A}"/>`,
+      `<text x="${f1(xp)}" y="${T + A + 12}" text-anchor="middle">${label(Math.round(g / step) * stepU)}</text>`,
     );
   }
-  for (let g = Math.ceil((cy - lo) / step) * step; g <= cy + lo; g += step) {
+  for (let g = Math.ceil((cy - half) / step) * step; g <= cy + half; g += step) {
     const yp = Y(g);
-    const v = Math.round(g / step) * stepU;
     grid.push(
-      `<line class="grid" data-axis="north" data-m="${f1(g)}" x1="${pad}" x2="${S - pad}" y1="${f1(yp)}" y2="${f1(yp)}"/>`,
-      `<text x="${pad - 3}" y="${f1(yp + 3)}" text-anchor="end">${esc(Number(v.toPrecision(6)))}</text>`,
+      `<line class="grid" data-axis="north" data-m="${f1(g)}" x1="${L}" x2="${L + A}" y1="${f1(yp)}" y2="${f1(yp)}"/>`,
+      `<text x="${L - 3}" y="${f1(yp + 3)}" text-anchor="end">${label(Math.round(g / step) * stepU)}</text>`,
     );
   }
 
   const tol2 = tol * tol;
-  const dots = pts.map(
-    (p) =>
-      `<circle class="${p.x * p.x + p.y * p.y <= tol2 ? 'pt hit' : 'pt'}" cx="${f1(X(p.x))}" cy="${f1(Y(p.y))}" r="1.3"/>`,
-  );
+  let outside = 0;
+  const dots = pts.map((p) => {
+    const [x, y] = [clampX(p.x), clampY(p.y)];
+    const out = x !== p.x || y !== p.y;
+    if (out) outside++;
+    const cls = out ? 'pt out' : p.x * p.x + p.y * p.y <= tol2 ? 'pt hit' : 'pt';
+    return `<circle class="${cls}" cx="${f1(X(x))}" cy="${f1(Y(y))}" r="1.3"/>`;
+  });
   const ell = (e: SiteEllipse, cls: string): string =>
     [e.east_m, e.north_m, e.semiMajor_m, e.semiMinor_m, e.azimuth_deg].every(Number.isFinite)
       ? // SVG rotates clockwise on screen; the x axis turned by (azimuth − 90°) points along it.
@@ -112,19 +126,20 @@ export function scatterSvg(s: ScatterInput, opts: ScatterOptions = {}): string {
       : '';
   const u = esc(unit.label);
   const caption = opts.title ? esc(opts.title) : 'Landings';
-  const H = S + 40;
+  const B = T + A + 30; // first caption line
+  const H = B + 32;
   return `<svg class="scatter" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${S} ${H}" width="${S}" height="${H}" role="img" aria-label="Landing scatter">
-<style>.scatter{font:10px 'DejaVu Sans',system-ui,sans-serif;background:#fff}.scatter .grid{stroke:#e3e7e5}.scatter .pt{fill:#8a9490;fill-opacity:.55}.scatter .pt.hit{fill:#0f766e;fill-opacity:.75}.scatter .e50{fill:none;stroke:#b45309;stroke-width:1.5}.scatter .e95{fill:none;stroke:#b45309;stroke-width:1.5;stroke-dasharray:5 3}.scatter .tol{fill:none;stroke:#1d4ed8;stroke-width:2}.scatter .site{stroke:#111;stroke-width:1.5}</style>
-<rect x="${pad}" y="${pad}" width="${S - 2 * pad}" height="${S - 2 * pad}" fill="none" stroke="#c9d1ce"/>
+<style>.scatter{font:10px 'DejaVu Sans',system-ui,sans-serif;background:#fff}.scatter .grid{stroke:#e3e7e5}.scatter .pt{fill:#8a9490;fill-opacity:.55}.scatter .pt.hit{fill:#0f766e;fill-opacity:.75}.scatter .pt.out{fill:#b42318}.scatter .e50{fill:none;stroke:#b45309;stroke-width:1.5}.scatter .e95{fill:none;stroke:#b45309;stroke-width:1.5;stroke-dasharray:5 3}.scatter .tol{fill:none;stroke:#1d4ed8;stroke-width:2}.scatter .site{stroke:#111;stroke-width:1.5}</style>
+<rect x="${L}" y="${T}" width="${A}" height="${A}" fill="none" stroke="#c9d1ce"/>
 ${grid.join('')}
 ${dots.join('')}
 ${ell(s.ellipse50, 'e50')}${ell(s.ellipse95, 'e95')}
 ${tol > 0 ? `<circle class="tol" data-r-m="${f1(tol)}" cx="${f1(X(0))}" cy="${f1(Y(0))}" r="${f1(tol * k)}"/>` : ''}
 <path class="site" d="M${f1(X(0) - 5)} ${f1(Y(0))}h10M${f1(X(0))} ${f1(Y(0) - 5)}v10"/>
-<text x="${S - pad}" y="${pad - 8}" text-anchor="end">N ↑ · grid ${esc(Number(stepU.toPrecision(6)))} ${u}</text>
-<text x="${pad}" y="${pad - 8}">${u} north / east of the site</text>
-<text x="${pad}" y="${S + 4}">${caption}: ${pts.length}${pts.length < n ? ` of ${n}` : ''} landings (green: within tolerance)</text>
-<text x="${pad}" y="${S + 18}">blue circle: tolerance ${esc(f1(tol * unit.perMetre))} ${u}</text>
-<text x="${pad}" y="${S + 32}">brown: 50 % ellipse solid, 95 % dashed</text>
+<text x="${L + A}" y="${T - 7}" text-anchor="end">N ↑ · grid ${label(stepU)} ${u}</text>
+<text x="4" y="${T - 7}">${u} north / east of the site (+)</text>
+<text x="4" y="${B}">${caption}: ${pts.length}${pts.length < n ? ` of ${n}` : ''} landings</text>
+<text x="4" y="${B + 13}">green: within tolerance${outside > 0 ? `; red: ${outside} beyond, on the edge` : ''}</text>
+<text x="4" y="${B + 26}">blue: tolerance ${esc(f1(tol * unit.perMetre))} ${u}; brown: 50 % ellipse, 95 % dashed</text>
 </svg>`;
 }

@@ -1,8 +1,12 @@
-/** The results tab: the plan's problems, the results table, exports and the result's notes. */
+/**
+ * The results tab: the plan's problems, the selected site's details, the results table, exports
+ * and the result's notes.
+ */
 import { html, type TemplateResult } from 'lit';
 import { exportAs, type ExportKind } from './downloads';
 import type { PlanStore } from './plan-store';
 import './sf-results-table';
+import './sf-site-details';
 
 /** The export buttons, in order, with their labels. */
 const EXPORTS: [ExportKind, string][] = [
@@ -30,6 +34,7 @@ export function renderResultsTab(
             </ul>`
         : ''
     }
+    <sf-site-details .store=${s}></sf-site-details>
     <sf-results-table .store=${s}></sf-results-table>
     <div class="exports" role="group" aria-label="Export">
       <span class="muted">Export:</span>

@@ -1,6 +1,7 @@
 import { css, html } from 'lit';
 import { customElement, state } from 'lit/decorators.js';
 import { type ErrorSource, pHitText, type SiteResult } from '../planner';
+import type { PlanStore } from './plan-store';
 import { formatLength } from './units';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
@@ -39,6 +40,19 @@ function pHitCell(r: SiteResult) {
   return se === undefined ? p : html`${p}<span class="se"> ± ${se}</span>`;
 }
 
+/**
+ * The Variant cell: the chosen variant (a pin says so), or "none can reach" when no variant can
+ * reach an unpinned site; the recommendation's reason as its tooltip.
+ */
+function variantCell(x: SiteResult) {
+  const rec = x.recommendation;
+  if (rec.kind === 'unreachable' && !x.pinned)
+    return html`<td class="bad" data-col="variant" title=${rec.why}>none can reach</td>`;
+  return html`<td data-col="variant" title=${rec.why}>
+    ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pin)</span>` : ''}
+  </td>`;
+}
+
 /** "Included error sources: a, b, c." with each source's size and origin as its tooltip. */
 function includedLine(sources: readonly ErrorSource[]) {
   if (sources.length === 0)
@@ -56,7 +70,7 @@ function includedLine(sources: readonly ErrorSource[]) {
   </p>`;
 }
 
-/** Per-site results of the latest plan: sortable; a row click shows the site on the map. */
+/** Per-site results of the latest plan: sortable; a row (click, Enter or Space) opens the site's details and shows it on the map. */
 @customElement('sf-results-table')
 export class SfResultsTable extends StoreElement {
   static styles = [
@@ -78,6 +92,14 @@ export class SfResultsTable extends StoreElement {
       }
       tbody tr:hover {
         background: #eef5f2;
+      }
+      tbody tr.selected {
+        background: #dff0ea;
+        box-shadow: inset 3px 0 0 var(--sf-accent);
+      }
+      tbody tr:focus-visible {
+        outline: 2px solid var(--sf-accent);
+        outline-offset: -2px;
       }
       .bad {
         color: var(--sf-bad);
@@ -114,6 +136,38 @@ export class SfResultsTable extends StoreElement {
   @state() private key: Key = 'id';
   @state() private asc = true;
 
+  private listening?: PlanStore;
+  private readonly onSelect = (): void => this.requestUpdate();
+
+  connectedCallback(): void {
+    super.connectedCallback();
+    this.listening = this.store;
+    this.listening?.addEventListener('select-site', this.onSelect);
+  }
+
+  disconnectedCallback(): void {
+    super.disconnectedCallback();
+    this.listening?.removeEventListener('select-site', this.onSelect);
+    this.listening = undefined;
+  }
+
+  /** Opens the site's details and shows it on the map. */
+  private open(id: string): void {
+    this.store?.selectSite(id);
+    this.store?.focusSite(id);
+  }
+
+  private onRowKey(e: KeyboardEvent, id: string): void {
+    if (e.target !== e.currentTarget) return;
+    if (e.key === 'Enter' || e.key === ' ') {
+      e.preventDefault();
+      this.open(id);
+    } else if (e.key === 'Escape' && this.store?.selectedSite !== null) {
+      e.preventDefault();
+      this.store?.selectSite(null);
+    }
+  }
+
   private sortBy(k: Key): void {
     if (this.key === k) this.asc = !this.asc;
     else {
@@ -146,6 +200,7 @@ export class SfResultsTable extends StoreElement {
       return this.asc ? c : -c;
     });
     const u = s.settings.units;
+    const selected = s.selectedSite;
     const h = (k: Key, label: string, title = '') => {
       const sorted = this.key === k ? (this.asc ? 'ascending' : 'descending') : 'none';
       return html`<th aria-sort=${sorted} title=${title}>
@@ -181,13 +236,15 @@ export class SfResultsTable extends StoreElement {
               (x) =>
                 html`<tr
                   data-site=${x.id}
-                  @click=${() => s.focusSite(x.id)}
-                  title=${`${x.name}: show on the map`}
+                  tabindex="0"
+                  aria-selected=${selected === x.id ? 'true' : 'false'}
+                  class=${selected === x.id ? 'selected' : ''}
+                  @click=${() => this.open(x.id)}
+                  @keydown=${(e: KeyboardEvent) => this.onRowKey(e, x.id)}
+                  title=${`${x.name}: details, and show on the map`}
                 >
                   <td>${x.id}</td>
-                  <td>
-                    ${x.variant}${x.pinned ? html`<span class="muted" title=${`pinned by the site; recommended: ${x.recommended}`}> (pin)</span>` : ''}
-                  </td>
+                  ${variantCell(x)}
                   <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`} data-col="phit">
                     ${pHitCell(x)}
                   </td>

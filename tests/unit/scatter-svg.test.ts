@@ -97,6 +97,30 @@ describe('the landing scatter', () => {
     expect(text).toContain(`300 of ${s.east_m.length} landings`);
   });
 
+  it('keeps the frame on the bulk of the landings and puts a far one on its edge, counted', () => {
+    const e = { east_m: 0, north_m: 0, semiMajor_m: 5, semiMinor_m: 5, azimuth_deg: 0 };
+    const east = Array.from({ length: 400 }, (_, i) => ((i % 20) - 10) / 2);
+    const north = Array.from({ length: 400 }, (_, i) => (Math.floor(i / 20) - 10) / 2);
+    east[7] = 5000; // one landing 5 km east
+    const text = scatterSvg({
+      east_m: east,
+      north_m: north,
+      tolerance_m: 3,
+      ellipse50: e,
+      ellipse95: e,
+    });
+    expect(XMLValidator.validate(text)).toBe(true);
+    const root = parser.parse(text).svg as Node;
+    const out = asList(root.circle).filter((c) => c.class === 'pt out');
+    expect(out.length).toBe(1);
+    const frame = asList(root.rect)[0];
+    expectClose(Number(out[0].cx), Number(frame.x) + Number(frame.width), 0.1, 'on the right edge');
+    expect(text).toContain('red: 1 beyond, on the edge');
+    // The tolerance circle stays large: the frame spans the ±5 m cloud, not the 5 km outlier.
+    const tol = asList(root.circle).find((c) => c.class === 'tol')!;
+    expect(Number(tol.r)).toBeGreaterThan(Number(frame.width) / 8);
+  });
+
   it('escapes a hostile caption and unit label', () => {
     const text = scatterSvg(s, {
       title: `<script>alert("x")</script> & 'co'`,
@@ -155,7 +179,8 @@ describe('the fall profile drawing', () => {
     expect(Math.max(...ys)).toBe(ys[ys.length - 1]);
     const xs = pts.map((p) => p[0]);
     expect(xs).toEqual([...xs].sort((a, b) => a - b));
-    expect(text).toContain(`fall ${Number(s.result.fallTime_s.toPrecision(6))} s`);
+    // The caption rounds the fall time to 0.1 s.
+    expect(text).toContain(`fall ${Math.round(s.result.fallTime_s * 10) / 10} s`);
   });
 
   it('copes with nothing to draw and escapes its caption', () => {
