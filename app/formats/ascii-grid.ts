@@ -11,7 +11,16 @@ import type { DemRead, DemReadOptions } from './geotiff-dem';
 /** Longest text read (characters): a 4000 × 4000 grid of 8-character heights is ~140 M. */
 export const MAX_ASCII_GRID_CHARS = 400_000_000;
 
-const KEYS = ['ncols', 'nrows', 'xllcorner', 'xllcenter', 'yllcorner', 'yllcenter', 'cellsize', 'nodata_value'];
+const KEYS = [
+  'ncols',
+  'nrows',
+  'xllcorner',
+  'xllcenter',
+  'yllcorner',
+  'yllcenter',
+  'cellsize',
+  'nodata_value',
+];
 
 interface Header {
   ncols: number;
@@ -46,12 +55,17 @@ function parseHeader(file: string, text: string): Header {
     }
     const key = m[1].toLowerCase();
     if (!KEYS.includes(key)) {
-      throw new DemError(file, `line ${line}: unknown header key '${m[1]}'; expected one of ncols, nrows, xllcorner|xllcenter, yllcorner|yllcenter, cellsize, NODATA_value`);
+      throw new DemError(
+        file,
+        `line ${line}: unknown header key '${m[1]}'; expected one of ncols, nrows, xllcorner|xllcenter, yllcorner|yllcenter, cellsize, NODATA_value`,
+      );
     }
     const value = Number(m[2]);
-    if (!Number.isFinite(value)) throw new DemError(file, `line ${line}: ${m[1]} '${m[2]}' is not a number`);
+    if (!Number.isFinite(value))
+      throw new DemError(file, `line ${line}: ${m[1]} '${m[2]}' is not a number`);
     const family = key.startsWith('xll') ? 'xll' : key.startsWith('yll') ? 'yll' : key;
-    if (families.has(family)) throw new DemError(file, `line ${line}: ${m[1]} repeats an earlier header line`);
+    if (families.has(family))
+      throw new DemError(file, `line ${line}: ${m[1]} repeats an earlier header line`);
     families.add(family);
     seen.set(key, { value, line });
     if (nl < 0) {
@@ -63,7 +77,11 @@ function parseHeader(file: string, text: string): Header {
   }
   const need = (k: string, what: string) => {
     const v = seen.get(k);
-    if (!v) throw new DemError(file, `line ${line}: header has no ${what} (found ${[...seen.keys()].join(', ') || 'no header'})`);
+    if (!v)
+      throw new DemError(
+        file,
+        `line ${line}: header has no ${what} (found ${[...seen.keys()].join(', ') || 'no header'})`,
+      );
     return v;
   };
   const count = (k: string) => {
@@ -76,7 +94,8 @@ function parseHeader(file: string, text: string): Header {
   const ncols = count('ncols');
   const nrows = count('nrows');
   const cs = need('cellsize', 'cellsize');
-  if (!(cs.value > 0)) throw new DemError(file, `line ${cs.line}: cellsize ${cs.value} must be > 0`);
+  if (!(cs.value > 0))
+    throw new DemError(file, `line ${cs.line}: cellsize ${cs.value} must be > 0`);
   const cellsize = cs.value;
   const xc = seen.get('xllcenter');
   const yc = seen.get('yllcenter');
@@ -107,11 +126,23 @@ export interface AsciiGridOptions extends DemReadOptions {
 /** Reads the window of an ESRI ASCII grid that covers opts.box; DemError names the file, line and fault. */
 export function readAsciiGrid(file: string, text: string, opts: AsciiGridOptions): DemRead {
   if (text.length > MAX_ASCII_GRID_CHARS) {
-    throw new DemError(file, `${text.length} characters is more than the ${MAX_ASCII_GRID_CHARS} an ASCII grid may have; convert it to a GeoTIFF`);
+    throw new DemError(
+      file,
+      `${text.length} characters is more than the ${MAX_ASCII_GRID_CHARS} an ASCII grid may have; convert it to a GeoTIFF`,
+    );
   }
   const epsg = opts.epsg ?? 4326;
   const h = parseHeader(file, text);
-  const g: GridGeometry = { file, epsg, cols: h.ncols, rows: h.nrows, x0: h.x0, y0: h.y0, dx: h.cellsize, dy: h.cellsize };
+  const g: GridGeometry = {
+    file,
+    epsg,
+    cols: h.ncols,
+    rows: h.nrows,
+    x0: h.x0,
+    y0: h.y0,
+    dx: h.cellsize,
+    dy: h.cellsize,
+  };
   if (isGeographic(epsg)) {
     const x1 = h.x0 + h.ncols * h.cellsize;
     const y1 = h.y0 - h.nrows * h.cellsize;
@@ -148,14 +179,20 @@ export function readAsciiGrid(file: string, text: string, opts: AsciiGridOptions
       j++;
     }
     if (n >= total) {
-      throw new DemError(file, `line ${line}: more values than ncols × nrows = ${h.ncols} × ${h.nrows} = ${total}`);
+      throw new DemError(
+        file,
+        `line ${line}: more values than ncols × nrows = ${h.ncols} × ${h.nrows} = ${total}`,
+      );
     }
     const row = Math.floor(n / h.ncols);
     const col = n - row * h.ncols;
     if (row >= w.row0 && row < w.row0 + w.rows && col >= w.col0 && col < w.col0 + w.cols) {
       const v = Number(text.slice(i, j));
       if (!Number.isFinite(v)) {
-        throw new DemError(file, `line ${line}: '${text.slice(i, Math.min(j, i + 20))}' is not a number (row ${row + 1}, column ${col + 1})`);
+        throw new DemError(
+          file,
+          `line ${line}: '${text.slice(i, Math.min(j, i + 20))}' is not a number (row ${row + 1}, column ${col + 1})`,
+        );
       }
       values[(row - w.row0) * w.cols + (col - w.col0)] = v;
     }
@@ -163,7 +200,10 @@ export function readAsciiGrid(file: string, text: string, opts: AsciiGridOptions
     i = j;
   }
   if (n < total) {
-    throw new DemError(file, `line ${line}: the data end after ${n} values; ncols × nrows = ${h.ncols} × ${h.nrows} = ${total}`);
+    throw new DemError(
+      file,
+      `line ${line}: the data end after ${n} values; ncols × nrows = ${h.ncols} × ${h.nrows} = ${total}`,
+    );
   }
   const dem = new Dem({
     file,
@@ -177,5 +217,12 @@ export function readAsciiGrid(file: string, text: string, opts: AsciiGridOptions
     values,
     nodata: h.nodata,
   });
-  return { dem, window: w, cellsRead: w.cols * w.rows, bytesRead: text.length, fileCols: h.ncols, fileRows: h.nrows };
+  return {
+    dem,
+    window: w,
+    cellsRead: w.cols * w.rows,
+    bytesRead: text.length,
+    fileCols: h.ncols,
+    fileRows: h.nrows,
+  };
 }

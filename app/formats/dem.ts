@@ -120,7 +120,12 @@ function boxOutline(b: LatLonBox): LatLon[] {
     const t = i / 8;
     const lat = b.south + t * (b.north - b.south);
     const lon = b.west + t * (b.east - b.west);
-    pts.push({ lat: b.south, lon }, { lat: b.north, lon }, { lat, lon: b.west }, { lat, lon: b.east });
+    pts.push(
+      { lat: b.south, lon },
+      { lat: b.north, lon },
+      { lat, lon: b.west },
+      { lat, lon: b.east },
+    );
   }
   return pts;
 }
@@ -160,7 +165,10 @@ export function windowFor(g: GridGeometry, box: LatLonBox, maxCells = MAX_DEM_CE
   for (const p of boxOutline(box)) {
     const q = conv.forward({ x: p.lon, y: p.lat });
     if (!Number.isFinite(q.x) || !Number.isFinite(q.y)) {
-      throw new DemError(g.file, `the plan area (${boxText(box)}) cannot be expressed in its CRS EPSG:${g.epsg}`);
+      throw new DemError(
+        g.file,
+        `the plan area (${boxText(box)}) cannot be expressed in its CRS EPSG:${g.epsg}`,
+      );
     }
     xMin = Math.min(xMin, q.x);
     xMax = Math.max(xMax, q.x);
@@ -175,7 +183,10 @@ export function windowFor(g: GridGeometry, box: LatLonBox, maxCells = MAX_DEM_CE
   const cy0 = gy1 + g.dy / 2;
   const cy1 = g.y0 - g.dy / 2;
   if (xMin < cx0 || xMax > cx1 || yMin < cy0 || yMax > cy1) {
-    throw new DemError(g.file, notCoveredText(conv, box, { xMin, xMax, yMin, yMax }, { cx0, cx1, cy0, cy1 }));
+    throw new DemError(
+      g.file,
+      notCoveredText(conv, box, { xMin, xMax, yMin, yMax }, { cx0, cx1, cy0, cy1 }),
+    );
   }
   const col0 = Math.max(0, Math.floor((xMin - g.x0) / g.dx - 0.5) - DEM_MARGIN_CELLS);
   const col1 = Math.min(g.cols - 1, Math.floor((xMax - g.x0) / g.dx - 0.5) + 1 + DEM_MARGIN_CELLS);
@@ -236,7 +247,10 @@ export class Dem {
   /** @param grid a north-up grid; its CRS must be one crsConverter knows */
   constructor(grid: DemGrid) {
     if (grid.values.length !== grid.cols * grid.rows) {
-      throw new DemError(grid.file, `${grid.values.length} heights for ${grid.cols} × ${grid.rows} cells`);
+      throw new DemError(
+        grid.file,
+        `${grid.values.length} heights for ${grid.cols} × ${grid.rows} cells`,
+      );
     }
     // Heights are held as Float32, so a nodata value is compared at that precision.
     this.grid = { ...grid, nodata: grid.nodata === null ? null : Math.fround(grid.nodata) };

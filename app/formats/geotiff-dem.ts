@@ -4,7 +4,15 @@
  * Only the strips or tiles under the requested box (plus a margin) are fetched from the file.
  */
 import { GeoTIFF, type GeoTIFFImage } from 'geotiff';
-import { Dem, DemError, type GridGeometry, type GridWindow, type LatLonBox, MAX_DEM_CELLS, windowFor } from './dem';
+import {
+  Dem,
+  DemError,
+  type GridGeometry,
+  type GridWindow,
+  type LatLonBox,
+  MAX_DEM_CELLS,
+  windowFor,
+} from './dem';
 
 /** Random access to a file's bytes (a Blob in the browser, a file handle in Node). */
 export interface ByteSource {
@@ -92,7 +100,10 @@ function epsgOf(image: GeoTIFFImage, file: string): number {
         ? (keys.ProjectedCSTypeGeoKey as number | undefined)
         : undefined;
   if (code === undefined || code === USER_DEFINED) {
-    throw new DemError(file, 'its CRS is not given by an EPSG code; export it as WGS 84 (EPSG:4326) or a WGS 84 / UTM zone');
+    throw new DemError(
+      file,
+      'its CRS is not given by an EPSG code; export it as WGS 84 (EPSG:4326) or a WGS 84 / UTM zone',
+    );
   }
   return code;
 }
@@ -101,7 +112,10 @@ function geometryOf(image: GeoTIFFImage, file: string): GridGeometry {
   const dir = image.getFileDirectory();
   const t = dir.getValue('ModelTransformation') as number[] | undefined;
   if (t && (t[1] !== 0 || t[4] !== 0)) {
-    throw new DemError(file, 'its grid is rotated; only north-up grids are read (warp it north-up first)');
+    throw new DemError(
+      file,
+      'its grid is rotated; only north-up grids are read (warp it north-up first)',
+    );
   }
   let origin: number[];
   let res: number[];
@@ -115,18 +129,34 @@ function geometryOf(image: GeoTIFFImage, file: string): GridGeometry {
   const dx = res[0];
   const dy = -res[1];
   if (!(dx > 0) || !Number.isFinite(dx) || !(dy > 0) || !Number.isFinite(dy)) {
-    throw new DemError(file, `its cell size ${res[0]} × ${res[1]} is not north-up (width > 0, height < 0)`);
+    throw new DemError(
+      file,
+      `its cell size ${res[0]} × ${res[1]} is not north-up (width > 0, height < 0)`,
+    );
   }
   // A point-registered raster's tie point is the centre of its first cell (GeoTIFF 1.0 §2.5.2.2).
   if (!image.pixelIsArea()) {
     x0 -= dx / 2;
     y0 += dy / 2;
   }
-  return { file, epsg: epsgOf(image, file), cols: image.getWidth(), rows: image.getHeight(), x0, y0, dx, dy };
+  return {
+    file,
+    epsg: epsgOf(image, file),
+    cols: image.getWidth(),
+    rows: image.getHeight(),
+    x0,
+    y0,
+    dx,
+    dy,
+  };
 }
 
 /** Reads the window of a single-band GeoTIFF DEM that covers opts.box; DemError names what is wrong. */
-export async function readGeoTiffDem(file: string, src: ByteSource, opts: DemReadOptions): Promise<DemRead> {
+export async function readGeoTiffDem(
+  file: string,
+  src: ByteSource,
+  opts: DemReadOptions,
+): Promise<DemRead> {
   const source = new CountingSource(src, file);
   let tiff: GeoTIFF;
   let image: GeoTIFFImage;
@@ -135,12 +165,18 @@ export async function readGeoTiffDem(file: string, src: ByteSource, opts: DemRea
     tiff = await GeoTIFF.fromSource(source as unknown as Parameters<typeof GeoTIFF.fromSource>[0]);
     image = await tiff.getImage(0);
   } catch (e) {
-    throw new DemError(file, `not a readable GeoTIFF (${src.size} bytes; truncated or corrupt): ${(e as Error).message}`);
+    throw new DemError(
+      file,
+      `not a readable GeoTIFF (${src.size} bytes; truncated or corrupt): ${(e as Error).message}`,
+    );
   }
   source.strict = true;
   const bands = image.getSamplesPerPixel();
   if (bands !== 1) {
-    throw new DemError(file, `it has ${bands} bands; an elevation model has exactly 1 (heights in metres)`);
+    throw new DemError(
+      file,
+      `it has ${bands} bands; an elevation model has exactly 1 (heights in metres)`,
+    );
   }
   const format = image.getSampleFormat(0);
   if (format !== 1 && format !== 2 && format !== 3) {
@@ -157,10 +193,16 @@ export async function readGeoTiffDem(file: string, src: ByteSource, opts: DemRea
     })) as unknown as ArrayLike<number>;
   } catch (e) {
     if (e instanceof DemError) throw e;
-    throw new DemError(file, `its cells cannot be read (truncated or corrupt): ${(e as Error).message}`);
+    throw new DemError(
+      file,
+      `its cells cannot be read (truncated or corrupt): ${(e as Error).message}`,
+    );
   }
   if (raster.length !== w.cols * w.rows) {
-    throw new DemError(file, `read ${raster.length} cells where ${w.cols * w.rows} were expected (corrupt)`);
+    throw new DemError(
+      file,
+      `read ${raster.length} cells where ${w.cols * w.rows} were expected (corrupt)`,
+    );
   }
   const nodata = image.getGDALNoData();
   const dem = new Dem({
@@ -175,5 +217,12 @@ export async function readGeoTiffDem(file: string, src: ByteSource, opts: DemRea
     values: Float32Array.from(raster),
     nodata: nodata === null ? null : Math.fround(nodata),
   });
-  return { dem, window: w, cellsRead: w.cols * w.rows, bytesRead: source.bytesRead, fileCols: g.cols, fileRows: g.rows };
+  return {
+    dem,
+    window: w,
+    cellsRead: w.cols * w.rows,
+    bytesRead: source.bytesRead,
+    fileCols: g.cols,
+    fileRows: g.rows,
+  };
 }

@@ -66,7 +66,11 @@ const MAX_REFINE = 200;
  * or below the ground, then closes that bracket by the Illinois variant of regula falsi.
  * Ground narrower than a step between two samples can be stepped over.
  */
-export function groundCrossing(ground: Ground, path: DescentPath, opts: CrossingOptions = {}): Crossing {
+export function groundCrossing(
+  ground: Ground,
+  path: DescentPath,
+  opts: CrossingOptions = {},
+): Crossing {
   const maxDz = opts.maxStepZ_m ?? 5;
   const maxDxy = opts.maxStepXY_m ?? 5;
   const tol = opts.tol_m ?? 0.001;
@@ -189,7 +193,11 @@ export function reachPolygon(
     crossings.push(groundCrossing(ground, rayPath(b), opts));
   }
   const all = crossings.every((c) => c.kind === 'ground');
-  return { bearings_rad, crossings, polygon: all ? crossings.map((c) => ({ x: c.x, y: c.y })) : null };
+  return {
+    bearings_rad,
+    crossings,
+    polygon: all ? crossings.map((c) => ({ x: c.x, y: c.y })) : null,
+  };
 }
 
 /**
@@ -219,7 +227,13 @@ export function glideRays(
 /** Whether a descent aimed at a site gets there, or ground higher than the site stops it first. */
 export type SiteView =
   | { hidden: false; crossing: Crossing }
-  | { hidden: true; obstacle: PathPoint; fromSite_m: number; aboveSite_m: number; crossing: Crossing };
+  | {
+      hidden: true;
+      obstacle: PathPoint;
+      fromSite_m: number;
+      aboveSite_m: number;
+      crossing: Crossing;
+    };
 
 /**
  * Hidden ground: the path meets the ground more than `vertical_m` above the site's ground and

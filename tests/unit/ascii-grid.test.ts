@@ -23,8 +23,22 @@ afterAll(() => {
 });
 
 const NODATA = -9999;
-function gridText(ref: 'corner' | 'center', x: number, y: number, cell: number, cols = 30, rows = 20): string {
-  const lines = [`ncols ${cols}`, `nrows ${rows}`, `xll${ref} ${x}`, `yll${ref} ${y}`, `cellsize ${cell}`, `NODATA_value ${NODATA}`];
+function gridText(
+  ref: 'corner' | 'center',
+  x: number,
+  y: number,
+  cell: number,
+  cols = 30,
+  rows = 20,
+): string {
+  const lines = [
+    `ncols ${cols}`,
+    `nrows ${rows}`,
+    `xll${ref} ${x}`,
+    `yll${ref} ${y}`,
+    `cellsize ${cell}`,
+    `NODATA_value ${NODATA}`,
+  ];
   for (let r = 0; r < rows; r++) {
     const row: number[] = [];
     for (let c = 0; c < cols; c++) row.push(r === 4 && c === 6 ? NODATA : 1000 + r * 100 + c); // row, column readable in the value
@@ -97,17 +111,33 @@ describe('ESRI ASCII grid read like GDAL AAIGrid', () => {
   it('a centre reference puts the south-west cell centre on the stated point', () => {
     // ESRI ASCII grid: xllcenter/yllcenter name the centre of the lower-left cell (common practice).
     const text = gridText('center', 21.2, 47.1, 0.002);
-    const { dem } = readAsciiGrid('c.asc', text, { box: { south: 47.101, west: 21.201, north: 47.13, east: 21.25 } });
+    const { dem } = readAsciiGrid('c.asc', text, {
+      box: { south: 47.101, west: 21.201, north: 47.13, east: 21.25 },
+    });
     // A corner reference of the same numbers puts that point on a cell corner instead: 4 cells' mean.
-    const corner = readAsciiGrid('k.asc', gridText('corner', 21.2, 47.1, 0.002), { box: { south: 47.101, west: 21.201, north: 47.13, east: 21.25 } });
-    expectClose(corner.dem.sample({ lat: 47.102, lon: 21.202 }) ?? NaN, (2800 + 2801 + 2900 + 2901) / 4, 1e-4, 'corner');
+    const corner = readAsciiGrid('k.asc', gridText('corner', 21.2, 47.1, 0.002), {
+      box: { south: 47.101, west: 21.201, north: 47.13, east: 21.25 },
+    });
+    expectClose(
+      corner.dem.sample({ lat: 47.102, lon: 21.202 }) ?? NaN,
+      (2800 + 2801 + 2900 + 2901) / 4,
+      1e-4,
+      'corner',
+    );
     // 1e-9° inside the corner of the centres (the heights change 100 m per 0.002°: 5e-5 m).
-    expectClose(dem.sample({ lat: 47.1 + 1e-9, lon: 21.2 + 1e-9 }) ?? NaN, 1000 + 19 * 100, 1e-4, 'south-west centre'); // row 19, col 0
+    expectClose(
+      dem.sample({ lat: 47.1 + 1e-9, lon: 21.2 + 1e-9 }) ?? NaN,
+      1000 + 19 * 100,
+      1e-4,
+      'south-west centre',
+    ); // row 19, col 0
   });
 
   it('keeps only the window under the box', () => {
     const text = gridText('corner', 21.2, 47.1, 0.002, 300, 200);
-    const read = readAsciiGrid('w.asc', text, { box: { south: 47.2, west: 21.3, north: 47.21, east: 21.31 } });
+    const read = readAsciiGrid('w.asc', text, {
+      box: { south: 47.2, west: 21.3, north: 47.21, east: 21.31 },
+    });
     expect(read.fileCols).toBe(300);
     // 0.01° = 5 cells a side, plus the stencil's cell and 2 margin cells each way: at most 11 × 11.
     expect(read.cellsRead).toBeLessThanOrEqual(11 * 11);
@@ -140,7 +170,10 @@ describe('Hostile ASCII grids name the file and the line', () => {
     fails(good.replace('cellsize 0.002\n', ''), /header has no cellsize/);
   });
   it('both xllcorner and xllcenter', () => {
-    fails(good.replace('yllcorner', 'xllcenter 21.2\nyllcorner'), /line 4: xllcenter repeats an earlier header line/);
+    fails(
+      good.replace('yllcorner', 'xllcenter 21.2\nyllcorner'),
+      /line 4: xllcenter repeats an earlier header line/,
+    );
   });
   it('a zero cell size, with the allowed range', () => {
     fails(good.replace('cellsize 0.002', 'cellsize 0'), /line 5: cellsize 0 must be > 0/);
@@ -149,7 +182,10 @@ describe('Hostile ASCII grids name the file and the line', () => {
     fails(good.replace('ncols 30', 'ncols 30.5'), /line 1: ncols 30.5 must be a whole number ≥ 2/);
   });
   it('a row cut short: the data end early', () => {
-    fails(good.trimEnd().split('\n').slice(0, -1).join('\n'), /line \d+: the data end after 570 values; ncols × nrows = 30 × 20 = 600/);
+    fails(
+      good.trimEnd().split('\n').slice(0, -1).join('\n'),
+      /line \d+: the data end after 570 values; ncols × nrows = 30 × 20 = 600/,
+    );
   });
   it('a value that is not a number, with its line, row and column', () => {
     const lines = good.split('\n');
@@ -160,7 +196,10 @@ describe('Hostile ASCII grids name the file and the line', () => {
     fails(good + '1 2 3\n', /line 27: more values than ncols × nrows/);
   });
   it('projected corners read as degrees: says to state the UTM zone', () => {
-    fails(gridText('corner', 400_000, 5_300_000, 50), /not WGS 84 degrees.*needs its UTM zone stated/);
+    fails(
+      gridText('corner', 400_000, 5_300_000, 50),
+      /not WGS 84 degrees.*needs its UTM zone stated/,
+    );
   });
   it('an unknown EPSG code for the grid', () => {
     fails(good, /EPSG:2056 is not supported/, { epsg: 2056 });
@@ -168,11 +207,15 @@ describe('Hostile ASCII grids name the file and the line', () => {
   it('a grid far from the plan says how far', () => {
     let msg = '';
     try {
-      readAsciiGrid('bad.asc', good, { box: { south: 48.1, west: 21.21, north: 48.2, east: 21.22 } });
+      readAsciiGrid('bad.asc', good, {
+        box: { south: 48.1, west: 21.21, north: 48.2, east: 21.22 },
+      });
     } catch (e) {
       msg = (e as Error).message;
     }
     // Cell centres end at 47.139°; 48.1° is 0.961° of latitude further: about 107 km (1° ≈ 111.2 km, from memory).
-    expect(msg).toMatch(/bad\.asc: the elevation model does not cover the plan area: it lies 10[67]\.\d km away/);
+    expect(msg).toMatch(
+      /bad\.asc: the elevation model does not cover the plan area: it lies 10[67]\.\d km away/,
+    );
   });
 });

@@ -7,7 +7,15 @@
  * onto a finer grid is GDAL's bilinear value at that pixel's centre, transformed exactly.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import {
+  mkdtempSync,
+  openSync,
+  readFileSync,
+  readSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import proj4 from 'proj4';
@@ -44,14 +52,33 @@ function heights(cols: number, rows: number, seed: number): number[] {
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
       const smooth = 800 + 40 * Math.sin(c / 7) + 30 * Math.cos(r / 5) + 0.8 * c * r;
-      v.push(r >= 10 && r < 14 && c >= 20 && c < 25 ? NODATA : Math.round((smooth + 20 * rng.uniform()) * 64) / 64);
+      v.push(
+        r >= 10 && r < 14 && c >= 20 && c < 25
+          ? NODATA
+          : Math.round((smooth + 20 * rng.uniform()) * 64) / 64,
+      );
     }
   }
   return v;
 }
 
-function writeAsc(path: string, cols: number, rows: number, x: number, y: number, cell: number, v: number[]) {
-  const lines = [`ncols ${cols}`, `nrows ${rows}`, `xllcorner ${x}`, `yllcorner ${y}`, `cellsize ${cell}`, `NODATA_value ${NODATA}`];
+function writeAsc(
+  path: string,
+  cols: number,
+  rows: number,
+  x: number,
+  y: number,
+  cell: number,
+  v: number[],
+) {
+  const lines = [
+    `ncols ${cols}`,
+    `nrows ${rows}`,
+    `xllcorner ${x}`,
+    `yllcorner ${y}`,
+    `cellsize ${cell}`,
+    `NODATA_value ${NODATA}`,
+  ];
   for (let r = 0; r < rows; r++) lines.push(v.slice(r * cols, (r + 1) * cols).join(' '));
   writeFileSync(path, lines.join('\n') + '\n');
 }
@@ -75,12 +102,44 @@ let utmTif = '';
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'seedfall-dem-'));
-  writeAsc(join(dir, 'geo.asc'), GEO.cols, GEO.rows, GEO.x, GEO.y, GEO.cell, heights(GEO.cols, GEO.rows, 1));
-  writeAsc(join(dir, 'utm.asc'), UTM.cols, UTM.rows, UTM.x, UTM.y, UTM.cell, heights(UTM.cols, UTM.rows, 2));
+  writeAsc(
+    join(dir, 'geo.asc'),
+    GEO.cols,
+    GEO.rows,
+    GEO.x,
+    GEO.y,
+    GEO.cell,
+    heights(GEO.cols, GEO.rows, 1),
+  );
+  writeAsc(
+    join(dir, 'utm.asc'),
+    UTM.cols,
+    UTM.rows,
+    UTM.x,
+    UTM.y,
+    UTM.cell,
+    heights(UTM.cols, UTM.rows, 2),
+  );
   geoTif = join(dir, 'geo.tif');
   utmTif = join(dir, 'utm.tif');
-  gdal('gdal_translate', ['-q', '-ot', 'Float32', '-a_srs', 'EPSG:4326', join(dir, 'geo.asc'), geoTif]);
-  gdal('gdal_translate', ['-q', '-ot', 'Float32', '-a_srs', 'EPSG:32634', join(dir, 'utm.asc'), utmTif]);
+  gdal('gdal_translate', [
+    '-q',
+    '-ot',
+    'Float32',
+    '-a_srs',
+    'EPSG:4326',
+    join(dir, 'geo.asc'),
+    geoTif,
+  ]);
+  gdal('gdal_translate', [
+    '-q',
+    '-ot',
+    'Float32',
+    '-a_srs',
+    'EPSG:32634',
+    join(dir, 'utm.asc'),
+    utmTif,
+  ]);
 });
 afterAll(() => {
   if (dir) rmSync(dir, { recursive: true, force: true });
@@ -90,20 +149,48 @@ afterAll(() => {
 function gdalBilinear(src: string, box: LatLonBox, nx: number, ny: number) {
   const out = join(dir, `warp-${Math.random().toString(36).slice(2)}.asc`);
   gdal('gdalwarp', [
-    '-q', '-overwrite', '-r', 'bilinear', '-et', '0', '-ot', 'Float64', '-t_srs', 'EPSG:4326',
-    '-dstnodata', '-32768', '-te', `${box.west}`, `${box.south}`, `${box.east}`, `${box.north}`,
-    '-ts', `${nx}`, `${ny}`, '-of', 'AAIGrid', src, out,
+    '-q',
+    '-overwrite',
+    '-r',
+    'bilinear',
+    '-et',
+    '0',
+    '-ot',
+    'Float64',
+    '-t_srs',
+    'EPSG:4326',
+    '-dstnodata',
+    '-32768',
+    '-te',
+    `${box.west}`,
+    `${box.south}`,
+    `${box.east}`,
+    `${box.north}`,
+    '-ts',
+    `${nx}`,
+    `${ny}`,
+    '-of',
+    'AAIGrid',
+    src,
+    out,
   ]);
   // Header lines start with a letter (ncols … NODATA_value, dx/dy when the cells are not square).
-  const rows = readFileSync(out, 'utf8').trim().split('\n').filter((l) => !/^[A-Za-z]/.test(l));
+  const rows = readFileSync(out, 'utf8')
+    .trim()
+    .split('\n')
+    .filter((l) => !/^[A-Za-z]/.test(l));
   const dLon = (box.east - box.west) / nx;
   const dLat = (box.north - box.south) / ny;
   const pts: { lat: number; lon: number; z: number }[] = [];
   rows.forEach((line, r) =>
-    line.trim().split(/\s+/).forEach((s, c) => {
-      const z = Number(s);
-      if (z !== -32768) pts.push({ lat: box.north - (r + 0.5) * dLat, lon: box.west + (c + 0.5) * dLon, z });
-    }),
+    line
+      .trim()
+      .split(/\s+/)
+      .forEach((s, c) => {
+        const z = Number(s);
+        if (z !== -32768)
+          pts.push({ lat: box.north - (r + 0.5) * dLat, lon: box.west + (c + 0.5) * dLon, z });
+      }),
   );
   return pts;
 }
@@ -141,7 +228,11 @@ describe('GeoTIFF DEM sampled against GDAL', () => {
         lat: box.south + (box.north - box.south) * rng.uniform(),
         lon: box.west + (box.east - box.west) * rng.uniform(),
       }));
-      const out = gdal('gdallocationinfo', ['-valonly', '-wgs84', tif()], pts.map((p) => `${p.lon} ${p.lat}`).join('\n') + '\n')
+      const out = gdal(
+        'gdallocationinfo',
+        ['-valonly', '-wgs84', tif()],
+        pts.map((p) => `${p.lon} ${p.lat}`).join('\n') + '\n',
+      )
         .trim()
         .split('\n')
         .map(Number);
@@ -164,7 +255,9 @@ describe('GeoTIFF DEM sampled against GDAL', () => {
     const { dem } = await readGeoTiffDem(geoTif, fileSource(geoTif), { box: GEO_BOX });
     // Centre of cell (row 11, col 22) of the nodata block.
     const p = { lat: GEO.y + (GEO.rows - 11.5) * GEO.cell, lon: GEO.x + 22.5 * GEO.cell };
-    expect(gdal('gdallocationinfo', ['-valonly', '-wgs84', geoTif, `${p.lon}`, `${p.lat}`]).trim()).toBe(`${NODATA}`);
+    expect(
+      gdal('gdallocationinfo', ['-valonly', '-wgs84', geoTif, `${p.lon}`, `${p.lat}`]).trim(),
+    ).toBe(`${NODATA}`);
     expect(dem.sample(p)).toBeNull();
     expect(dem.cellAt(p)).toBeNull();
     // Half a cell outside the block the bilinear stencil still touches it: null too.
@@ -177,7 +270,11 @@ describe('GeoTIFF DEM sampled against GDAL', () => {
     const c = utmLL(UTM.x + 900, UTM.y + 700);
     const frame = new LocalFrame(c);
     const ground = dem.ground(frame);
-    for (const [x, y] of [[0, 0], [120, -80], [-300, 210]]) {
+    for (const [x, y] of [
+      [0, 0],
+      [120, -80],
+      [-300, 210],
+    ]) {
       expect(ground.height(x, y)).toBe(dem.sample(frame.toLatLon(x, y))); // common practice
     }
     expect(ground.maxHeight_m).toBeGreaterThanOrEqual(ground.height(0, 0) ?? Infinity);
@@ -190,10 +287,22 @@ describe('A plane DEM', () => {
     const cols = 40;
     const rows = 30;
     const values = new Float32Array(cols * rows);
-    for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) values[r * cols + c] = 600 + 3 * c - 2 * r;
+    for (let r = 0; r < rows; r++)
+      for (let c = 0; c < cols; c++) values[r * cols + c] = 600 + 3 * c - 2 * r;
     const x0 = 510_000;
     const y0 = 5_201_000;
-    const dem = new Dem({ file: 'plane', epsg: 32634, cols, rows, x0, y0, dx: 25, dy: 25, values, nodata: null });
+    const dem = new Dem({
+      file: 'plane',
+      epsg: 32634,
+      cols,
+      rows,
+      x0,
+      y0,
+      dx: 25,
+      dy: 25,
+      values,
+      nodata: null,
+    });
     const rng = new Rng(3);
     for (let k = 0; k < 500; k++) {
       const x = x0 + 12.5 + (cols - 1) * 25 * rng.uniform();
@@ -237,7 +346,18 @@ describe('Hostile GeoTIFFs', () => {
 
   it('a CRS proj4 is not given (EPSG:3035) is named, with the supported list', async () => {
     const laea = join(dir, 'laea.tif');
-    gdal('gdal_translate', ['-q', '-a_srs', 'EPSG:3035', '-a_ullr', '5000000', '2800000', '5060000', '2750000', geoTif, laea]);
+    gdal('gdal_translate', [
+      '-q',
+      '-a_srs',
+      'EPSG:3035',
+      '-a_ullr',
+      '5000000',
+      '2800000',
+      '5060000',
+      '2750000',
+      geoTif,
+      laea,
+    ]);
     await fails(laea, GEO_BOX, /EPSG:3035 is not supported/, /EPSG:32601–32660/);
   });
 
@@ -247,19 +367,31 @@ describe('Hostile GeoTIFFs', () => {
     const msg = await fails(geoTif, box, /does not cover the plan area: it lies [\d.]+ km away/);
     const km = Number(/lies ([\d.]+) km/.exec(msg)?.[1]);
     // Nearest points: same latitude within the overlap band, 0.5° of longitude apart (Karney 2013).
-    const ref = geodesicDistance_m({ lat: 47.015, lon: 21.0595 }, { lat: 47.015, lon: 21.5595 }) / 1000;
+    const ref =
+      geodesicDistance_m({ lat: 47.015, lon: 21.0595 }, { lat: 47.015, lon: 21.5595 }) / 1000;
     expectClose(km, ref, 0.1, 'gap km');
   });
 
   it('a DEM covering part of the plan says on which side and by how much', async () => {
     const box = { ...GEO_BOX, north: 47.06 }; // centres end at 47.0495: 0.0105° ≈ 1168 m short
-    const msg = await fails(geoTif, box, /covers only part of the plan area: it falls short by \d+ m to the north/);
+    const msg = await fails(
+      geoTif,
+      box,
+      /covers only part of the plan area: it falls short by \d+ m to the north/,
+    );
     const m = Number(/by (\d+) m/.exec(msg)?.[1]);
-    expectClose(m, geodesicDistance_m({ lat: 47.0495, lon: 21.03 }, { lat: 47.06, lon: 21.03 }), 2, 'shortfall'); // Karney 2013
+    expectClose(
+      m,
+      geodesicDistance_m({ lat: 47.0495, lon: 21.03 }, { lat: 47.06, lon: 21.03 }),
+      2,
+      'shortfall',
+    ); // Karney 2013
   });
 
   it('a window past the cell limit is refused with the limit', async () => {
-    await expect(readGeoTiffDem('big.tif', fileSource(geoTif), { box: GEO_BOX, maxCells: 100 })).rejects.toThrow(
+    await expect(
+      readGeoTiffDem('big.tif', fileSource(geoTif), { box: GEO_BOX, maxCells: 100 }),
+    ).rejects.toThrow(
       /big\.tif: the plan area needs \d+ × \d+ = \d+ cells, more than the limit of 100/,
     );
   });
@@ -293,7 +425,7 @@ describe('A 4000 × 4000 DEM', () => {
       expect(read.window.cols).toBeLessThanOrEqual(70);
       expect(read.window.rows).toBeLessThanOrEqual(50);
       expect(read.cellsRead).toBe(read.window.cols * read.window.rows);
-      expect(read.cellsRead).toBeLessThan(n * n / 4000);
+      expect(read.cellsRead).toBeLessThan((n * n) / 4000);
       // Bytes fetched: the strips or tiles under the window, a small share of the file.
       expect(read.bytesRead).toBeLessThan(statSync(tif).size / 20);
       const rng = new Rng(co.length + 11);
@@ -301,7 +433,11 @@ describe('A 4000 × 4000 DEM', () => {
         lat: box.south + (box.north - box.south) * rng.uniform(),
         lon: box.west + (box.east - box.west) * rng.uniform(),
       }));
-      const gdalCells = gdal('gdallocationinfo', ['-valonly', '-wgs84', tif], pts.map((p) => `${p.lon} ${p.lat}`).join('\n') + '\n')
+      const gdalCells = gdal(
+        'gdallocationinfo',
+        ['-valonly', '-wgs84', tif],
+        pts.map((p) => `${p.lon} ${p.lat}`).join('\n') + '\n',
+      )
         .trim()
         .split('\n')
         .map(Number);
