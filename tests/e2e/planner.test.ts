@@ -278,13 +278,14 @@ describe('the map planner in Chromium', () => {
     await page.locator('select[data-setting=length]').selectOption('ft');
     await page.locator('select[data-setting=speed]').selectOption('kt');
     await page.locator('[data-tab=plan]').click();
-    // 110 m = 360.892 ft (international foot, 0.3048 m exactly); 13 m/s = 25.2700 kt (1852 m/h).
+    // 110 m = 360.892 ft (international foot, 0.3048 m exactly); 13 m/s = 25.2700 kt (1852 m/h);
+    // shown by the height and speed rules of app/ui/units.ts (whole feet, tenths of a knot).
     await expect(
       page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
-    ).resolves.toBe('360.892');
+    ).resolves.toBe('361');
     await expect(
       page.locator('sf-plan-panel input[data-path="carrier.groundSpeed_mps"]').inputValue(),
-    ).resolves.toBe('25.27');
+    ).resolves.toBe('25.3');
     expect(errors).toEqual([]);
   });
 

@@ -41,13 +41,14 @@ describe('wind inputs in Chromium', () => {
     await expect(
       page.locator('sf-wind-panel select[data-path="winds.reference"]').inputValue(),
     ).resolves.toBe('MSL');
-    // 3000 ft = 914.4 m (international foot); 2410 = from 240° at 10 kt = 5.14444 m/s.
+    // 3000 ft = 914.4 m (international foot); 2410 = from 240° at 10 kt = 5.14444 m/s, shown
+    // to the speed rule's tenth (the plan keeps the exact value).
     await expect(
       page.locator('sf-wind-panel input[data-path="winds.layers[0].altitude_m"]').inputValue(),
     ).resolves.toBe('914.4');
     await expect(
       page.locator('sf-wind-panel input[data-path="winds.layers[0].speed_mps"]').inputValue(),
-    ).resolves.toBe('5.14444');
+    ).resolves.toBe('5.1');
     await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
     await expect
       .poll(() => page.locator('[data-testid=wind-plot] path.sp').getAttribute('d'))
