@@ -1,5 +1,6 @@
-// Runs before `npm test`: the browser tests drive Debian's Chromium and the brief tests read PDFs
-// with poppler-utils. On a fresh Debian machine, as root, it installs what is missing (as
+// Runs before `npm test`: the browser tests drive Debian's Chromium, the brief tests read PDFs
+// with poppler-utils and the terrain tests check elevation models against gdal-bin. On a fresh
+// Debian machine, as root, it installs what is missing (as
 // .ci/run does); otherwise it stops at once with the exact command to run.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
@@ -9,6 +10,7 @@ const NEEDED = [
   { pkg: 'chromium', file: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium' },
   { pkg: 'poppler-utils', file: '/usr/bin/pdftotext' },
   { pkg: 'fonts-dejavu-core', file: '/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf' },
+  { pkg: 'gdal-bin', file: '/usr/bin/gdallocationinfo' },
 ];
 
 const missing = NEEDED.filter((n) => !existsSync(n.file)).map((n) => n.pkg);
