@@ -217,7 +217,7 @@ line(
     ['GPX', () => toGPX(plan, result)],
     ['schedule CSV', () => toScheduleCSV(plan, result)],
     ['sites CSV', () => toSitesCSV(plan)],
-    ['brief', () => briefHtml(plan, result, { safety: briefSafety(safety) })],
+    ['brief', () => briefHtml(plan, result, { safety: briefSafety(safety, result) })],
   ];
   const ratio = (t: number): string => `${(t / tPlan).toFixed(2)}x plan`;
   const sec = (t: number): string => `${(t / 1000).toFixed(2)} s`;

@@ -53,6 +53,8 @@ export interface OverviewOptions {
   height_px?: number;
   /** Hazard area rings ([lat, lon] pairs) to outline, if computed. */
   hazardRings?: [number, number][][];
+  /** No-drop zones: a name and outer rings ([lat, lon] pairs) each. */
+  zones?: { name: string; rings: [number, number][][] }[];
 }
 
 /** Overview map of the plan: sites, chosen variants' reach, 95 % ellipses, windows or zones. */
@@ -117,6 +119,20 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
     );
   }
 
+  const zoneLabels: { at: XY; name: string }[] = [];
+  for (const z of opts.zones ?? []) {
+    for (const ring of z.rings) {
+      const rp = ring.map(([lat, lon]) => L({ lat, lon }));
+      if (rp.length < 3) continue;
+      pts.push(...rp);
+      shapes.unshift(
+        `<polygon class="nodrop" points="${rp.map((p) => `${r1(p.x)},${r1(p.y)}`).join(' ')}"/>`,
+      );
+      // The name at the ring's highest corner, where it least covers the zone's own area.
+      zoneLabels.push({ at: rp.reduce((a, b) => (b.y > a.y ? b : a)), name: z.name });
+    }
+  }
+
   // View box in metres (y north up: the SVG y axis is flipped by a transform).
   let minX = Math.min(...pts.map((p) => p.x));
   let maxX = Math.max(...pts.map((p) => p.x));
@@ -169,6 +185,12 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
       );
     })
     .join('');
+  const zoneNames = zoneLabels
+    .map(
+      (z) =>
+        `<text class="zn" x="${r1(tx(z.at.x))}" y="${r1(ty(z.at.y) - 4)}"${tx(z.at.x) > W / 2 ? ' text-anchor="end"' : ''}>${esc(z.name.length > 40 ? `${z.name.slice(0, 39)}…` : z.name)}</text>`,
+    )
+    .join('');
   const rx = tx(0);
   const ry = ty(0);
   const release = `<path class="release" d="M${r1(rx)},${r1(ry - 9)} L${r1(rx + 9)},${r1(ry)} L${r1(rx)},${r1(ry + 9)} L${r1(rx - 9)},${r1(ry)} Z"/>`;
@@ -191,6 +213,8 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
 .overview .zone{fill:none;stroke-width:1.5;stroke-dasharray:2 4;vector-effect:non-scaling-stroke}
 .overview .e95{fill-opacity:0.12;stroke-width:1.2;vector-effect:non-scaling-stroke}
 .overview .hazard{fill:#d92d20;fill-opacity:0.06;stroke:#b42318;stroke-width:1.5;stroke-dasharray:10 3 2 3;vector-effect:non-scaling-stroke}
+.overview .nodrop{fill:#555;fill-opacity:0.28;stroke:#222;stroke-width:1.2;vector-effect:non-scaling-stroke}
+.overview .zn{font-size:10px;font-style:italic;fill:#222;paint-order:stroke;stroke:#fff;stroke-width:3px}
 .overview .site circle{fill:#fff;stroke-width:2.5}
 .overview .site .ok{stroke:#1a7f37}.overview .site .bad{stroke:#b42318}
 .overview .site text{font-weight:700;font-size:11px;paint-order:stroke;stroke:#fff;stroke-width:3px}
@@ -201,7 +225,7 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
 <g class="grid">${grid.join('')}</g>
 ${trackLine}
 <g transform="matrix(${scale},0,0,${-scale},${W / 2 - cx * scale},${H / 2 + cy * scale})">${inner}</g>
-${wins}${release}${siteMarks}${scaleBar}${north}
+${wins}${zoneNames}${release}${siteMarks}${scaleBar}${north}
 <text x="6" y="14" class="gl">grid: metres east/north of the release point</text>
 </svg>`;
 }

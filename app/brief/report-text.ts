@@ -64,7 +64,9 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
         : 'none';
     rows.push([
       s.id,
-      `${s.variant}${s.pinned ? ' (pinned)' : ''}${s.meetsRequired ? '' : ' !'}`,
+      !s.pinned && s.recommendation?.kind === 'unreachable'
+        ? 'no variant can reach this site'
+        : `${s.variant}${s.pinned ? ' (pinned)' : ''}${s.meetsRequired ? '' : ' !'}`,
       s.reachable ? 'yes' : 'NO',
       pHitText(s.pHit, s.pHitSE),
       fix(s.cep_m),
@@ -77,7 +79,18 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
       `${fix(s.ellipse95.semiMajor_m)} x ${fix(s.ellipse95.semiMinor_m)} @ ${fix(s.ellipse95.azimuth_deg, 0)}°`,
     ]);
   }
+  // Why each site has its variant, one short line per site (the recommendation's reason).
+  const why = [
+    '',
+    'Why this variant:',
+    ...r.sites.map((s) =>
+      s.pinned
+        ? `  ${s.id}: pinned in the plan; ${s.recommendation?.kind === 'unreachable' ? s.recommendation.why : `the rule would pick ${s.recommended}: ${s.recommendation?.why ?? ''}`}`
+        : `  ${s.id}: ${s.recommendation?.why ?? ''}`,
+    ),
+  ];
   const foot = [
+    ...why,
     '',
     '! = below the required P(hit)',
     '± = Monte Carlo standard error of P(hit), √(p(1−p)/n) over the samples',

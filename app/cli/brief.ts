@@ -39,7 +39,7 @@ export async function briefCommand(
   const html = briefHtml(plan, result, {
     sweep,
     paper: args.paper,
-    safety: briefSafety(planSafety(plan, result)),
+    safety: briefSafety(planSafety(plan, result), result),
   });
   if (args.out) write(args.out, html);
   if (args.pdf) {

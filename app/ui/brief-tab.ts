@@ -25,7 +25,7 @@ export function openBrief(s: PlanStore): void {
   const html = briefHtml(pair.plan, pair.result, {
     paper: s.settings.paper,
     printBar: true,
-    safety: s.safety ? briefSafety(s.safety) : undefined,
+    safety: s.safety ? briefSafety(s.safety, pair.result) : undefined,
     sweep: s.sweep && s.sweep.plan === pair.plan ? s.sweep : undefined,
   });
   const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));

@@ -48,7 +48,7 @@ export async function goldenOutputs(): Promise<Record<string, string>> {
   const brief = briefHtml(plan, result, {
     sweep,
     paper: 'A4',
-    safety: briefSafety(planSafety(plan, result)),
+    safety: briefSafety(planSafety(plan, result), result),
     generatedAt: GOLDEN_GENERATED_AT,
   });
   return {

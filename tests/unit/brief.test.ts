@@ -61,7 +61,7 @@ describe('the drop brief', () => {
 
   it('says which error sources P(hit) includes, gusts and vertical air with their sizes', () => {
     const unc = html.slice(html.indexOf('<h2>Uncertainty (1σ)</h2>'));
-    const section = unc.slice(0, unc.indexOf('</div>'));
+    const section = unc.slice(0, unc.indexOf('</section>'));
     // The demo plan leaves turbulence at its default, auto (docs/plan-format.md).
     expect(html).toContain(
       'Included error sources: forecast wind error, gusts, vertical air, descent rate',
@@ -124,10 +124,10 @@ describe('the drop brief', () => {
     expect(briefTimes('2026-06-30T23:15:00-05:00').utc).toBe('04:15 UTC 2026-07-01');
   });
 
-  it('sets the paper size for the whole brief and landscape for the schedule', () => {
+  it('sets the paper size for the cover and landscape for the pages after it', () => {
     const letter = briefHtml(plan, result, { paper: 'Letter' });
-    expect(letter).toContain('@page { size: Letter;');
-    expect(letter).toContain('@page schedule { size: Letter landscape;');
+    expect(letter).toMatch(/@page \{\s*size: Letter;/);
+    expect(letter).toContain('@page wide { size: Letter landscape;');
   });
 });
 
