@@ -133,6 +133,25 @@ describe('wind inputs in Chromium', () => {
     await shot(page, 'winds-timeline-zone');
     await page.locator('[data-testid=timeline-windows]').scrollIntoViewIfNeeded();
     await shot(page, 'winds-timeline-windows');
+    // The brief opened now prints this timeline with the same window list.
+    const [brief] = await Promise.all([
+      context.waitForEvent('page'),
+      page.getByRole('button', { name: 'Brief' }).click(),
+    ]);
+    await brief.waitForLoadState('load');
+    const printed = await brief
+      .locator('section.timeline-section table.windows tbody tr')
+      .evaluateAll((rows) =>
+        rows.map((r) =>
+          [...r.querySelectorAll('td')]
+            .slice(0, 3)
+            .map((td) => td.textContent!.trim())
+            .join('|'),
+        ),
+      );
+    expect(printed).toEqual(expected);
+    await brief.locator('section.timeline-section').scrollIntoViewIfNeeded();
+    await shot(brief, 'winds-timeline-brief');
     expect(errors).toEqual([]);
     await context.close();
   });
