@@ -1,7 +1,8 @@
-// The crew checklist of <sf-safety-panel>: the crew's own items with state, who, when and a note.
-import { css, html } from 'lit';
+// The crew checklist of <sf-safety-panel>: the crew's own items with state, who, when and a note;
+// an item is done only with a person's name.
+import { css, html, type ReactiveControllerHost } from 'lit';
 import type { ChecklistItem } from '../plan';
-import { checklistOf, DEFAULT_MANUAL_ITEMS } from '../safety';
+import { checklistOf, DEFAULT_MANUAL_ITEMS, doneWithoutName } from '../safety';
 import type { PlanStore } from './plan-store';
 
 /** Styles of the checklist items. */
@@ -24,6 +25,10 @@ export const crewChecklistStyles = css`
   }
   .item .meta input {
     width: 9em;
+  }
+  .item .who-missing {
+    flex-basis: 100%;
+    font-size: 12px;
   }
 `;
 
@@ -53,16 +58,11 @@ function setItem(s: PlanStore, i: number, patch: Partial<ChecklistItem>): void {
   setChecklist(s, items);
 }
 
-/** Sets an item's state; who defaults to the name typed for the sign-off (`signer`). */
-function setState(s: PlanStore, i: number, state: ChecklistItem['state'], signer: string): void {
-  const cur = checklist(s)[i] ?? {};
-  const who = (typeof cur.who === 'string' && cur.who) || signer || undefined;
-  setItem(s, i, {
-    state,
-    who,
-    when: state === 'open' ? undefined : new Date().toISOString().slice(0, 16),
-  });
-}
+/** The key a pending tick is kept under: the item's id, or its place when it has none. */
+const keyOf = (m: Partial<ChecklistItem>, i: number): string =>
+  typeof m.id === 'string' ? `id:${m.id}` : `at:${i}`;
+
+const now = (): string => new Date().toISOString().slice(0, 16);
 
 function addItem(s: PlanStore): void {
   const items = checklist(s);
@@ -71,16 +71,80 @@ function addItem(s: PlanStore): void {
   setChecklist(s, [...checklistRaw(s), { id: `item-${n}`, text: 'New item', state: 'open' }]);
 }
 
-/** The items and the buttons that add one or reset to the template. */
-export function crewChecklist(s: PlanStore, signer: () => string) {
-  return html`${checklist(s).map(
-      (m, i) =>
-        html`<div class="item" data-item=${String(m.id ?? '')}>
+/**
+ * The crew items with state, who, when and a note, and the buttons that add one or reset to the
+ * template. An item is marked done only with a person's name: the item's own "who", or the name
+ * typed for the sign-off. Without one the tick is refused with a message beside "who" and kept
+ * pending; typing a name then completes it. An item that is done with nobody named (an older
+ * file) is shown as such and counts as open (readiness), never filled in silently.
+ */
+export class CrewChecklist {
+  /** Ticks waiting for a name, by item key. */
+  private readonly pending = new Set<string>();
+
+  constructor(private readonly host: ReactiveControllerHost) {}
+
+  private setState(
+    s: PlanStore,
+    i: number,
+    state: ChecklistItem['state'],
+    signer: string,
+    select: HTMLSelectElement,
+  ): void {
+    const cur = checklist(s)[i] ?? {};
+    const key = keyOf(cur, i);
+    const who = (typeof cur.who === 'string' && cur.who.trim()) || signer.trim() || undefined;
+    if (state === 'done' && !who) {
+      // Refused: the stored state stays, the select shows it again, the tick waits for a name.
+      this.pending.add(key);
+      select.value = String(cur.state ?? 'open');
+      this.host.requestUpdate();
+      return;
+    }
+    this.pending.delete(key);
+    setItem(s, i, { state, who, when: state === 'open' ? undefined : now() });
+  }
+
+  private setWho(s: PlanStore, i: number, text: string): void {
+    const cur = checklist(s)[i] ?? {};
+    const key = keyOf(cur, i);
+    const who = text.trim() ? text : undefined;
+    if (who && this.pending.has(key)) {
+      this.pending.delete(key);
+      setItem(s, i, { who, state: 'done', when: now() });
+      return;
+    }
+    setItem(s, i, { who });
+  }
+
+  private reset(): void {
+    this.pending.clear();
+    this.host.requestUpdate();
+  }
+
+  /** Why the item cannot count as done yet, beside its "who" field; '' when nothing is missing. */
+  private missing(m: Partial<ChecklistItem>, i: number): string {
+    if (this.pending.has(keyOf(m, i)) && m.state !== 'done') {
+      return 'Not marked done: enter who checked this item (or your name under Sign-off).';
+    }
+    if (doneWithoutName(m)) {
+      return 'Marked done but nobody is named: enter who checked it. It counts as open until then.';
+    }
+    return '';
+  }
+
+  render(s: PlanStore, signer: () => string) {
+    return html`${checklist(s).map((m, i) => {
+        const missing = this.missing(m, i);
+        return html`<div class="item" data-item=${String(m.id ?? '')}>
           <select
             aria-label=${`State of: ${m.text}`}
-            @change=${(e: Event) => setState(s, i, (e.target as HTMLSelectElement).value as ChecklistItem['state'], signer())}
+            @change=${(e: Event) => {
+              const el = e.target as HTMLSelectElement;
+              this.setState(s, i, el.value as ChecklistItem['state'], signer(), el);
+            }}
           >
-            ${(['open', 'done', 'n/a'] as const).map((st) => html`<option value=${st} ?selected=${m.state === st}>${st}</option>`)}
+            ${(['open', 'done', 'n/a'] as const).map((st) => html`<option value=${st} .selected=${m.state === st}>${st}</option>`)}
           </select>
           <input
             class="text"
@@ -91,9 +155,10 @@ export function crewChecklist(s: PlanStore, signer: () => string) {
           <div class="meta">
             <input
               aria-label=${`Who, item ${i + 1}`}
+              aria-invalid=${missing ? 'true' : 'false'}
               placeholder="who"
               .value=${String(m.who ?? '')}
-              @change=${(e: Event) => setItem(s, i, { who: (e.target as HTMLInputElement).value || undefined })}
+              @change=${(e: Event) => this.setWho(s, i, (e.target as HTMLInputElement).value)}
             />
             <span class="muted">${String(m.when ?? '')}</span>
             <input
@@ -105,27 +170,41 @@ export function crewChecklist(s: PlanStore, signer: () => string) {
             <button
               aria-label=${`Delete item ${i + 1}`}
               title="Delete this item"
-              @click=${() =>
+              @click=${() => {
+                this.reset();
                 setChecklist(
                   s,
                   checklistRaw(s).filter((_, j) => j !== i),
-                )}
+                );
+              }}
             >
               ✕
             </button>
+            ${
+              missing
+                ? html`<span
+                    class="field-error who-missing"
+                    role=${this.pending.has(keyOf(m, i)) ? 'alert' : 'note'}
+                    >${missing}</span
+                  >`
+                : ''
+            }
           </div>
-        </div>`,
-    )}
-    <div class="row">
-      <button @click=${() => addItem(s)}>Add item</button>
-      <button
-        @click=${() =>
-          setChecklist(
-            s,
-            DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m })),
-          )}
-      >
-        Reset to template
-      </button>
-    </div>`;
+        </div>`;
+      })}
+      <div class="row">
+        <button @click=${() => addItem(s)}>Add item</button>
+        <button
+          @click=${() => {
+            this.reset();
+            setChecklist(
+              s,
+              DEFAULT_MANUAL_ITEMS.map((m) => ({ ...m })),
+            );
+          }}
+        >
+          Reset to template
+        </button>
+      </div>`;
+  }
 }

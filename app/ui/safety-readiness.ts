@@ -69,13 +69,67 @@ export const readinessStyles = css`
     font-size: 12px;
     color: var(--sf-muted);
   }
+  .site-links {
+    display: flex;
+    flex-wrap: wrap;
+    gap: 4px;
+    margin: 3px 0;
+  }
+  .site-links details {
+    flex-basis: 100%;
+  }
+  .site-link {
+    font-size: 12px;
+    padding: 0 6px;
+    font-variant-numeric: tabular-nums;
+  }
+  .site-link[aria-pressed='true'] {
+    border-color: var(--sf-accent);
+    font-weight: 700;
+  }
   .nums {
     font-size: 12px;
     font-variant-numeric: tabular-nums;
   }
 `;
 
-/** Each automatic check with its status badge, its reason and its figures. */
+/** Site buttons shown before the rest fold away under "N more" (a plan may have 1,000 sites). */
+const LINKS_SHOWN = 12;
+
+/** Selects a site and asks the map to show it. */
+function goTo(s: PlanStore, id: string): void {
+  s.selectSite(id);
+  s.focusSite(id);
+}
+
+/** The sites a check names, each a button that selects it and shows it on the map. */
+function siteLinks(s: PlanStore, ids: readonly string[]) {
+  if (ids.length === 0) return '';
+  const link = (id: string) =>
+    html`<button
+      class="site-link"
+      data-site=${id}
+      aria-pressed=${s.selectedSite === id ? 'true' : 'false'}
+      title=${`Select ${id} and show it on the map`}
+      @click=${() => goTo(s, id)}
+    >
+      ${id}
+    </button>`;
+  const rest = ids.slice(LINKS_SHOWN);
+  return html`<div class="site-links" role="group" aria-label="Sites this check names">
+    ${ids.slice(0, LINKS_SHOWN).map(link)}
+    ${
+      rest.length
+        ? html`<details>
+            <summary>${rest.length} more</summary>
+            ${rest.map(link)}
+          </details>`
+        : ''
+    }
+  </div>`;
+}
+
+/** Each automatic check with its status badge, its reason, the sites it names and its figures. */
 export function checksList(s: PlanStore) {
   const safety = s.safety;
   if (!safety) return html`<p class="muted">Checks run with the next planning result…</p>`;
@@ -86,7 +140,7 @@ export function checksList(s: PlanStore) {
           >${STATE_LABEL[c.status]}</span
         >
         <div>
-          <b>${c.title}</b><br />${c.why}
+          <b>${c.title}</b><br />${c.why} ${siteLinks(s, c.sites ?? [])}
           ${
             Object.keys(c.numbers).length
               ? html`<details>

@@ -1,6 +1,7 @@
 // The sign-off of <sf-safety-panel>: a name, a reason when checks fail, and "Mark ready".
 import { css, html, type ReactiveControllerHost } from 'lit';
 import { planFingerprint } from '../plan';
+import { doneWithoutName } from '../safety';
 import type { PlanStore } from './plan-store';
 
 /** Styles of the sign-off form. */
@@ -49,6 +50,16 @@ export class SafetySignOff {
     const failing = safety.checks.filter((c) => c.status === 'fail');
     if (failing.length > 0 && !this.reason.trim()) {
       this.refuse(`${failing.length} automatic check(s) fail: write the reason for going ahead.`);
+      return;
+    }
+    const unnamed = safety.checklist.filter(doneWithoutName);
+    if (unnamed.length > 0) {
+      const what = unnamed.map((m) => `“${m.text}”`);
+      this.refuse(
+        `${unnamed.length === 1 ? 'A crew item is' : `${unnamed.length} crew items are`} marked ` +
+          `done with nobody named (${what.slice(0, 3).join(', ')}${what.length > 3 ? ` and ${what.length - 3} more` : ''}): ` +
+          'enter who checked each one first.',
+      );
       return;
     }
     if (safety.checklist.some((m) => m.state === 'open')) {

@@ -93,6 +93,22 @@ export class SeedfallApp extends LitElement {
         margin: 0;
         flex: 1 1 30em;
       }
+      .plan-warnings {
+        background: #fffaf0;
+        border-left: 4px solid var(--sf-warn-line);
+        border-bottom: 1px solid var(--sf-warn-line);
+        padding: 4px 10px;
+        font-size: 13px;
+        max-height: 9em;
+        overflow: auto;
+      }
+      .plan-warnings ul {
+        margin: 2px 0 0 18px;
+        padding: 0;
+      }
+      .plan-warnings summary {
+        cursor: pointer;
+      }
       main {
         display: grid;
         grid-template-columns: minmax(0, 1fr) minmax(380px, 48%);

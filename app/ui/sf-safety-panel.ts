@@ -6,7 +6,7 @@ import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
 import { checksList, readinessState, readinessStyles } from './safety-readiness';
-import { crewChecklist, crewChecklistStyles } from './crew-checklist';
+import { CrewChecklist, crewChecklistStyles } from './crew-checklist';
 import { SafetySignOff, signOffStyles } from './safety-signoff';
 import { noDropZones } from './no-drop-zones';
 
@@ -58,6 +58,19 @@ export class SfSafetyPanel extends StoreElement {
   ];
 
   private readonly signOff = new SafetySignOff(this);
+  private readonly crew = new CrewChecklist(this);
+  /** The site buttons of the checks show which site is selected. */
+  private readonly onSelect = (): void => this.requestUpdate();
+
+  connectedCallback(): void {
+    super.connectedCallback();
+    this.store?.addEventListener('select-site', this.onSelect);
+  }
+
+  disconnectedCallback(): void {
+    this.store?.removeEventListener('select-site', this.onSelect);
+    super.disconnectedCallback();
+  }
 
   render() {
     const s = this.store;
@@ -68,7 +81,7 @@ export class SfSafetyPanel extends StoreElement {
       <h3>Automatic checks</h3>
       ${checksList(s)}
       <h3>Crew checklist</h3>
-      ${crewChecklist(s, () => this.signOff.signer)}
+      ${this.crew.render(s, () => this.signOff.signer)}
       <h3>Sign-off</h3>
       ${this.signOff.render()}
       <h3>Settings (match local rules)</h3>

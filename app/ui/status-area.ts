@@ -4,7 +4,19 @@ import { downloadDamaged } from './downloads';
 import type { PlanStore } from './plan-store';
 import { DAMAGED_KEY } from './saved-state';
 
-/** Standing alerts that must not scroll away: a damaged saved draft, autosave failures. */
+/** Warnings shown in full; the rest fold away under "N more" (a plan may give hundreds). */
+const WARNINGS_SHOWN = 4;
+
+/**
+ * The plan's warnings as the crew must see them from every tab: the checks of the file (no time,
+ * a crew item done with nobody named, …) and the planner's (wind layers that do not cover the
+ * fall, …), each once.
+ */
+export function planWarnings(s: PlanStore): string[] {
+  return [...new Set([...s.warnings, ...(s.result?.warnings ?? [])])];
+}
+
+/** Standing alerts that must not scroll away: a damaged saved draft, the plan's warnings, autosave failures. */
 export function renderAlerts(s: PlanStore): TemplateResult[] {
   const d = s.damaged;
   const out: TemplateResult[] = [];
@@ -38,6 +50,33 @@ export function renderAlerts(s: PlanStore): TemplateResult[] {
             : html`<button data-testid="dismiss-damaged" @click=${() => s.dismissDamaged()}>
                 Discard it and resume autosave
               </button>`
+        }
+      </div>`,
+    );
+  }
+  const warnings = planWarnings(s);
+  if (warnings.length > 0) {
+    const head = warnings.slice(0, WARNINGS_SHOWN);
+    const rest = warnings.slice(WARNINGS_SHOWN);
+    out.push(
+      html`<div class="plan-warnings" role="status" data-testid="plan-warnings">
+        ${
+          warnings.length === 1
+            ? html`<strong>Warning:</strong> ${warnings[0]}`
+            : html`<strong>Warnings:</strong>
+                <ul>
+                  ${head.map((w) => html`<li>${w}</li>`)}
+                </ul>`
+        }
+        ${
+          rest.length
+            ? html`<details>
+                <summary>${rest.length} more</summary>
+                <ul>
+                  ${rest.map((w) => html`<li>${w}</li>`)}
+                </ul>
+              </details>`
+            : ''
         }
       </div>`,
     );
