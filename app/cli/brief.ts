@@ -1,7 +1,14 @@
 // `brief`: the drop brief as HTML and/or PDF, with an optional P(hit)-against-altitude sweep.
 import { briefHtml, briefSafety } from '../brief';
 import type { Plan } from '../plan';
-import { altitudeSweep, sweepHeightsAGL, type PlanResult, type SweepPoint } from '../planner';
+import {
+  altitudeSweep,
+  planTimeline,
+  sweepHeightsAGL,
+  TIMELINE_STEP_S,
+  type PlanResult,
+  type SweepPoint,
+} from '../planner';
 import { planSafety } from '../safety';
 import { fail, oneLine, type Args, type CliIO } from './args';
 import { write } from './plan-file';
@@ -36,8 +43,14 @@ export async function briefCommand(
       points: altitudeSweep(plan, siteId, variantId, heights),
     };
   }
+  // The same timeline as the app's Timeline button (planTimeline, every 15 min) when there are forecasts.
+  const timeline =
+    (plan.winds.forecasts ?? []).length > 0
+      ? planTimeline(plan, { step_s: TIMELINE_STEP_S })
+      : undefined;
   const html = briefHtml(plan, result, {
     sweep,
+    timeline,
     paper: args.paper,
     safety: briefSafety(planSafety(plan, result), result),
   });

@@ -27,6 +27,7 @@ export function openBrief(s: PlanStore): void {
     printBar: true,
     safety: s.safety ? briefSafety(s.safety, pair.result) : undefined,
     sweep: s.sweep && s.sweep.plan === pair.plan ? s.sweep : undefined,
+    timeline: s.timeline && s.timeline.plan === pair.plan ? s.timeline.entries : undefined,
   });
   const url = URL.createObjectURL(new Blob([html], { type: 'text/html' }));
   const w = window.open(url, '_blank');
