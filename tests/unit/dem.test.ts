@@ -251,6 +251,28 @@ describe('GeoTIFF DEM sampled against GDAL', () => {
     });
   }
 
+  it('a point-registered GeoTIFF (AREA_OR_POINT=Point) reads its cells where GDAL does', async () => {
+    // GDAL writes the tie point at the first cell's centre and reads it back half a cell out.
+    const point = join(dir, 'point.tif');
+    gdal('gdal_translate', ['-q', '-mo', 'AREA_OR_POINT=Point', geoTif, point]);
+    expect(gdal('gdalinfo', [point])).toMatch(/AREA_OR_POINT=Point/);
+    const { dem } = await readGeoTiffDem(point, fileSource(point), { box: GEO_BOX });
+    const rng = new Rng(21);
+    const pts = Array.from({ length: 200 }, () => ({
+      lat: GEO_BOX.south + (GEO_BOX.north - GEO_BOX.south) * rng.uniform(),
+      lon: GEO_BOX.west + (GEO_BOX.east - GEO_BOX.west) * rng.uniform(),
+    }));
+    const out = gdal(
+      'gdallocationinfo',
+      ['-valonly', '-wgs84', point],
+      pts.map((p) => `${p.lon} ${p.lat}`).join('\n') + '\n',
+    )
+      .trim()
+      .split('\n')
+      .map(Number);
+    pts.forEach((p, i) => expect(dem.cellAt(p)).toBe(out[i] === NODATA ? null : out[i])); // GDAL gdallocationinfo
+  });
+
   it('a point over nodata samples null, never 0, and gdallocationinfo reads nodata there', async () => {
     const { dem } = await readGeoTiffDem(geoTif, fileSource(geoTif), { box: GEO_BOX });
     // Centre of cell (row 11, col 22) of the nodata block.
