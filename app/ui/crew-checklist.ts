@@ -58,9 +58,12 @@ function setItem(s: PlanStore, i: number, patch: Partial<ChecklistItem>): void {
   setChecklist(s, items);
 }
 
-/** The key a pending tick is kept under: the item's id, or its place when it has none. */
+/**
+ * The key a pending tick is kept under: the item's id (or its place when it has none) and its
+ * text, so a tick never carries over to another item, or to another plan opened meanwhile.
+ */
 const keyOf = (m: Partial<ChecklistItem>, i: number): string =>
-  typeof m.id === 'string' ? `id:${m.id}` : `at:${i}`;
+  JSON.stringify([typeof m.id === 'string' ? m.id : i, String(m.text ?? '')]);
 
 const now = (): string => new Date().toISOString().slice(0, 16);
 
