@@ -123,8 +123,8 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
   for (const z of opts.zones ?? []) {
     for (const ring of z.rings) {
       const rp = ring.map(([lat, lon]) => L({ lat, lon }));
+      // Not in the view's extent: a wide zone must not shrink the sites; the SVG clips it.
       if (rp.length < 3) continue;
-      pts.push(...rp);
       shapes.unshift(
         `<polygon class="nodrop" points="${rp.map((p) => `${r1(p.x)},${r1(p.y)}`).join(' ')}"/>`,
       );
@@ -188,7 +188,7 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
   const zoneNames = zoneLabels
     .map(
       (z) =>
-        `<text class="zn" x="${r1(tx(z.at.x))}" y="${r1(ty(z.at.y) - 4)}"${tx(z.at.x) > W / 2 ? ' text-anchor="end"' : ''}>${esc(z.name.length > 40 ? `${z.name.slice(0, 39)}…` : z.name)}</text>`,
+        `<text class="zn" x="${r1(Math.min(W - 4, Math.max(4, tx(z.at.x))))}" y="${r1(Math.min(H - 30, Math.max(28, ty(z.at.y) - 4)))}"${tx(z.at.x) > W / 2 ? ' text-anchor="end"' : ''}>${esc(z.name.length > 40 ? `${z.name.slice(0, 39)}…` : z.name)}</text>`,
     )
     .join('');
   const rx = tx(0);

@@ -38,7 +38,16 @@ export async function printPdf(html: string, path: string, paper: 'A4' | 'Letter
     );
     const page = await context.newPage();
     await page.setContent(html, { waitUntil: 'load' });
-    await page.pdf({ path, format: paper, printBackground: true, preferCSSPageSize: true });
+    // The brief numbers its pages itself ("page N of M" in @page margin boxes, Chromium 131 and
+    // later), the same when printed from the app; Chromium's own header and footer stay off, or
+    // every page would carry the numbers twice.
+    await page.pdf({
+      path,
+      format: paper,
+      printBackground: true,
+      preferCSSPageSize: true,
+      displayHeaderFooter: false,
+    });
   } finally {
     await browser.close();
   }

@@ -91,6 +91,29 @@ describe('the drop brief', () => {
     expect(h).not.toContain('data-source="verticalAir"');
   });
 
+  it('names no variant for a site no variant can reach, and prints each variant’s touchdown energy', () => {
+    const lost = result.sites.filter((s) => s.recommendation.kind === 'unreachable' && !s.pinned);
+    expect(lost.length).toBeGreaterThan(0);
+    for (const s of lost) {
+      const row = html.slice(html.indexOf(`<tr data-site="${s.id}">`));
+      const cells = row.slice(0, row.indexOf('</tr>'));
+      expect(cells).toContain('no variant can reach this site');
+      expect(cells).not.toContain(`${s.variant}<`);
+    }
+    // One row per variant with mass, speed and energy ½·m·v² in J and ft-lbf (1 ft-lbf =
+    // 0.3048 m × 4.4482216152605 N, NIST SP 811 App. B).
+    for (const v of plan.variants) {
+      const row = new RegExp(`<tr data-variant="${v.id}">(.*?)</tr>`, 's').exec(html)![1];
+      const nums = [...row.matchAll(/<td class="num[^"]*">([\d.]+)<\/td>/g)].map((m) =>
+        Number(m[1]),
+      );
+      const [, mass, , , speed, joules, ftlbf] = nums;
+      expect(joules).toBeCloseTo(0.5 * mass * speed * speed, 0);
+      expect(ftlbf).toBeCloseTo(joules / (0.3048 * 4.4482216152605), 0);
+    }
+    expect(html).toContain('Local rules govern');
+  });
+
   it('draws the wind profile and the hodograph', () => {
     expect(html).toContain('aria-label="Wind profile"');
     expect(html).toContain('aria-label="Hodograph"');

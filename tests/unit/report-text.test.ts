@@ -66,4 +66,23 @@ describe('the text report', () => {
     // Every sample is the nominal flight: P(hit) is 0 or 1 with no sampling error.
     for (const s of none.result.sites) expect([0, 1]).toContain(s.pHit);
   });
+
+  it('says "no variant can reach this site" instead of naming one, and why each site has its variant', () => {
+    const lines = text.split('\n');
+    for (const s of result.sites) {
+      const row = lines.find((l) => l.startsWith(`${s.id} `))!;
+      if (s.recommendation.kind === 'unreachable' && !s.pinned) {
+        expect(row).toContain('no variant can reach this site');
+        expect(row).not.toContain(s.variant);
+      } else {
+        expect(row).toContain(s.variant);
+      }
+      const why = lines.find((l) => l.startsWith(`  ${s.id}: `))!;
+      expect(why).toContain(s.pinned ? 'pinned in the plan' : s.recommendation.why);
+    }
+    // The demo plan has an unpinned site no variant can reach (s11, beyond every reach area).
+    expect(result.sites.some((s) => s.recommendation.kind === 'unreachable' && !s.pinned)).toBe(
+      true,
+    );
+  });
 });
