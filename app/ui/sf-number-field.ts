@@ -56,7 +56,10 @@ export class SfNumberField extends SfFieldBase {
   /** When the field is optional, an empty input removes the value (the default applies). */
   @property({ type: Boolean }) optional = false;
   @property() placeholder = '';
-  /** Table-cell form: no visible label (it becomes the accessible name), no unit. */
+  /**
+   * Table-cell form: no visible label (it becomes the accessible name), no unit, and no message
+   * of its own (the field is marked invalid; the table shows the row's messages full width).
+   */
   @property({ type: Boolean }) compact = false;
 
   constructor() {
@@ -115,15 +118,15 @@ export class SfNumberField extends SfFieldBase {
     const msg = this.store?.messageAt(this.path);
     if (this.compact) {
       return html`<input
-          class="compact"
-          aria-label=${this.unitLabel() ? `${this.label} (${this.unitLabel()})` : this.label}
-          inputmode="decimal"
-          .value=${this.text()}
-          aria-invalid=${msg ? 'true' : 'false'}
-          title=${msg ?? ''}
-          data-path=${this.path}
-          @change=${this.onChange}
-        />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
+        class="compact"
+        aria-label=${this.unitLabel() ? `${this.label} (${this.unitLabel()})` : this.label}
+        inputmode="decimal"
+        .value=${this.text()}
+        aria-invalid=${msg ? 'true' : 'false'}
+        title=${msg ?? ''}
+        data-path=${this.path}
+        @change=${this.onChange}
+      />`;
     }
     return html`${this.labelled(
         html`<span class="box">

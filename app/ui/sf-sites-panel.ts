@@ -92,6 +92,9 @@ export class SfSitesPanel extends StoreElement {
       .c-tol {
         grid-area: tol;
       }
+      .c-msg {
+        grid-column: 1 / -1;
+      }
       td input,
       td select,
       td sf-coord-field,
@@ -216,16 +219,28 @@ export class SfSitesPanel extends StoreElement {
       const path = `sites[${i}].${key}`;
       const msg = s.messageAt(path);
       return html`<input
-          class=${cls}
-          aria-label=${`Site ${i + 1} ${key}`}
-          data-path=${path}
-          .value=${String(s.get(path) ?? '')}
-          aria-invalid=${msg ? 'true' : 'false'}
-          @change=${(e: Event) => {
-            const v = (e.target as HTMLInputElement).value;
-            s.edit(path, key === 'name' && v === '' ? undefined : v);
-          }}
-        />${msg ? html`<div class="field-error" role="alert">${msg}</div>` : ''}`;
+        class=${cls}
+        aria-label=${`Site ${i + 1} ${key}`}
+        data-path=${path}
+        .value=${String(s.get(path) ?? '')}
+        aria-invalid=${msg ? 'true' : 'false'}
+        title=${msg ?? ''}
+        @change=${(e: Event) => {
+          const v = (e.target as HTMLInputElement).value;
+          s.edit(path, key === 'name' && v === '' ? undefined : v);
+        }}
+      />`;
+    };
+    // The row's messages on a line of their own, full width: a narrow cell would wrap each word.
+    // The position field shows its own message under itself.
+    const rowMessages = (i: number) => {
+      const keys = ['id', 'name', 'lat', 'lon', 'elevation_m', 'tolerance_m', 'variant'];
+      const msgs = keys.map((k) => s.messageAt(`sites[${i}].${k}`)).filter((m) => m);
+      return msgs.length
+        ? html`<td class="c-msg" role="alert">
+            ${msgs.map((m) => html`<div class="field-error">${m}</div>`)}
+          </td>`
+        : '';
     };
     const cell = (
       i: number,
@@ -266,6 +281,7 @@ export class SfSitesPanel extends StoreElement {
               <td class="c-variant">
                 <select
                   aria-label=${`Site ${i + 1} variant`}
+                  aria-invalid=${pinMsg ? 'true' : 'false'}
                   title="The variant this site flies: the recommended one, or one pinned here"
                   data-path=${pinPath}
                   @change=${(e: Event) => {
@@ -276,7 +292,6 @@ export class SfSitesPanel extends StoreElement {
                   <option value="" ?selected=${site.variant === undefined}>recommended</option>
                   ${variants.map((v) => html`<option value=${String(v.id)} ?selected=${site.variant === v.id}>${String(v.id)}</option>`)}
                 </select>
-                ${pinMsg ? html`<div class="field-error" role="alert">${pinMsg}</div>` : ''}
               </td>
               <td class="c-del">
                 <button
@@ -298,7 +313,7 @@ export class SfSitesPanel extends StoreElement {
               ${cell(i, 'lat', 'latitude', 'coordinate', 'c-lat')}
               ${cell(i, 'lon', 'longitude', 'coordinate', 'c-lon')}
               ${cell(i, 'elevation_m', 'ground elevation', 'height', 'c-ground', true)}
-              ${cell(i, 'tolerance_m', 'tolerance', 'distance', 'c-tol', true)}
+              ${cell(i, 'tolerance_m', 'tolerance', 'distance', 'c-tol', true)} ${rowMessages(i)}
             </tr>`;
           })}
         </tbody>

@@ -55,6 +55,18 @@ export class SfWindPanel extends StoreElement {
     if (!s) return html``;
     const layers = this.layers();
     const u = s.settings.units;
+    // A layer's messages on a row of their own below it, across the table.
+    const messages = (i: number) => {
+      const keys = ['altitude_m', 'fromDeg', 'speed_mps'];
+      const msgs = keys.map((k) => s.messageAt(`winds.layers[${i}].${k}`)).filter((m) => m);
+      return msgs.length
+        ? html`<tr class="msg">
+            <td colspan="4" role="alert">
+              ${msgs.map((m) => html`<div class="field-error">${m}</div>`)}
+            </td>
+          </tr>`
+        : '';
+    };
     return html`
       <h3>Winds aloft</h3>
       <sf-text-field
@@ -79,35 +91,41 @@ export class SfWindPanel extends StoreElement {
           ${layers.map(
             (_, i) =>
               html`<tr data-layer=${i}>
-                <td>
-                  ${numberField(s, `winds.layers[${i}].altitude_m`, `Layer ${i + 1} altitude`, {
-                    kind: 'height',
-                    compact: true,
-                  })}
-                </td>
-                <td>
-                  ${numberField(s, `winds.layers[${i}].fromDeg`, `Layer ${i + 1} direction from`, {
-                    kind: 'bearing',
-                    unit: '° true',
-                    compact: true,
-                  })}
-                </td>
-                <td>
-                  ${numberField(s, `winds.layers[${i}].speed_mps`, `Layer ${i + 1} speed`, {
-                    kind: 'speed',
-                    compact: true,
-                  })}
-                </td>
-                <td class="act">
-                  <button
-                    title="Delete this layer"
-                    aria-label=${`Delete layer ${i + 1}`}
-                    @click=${() => this.removeAt(i)}
-                  >
-                    ✕
-                  </button>
-                </td>
-              </tr>`,
+                  <td>
+                    ${numberField(s, `winds.layers[${i}].altitude_m`, `Layer ${i + 1} altitude`, {
+                      kind: 'height',
+                      compact: true,
+                    })}
+                  </td>
+                  <td>
+                    ${numberField(
+                      s,
+                      `winds.layers[${i}].fromDeg`,
+                      `Layer ${i + 1} direction from`,
+                      {
+                        kind: 'bearing',
+                        unit: '° true',
+                        compact: true,
+                      },
+                    )}
+                  </td>
+                  <td>
+                    ${numberField(s, `winds.layers[${i}].speed_mps`, `Layer ${i + 1} speed`, {
+                      kind: 'speed',
+                      compact: true,
+                    })}
+                  </td>
+                  <td class="act">
+                    <button
+                      title="Delete this layer"
+                      aria-label=${`Delete layer ${i + 1}`}
+                      @click=${() => this.removeAt(i)}
+                    >
+                      ✕
+                    </button>
+                  </td>
+                </tr>
+                ${messages(i)}`,
           )}
         </tbody>
       </table>

@@ -97,6 +97,8 @@ export const sharedStyles = css`
     color: var(--sf-bad);
     font-size: 12px;
     margin-top: 2px;
+    /* A message names its field by path ("sites[0].tolerance_m"): break it rather than overflow. */
+    overflow-wrap: anywhere;
   }
   .muted {
     color: var(--sf-muted);

@@ -185,6 +185,46 @@ describe('side panel layout', () => {
     });
   }
 
+  it('a site row or wind layer with bad values keeps its fields and messages inside the panel', async () => {
+    let page: Page;
+    let errors: string[];
+    ({ context, page, errors } = await openApp(browser, inject('baseUrl'), SIZES[0]));
+    await page.locator('[data-tab=sites]').click();
+    const lat = page.locator('input[data-path="sites[0].lat"]');
+    await lat.fill('95');
+    await lat.press('Enter');
+    const tol = page.locator('input[data-path="sites[0].tolerance_m"]');
+    await tol.fill('12,5');
+    await tol.press('Enter');
+    // The row's messages sit on a full-width line of their own, each naming its field.
+    const msgs = page.locator('sf-sites-panel tr[data-site-row=s01] .c-msg');
+    await expect.poll(() => msgs.locator('.field-error').count()).toBe(2);
+    await expect(msgs.innerText()).resolves.toContain('sites[0].lat must be between -90 and 90');
+    await expect(msgs.innerText()).resolves.toContain('sites[0].tolerance_m');
+    // The text typed is kept as typed.
+    await expect(tol.inputValue()).resolves.toBe('12,5');
+    await shotWholePanel(page, 'layout-1280x800-sites-bad-values');
+    const m = await measure(page);
+    expect.soft(m.cut, `cut off at the panel's right edge ${m.panelRight}`).toEqual([]);
+    expect.soft(m.scrollWidth, 'the panel scrolls sideways').toBeLessThanOrEqual(m.clientWidth);
+    expect.soft(m.scrollers, 'sideways scrolling inside the panel').toEqual([]);
+    await page.locator('[data-tab=winds]').click();
+    const speed = page.locator('input[data-path="winds.layers[0].speed_mps"]');
+    await speed.fill('-3');
+    await speed.press('Enter');
+    await expect
+      .poll(() => page.locator('sf-wind-panel tr.msg').innerText())
+      .toContain('winds.layers[0].speed_mps');
+    await shot(page, 'layout-1280x800-winds-bad-value');
+    const w = await measure(page);
+    expect.soft(w.cut, `winds: cut off at the panel's right edge ${w.panelRight}`).toEqual([]);
+    expect
+      .soft(w.scrollWidth, 'winds: the panel scrolls sideways')
+      .toBeLessThanOrEqual(w.clientWidth);
+    await expect(speed.inputValue()).resolves.toBe('-3');
+    expect(errors).toEqual([]);
+  });
+
   it('shows converted values rounded, and a unit round trip leaves the plan as it was', async () => {
     let page: Page;
     let errors: string[];
