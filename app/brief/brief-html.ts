@@ -244,7 +244,7 @@ function safetySection(s: BriefSafety | undefined): string {
   const manual = (s.manual ?? [])
     .map(
       (m) =>
-        `<tr><td class="state">${m.state === 'done' ? '☑ done' : m.state === 'n/a' ? '— n/a' : '☐ open'}</td><td>${esc(m.text)}${m.note ? `<br><span class="small">${esc(m.note)}</span>` : ''}</td>` +
+        `<tr><td class="state">${m.state === 'done' && !m.who?.trim() ? '☐ open (done, nobody named)' : m.state === 'done' ? '☑ done' : m.state === 'n/a' ? '— n/a' : '☐ open'}</td><td>${esc(m.text)}${m.note ? `<br><span class="small">${esc(m.note)}</span>` : ''}</td>` +
         `<td>${esc(m.who ?? '')}</td><td>${esc(m.when ?? '')}</td><td class="sign"></td></tr>`,
     )
     .join('');

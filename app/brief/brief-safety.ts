@@ -2,7 +2,14 @@
 import type { BriefSafety, BriefZone } from './brief-html';
 import { LocalFrame } from '../model';
 import type { PlanResult } from '../planner';
-import { blockingText, circumscribed, clearance_m, hazardPieces, type PlanSafety } from '../safety';
+import {
+  blockingText,
+  circumscribed,
+  clearance_m,
+  hazardPieces,
+  itemOpen,
+  type PlanSafety,
+} from '../safety';
 
 interface XY {
   x: number;
@@ -95,7 +102,8 @@ function zonesOf(s: PlanSafety, result?: PlanResult): BriefZone[] {
 export function briefSafety(s: PlanSafety, result?: PlanResult): BriefSafety {
   const geom = s.hazardArea.geometry;
   const polys = geom.type === 'Polygon' ? [geom.coordinates] : geom.coordinates;
-  const open = s.checklist.filter((m) => m.state === 'open').length;
+  // Done with nobody named still stands in the way (readiness.ts).
+  const open = s.checklist.filter(itemOpen).length;
   return {
     checks: s.checks.map((c) => ({
       id: c.id,

@@ -52,7 +52,6 @@ export function renderResultsTab(
         CSV with byte-order mark (for spreadsheets)</label
       >
     </div>
-    ${s.result?.warnings.map((w) => html`<p class="notice-error">${w}</p>`)}
     ${
       s.result
         ? html`<p class="muted">

@@ -280,6 +280,8 @@ describe('saved settings', () => {
       tileUrl: '',
       tileAttribution: '',
       paper: 'A4',
+      // No saved layer switches: every layer takes its default (app/ui/saved-state.ts).
+      mapLayers: {},
     });
     expect(s.notice?.kind).toBe('error');
     expect(s.notice?.text).toMatch(/units must be an object, not a number/);
