@@ -70,6 +70,8 @@ export interface BriefOptions {
   sweep?: { title: string; points: SweepPoint[] };
   /** P(hit) per site over the forecast span (planner.planTimeline); prints the timeline section. */
   timeline?: TimelineEntry[];
+  /** Why the plan's forecasts have no timeline in this brief (printed instead of it). */
+  timelineOmitted?: string;
 }
 
 const f = (v: number | null | undefined, d = 1): string =>
@@ -417,7 +419,7 @@ ${opts.printBar ? `<div class="printbar"><button type="button" data-action="prin
 ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 </section>
 ${energySection(plan, result)}
-${timelineSection(plan, opts.timeline)}
+${timelineSection(plan, opts.timeline, { omitted: opts.timelineOmitted })}
 <section class="winds"><div class="keep"><h2>Winds</h2></div><div class="windgrid">
 <div><table><thead><tr><th>Altitude m</th><th>From</th><th>m/s</th><th>kt</th></tr></thead><tbody>${windRows(plan)}</tbody></table>
 <p class="small">Below the lowest layer the speed follows a power law with α = ${f(plan.winds.surfaceExponent, 3)}. Wind error σ ${f(u.windSpeed_mps)} m/s per component, correlated over ${f(u.windCorrelation_m, 0)} m.</p></div>

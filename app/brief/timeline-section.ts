@@ -86,8 +86,11 @@ export function windowsNote(w: TimelineWindows, requiredPHit: number): string {
 export function timelineSection(
   plan: Plan,
   timeline: readonly TimelineEntry[] | undefined,
-  opts: { width_px?: number } = {},
+  opts: { width_px?: number; omitted?: string } = {},
 ): string {
+  if ((!timeline || timeline.length === 0) && opts.omitted) {
+    return `<section class="timeline-section"><h2>Release-time timeline</h2><p>${esc(opts.omitted)}</p></section>`;
+  }
   if (!timeline || timeline.length === 0) return '';
   const zone = planZone(plan.time);
   const w = timelineWindows(timeline, plan.requiredPHit, zone);

@@ -3,9 +3,11 @@ import { briefHtml, briefSafety } from '../brief';
 import type { Plan } from '../plan';
 import {
   altitudeSweep,
+  BRIEF_TIMELINE_MAX_FLIGHTS,
   planTimeline,
   sweepHeightsAGL,
   TIMELINE_STEP_S,
+  timelineFlights,
   type PlanResult,
   type SweepPoint,
 } from '../planner';
@@ -43,14 +45,25 @@ export async function briefCommand(
       points: altitudeSweep(plan, siteId, variantId, heights),
     };
   }
-  // The same timeline as the app's Timeline button (planTimeline, every 15 min) when there are forecasts.
+  // The same timeline as the app's Timeline button (planTimeline, every 15 min) when there are
+  // forecasts, unless it would fly more descents than a brief should wait for.
+  const forecasts = (plan.winds.forecasts ?? []).length > 0;
+  const flights = forecasts ? timelineFlights(plan, TIMELINE_STEP_S) : 0;
   const timeline =
-    (plan.winds.forecasts ?? []).length > 0
+    forecasts && flights <= BRIEF_TIMELINE_MAX_FLIGHTS
       ? planTimeline(plan, { step_s: TIMELINE_STEP_S })
       : undefined;
+  const timelineOmitted =
+    forecasts && timeline === undefined
+      ? `Left out: this plan's timeline would fly ${(flights / 1e6).toFixed(1)} million descents ` +
+        `(more than ${BRIEF_TIMELINE_MAX_FLIGHTS / 1e6} million for a brief). ` +
+        `Run npm run timeline on the plan for it.`
+      : undefined;
+  if (timelineOmitted) io.err(`seedfall: note: timeline ${timelineOmitted}\n`);
   const html = briefHtml(plan, result, {
     sweep,
     timeline,
+    timelineOmitted,
     paper: args.paper,
     safety: briefSafety(planSafety(plan, result), result),
   });

@@ -17,10 +17,12 @@ export {
   turbulenceText,
 } from './error-sources';
 export {
+  BRIEF_TIMELINE_MAX_FLIGHTS,
   planForecastSeries,
   planTimeline,
   TIMELINE_MAX_STEPS,
   TIMELINE_STEP_S,
+  timelineFlights,
   timelineSamples,
 } from './plan-timeline';
 export { type Candidate, recommend, type Recommendation } from './recommend';

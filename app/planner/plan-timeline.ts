@@ -39,6 +39,22 @@ export function planForecastSeries(plan: Plan): ForecastSeries {
   );
 }
 
+/**
+ * Most Monte Carlo descents the brief spends on a timeline it was not asked for (the CLI brief
+ * draws one whenever the plan has forecasts): a few seconds of one core. Larger plans get a note
+ * pointing to `npm run timeline` instead.
+ */
+export const BRIEF_TIMELINE_MAX_FLIGHTS = 3_000_000;
+
+/** Descents a timeline of the plan at step_s flies: times × sites × variants × samples. */
+export function timelineFlights(plan: Plan, step_s: number, samples?: number): number {
+  const span = planForecastSeries(plan).span;
+  const times = Number.isFinite(span.end_ms - span.start_ms)
+    ? Math.min(TIMELINE_MAX_STEPS, Math.floor((span.end_ms - span.start_ms) / (step_s * 1000)) + 1)
+    : 0;
+  return times * plan.sites.length * plan.variants.length * timelineSamples(plan, samples);
+}
+
 /** pHitTimeline over the plan's own forecast series, at most TIMELINE_MAX_STEPS times. */
 export function planTimeline(
   plan: Plan,

@@ -26,7 +26,7 @@ import { nextSiteId } from './sf-sites-panel';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { SiteMarkers } from './site-markers';
 import { StoreController } from './store-controller';
-import { formatLength, formatSpeed } from './units';
+import { formatQuantity, formatSpeed } from './units';
 import { ZoneDrawing } from './zone-drawing';
 import type { Settings } from './saved-state';
 
@@ -299,7 +299,7 @@ export class SfMap extends LitElement {
   private format(): LayerFormat {
     const u = this.store!.settings.units;
     return {
-      length: (m) => formatLength(m, u.length, m < 10 ? 1 : 0),
+      length: (m) => formatQuantity(m, 'distance', u),
       speed: (v) => formatSpeed(v, u.speed),
     };
   }

@@ -2,7 +2,7 @@ import { css, html } from 'lit';
 import { customElement, state } from 'lit/decorators.js';
 import { type ErrorSource, pHitText, type SiteResult } from '../planner';
 import type { PlanStore } from './plan-store';
-import { formatLength } from './units';
+import { formatQuantity } from './units';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 
@@ -249,7 +249,7 @@ export class SfResultsTable extends StoreElement {
                   <td class=${`num ${x.meetsRequired ? 'good' : 'bad'}`} data-col="phit">
                     ${pHitCell(x)}
                   </td>
-                  <td class="num">${formatLength(x.cep_m, u.length, 1)}</td>
+                  <td class="num">${formatQuantity(x.cep_m, 'distance', u)}</td>
                   <td class=${x.reachable ? 'good' : 'bad'}>${x.reachable ? 'yes' : 'no'}</td>
                   ${
                     moving
@@ -257,7 +257,7 @@ export class SfResultsTable extends StoreElement {
                           ${x.releaseWindow ? `${num(x.releaseWindow.open_s)}…${num(x.releaseWindow.close_s)}` : 'none'}
                         </td>`
                       : html`<td data-col="zone">
-                          ${x.releaseZone ? `r ${formatLength(x.releaseZone.radius_m, u.length, 0)}` : 'none'}
+                          ${x.releaseZone ? `r ${formatQuantity(x.releaseZone.radius_m, 'distance', u)}` : 'none'}
                         </td>`
                   }
                   <td class="num">

@@ -1,10 +1,12 @@
 import { css, html } from 'lit';
 import { customElement } from 'lit/decorators.js';
 import { CAUTION_TEXT } from '../brief';
+import { DEFAULT_SAFETY_SETTINGS } from '../safety';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import { numberField } from './sf-number-field';
+import { formatQuantity, type Quantity } from './units';
 import { checksList, readinessState, readinessStyles } from './safety-readiness';
 import { CrewChecklist, crewChecklistStyles } from './crew-checklist';
 import { SafetySignOff, signOffStyles } from './safety-signoff';
@@ -12,17 +14,19 @@ import { noDropZones } from './no-drop-zones';
 
 /** The safety settings a crew matches to local rules; empty means the default shown. */
 function safetySettings(s: PlanStore) {
-  const n = (
-    path: string,
-    label: string,
-    unit: string,
-    def: string,
-    kind: 'length' | 'plain' = 'length',
-  ) => numberField(s, path, label, { kind, unit, optional: true, placeholder: `${def} (default)` });
-  return html`${n('safety.ceiling_m', 'Release ceiling above ground', '', '120 m')}
-  ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', '', '10 m')}
-  ${n('safety.hazardBuffer_m', 'Margin around the hazard area', '', '20 m')}
-  ${n('safety.thrustMargin_pct', 'Control time kept in reserve', '%', '20', 'plain')}`;
+  const u = s.settings.units;
+  const d = DEFAULT_SAFETY_SETTINGS;
+  const n = (path: string, label: string, kind: Quantity, def: number) =>
+    numberField(s, path, label, {
+      kind,
+      optional: true,
+      // The default in the reader's unit, rounded by the same rule as the field (units.ts).
+      placeholder: `${formatQuantity(def, kind, u)} (default)`,
+    });
+  return html`${n('safety.ceiling_m', 'Release ceiling above ground', 'height', d.ceiling_m)}
+  ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', 'distance', d.noDropBuffer_m)}
+  ${n('safety.hazardBuffer_m', 'Margin around the hazard area', 'distance', d.hazardBuffer_m)}
+  ${n('safety.thrustMargin_pct', 'Control time kept in reserve', 'percent', d.thrustMargin_pct)}`;
 }
 
 /**

@@ -21,7 +21,7 @@ import { siteTouchdowns, type Touchdown } from '../safety';
 import type { PlanStore } from './plan-store';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
-import { formatLength, formatSpeed, toDisplayLength, type UnitPrefs } from './units';
+import { formatQuantity, formatSpeed, toDisplayLength, type UnitPrefs } from './units';
 
 const num = (v: number | null | undefined, d = 1): string =>
   v === null || v === undefined || !Number.isFinite(v)
@@ -363,12 +363,14 @@ export class SfSiteDetails extends StoreElement {
           return html`<span class=${ok ? 'good' : 'bad'}>${p}</span
             >${se === undefined ? nothing : html`<span class="se"> ± ${se}</span>`}`;
         })}
-        ${row('cep', 'CEP', (v) => formatLength(v.cep_m, u.length, 1))}
+        ${row('cep', 'CEP', (v) => formatQuantity(v.cep_m, 'distance', u))}
         ${
           moving
             ? row('window', 'Release window', (v) => windowText(v))
             : row('zone', 'Hover zone', (v) =>
-                v.releaseZone ? `r ${formatLength(v.releaseZone.radius_m, u.length, 0)}` : 'none',
+                v.releaseZone
+                  ? `r ${formatQuantity(v.releaseZone.radius_m, 'distance', u)}`
+                  : 'none',
               )
         }
         ${row('heading', 'Heading T / M °', (v) =>

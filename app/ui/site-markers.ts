@@ -11,7 +11,7 @@ import { pHitText, type SiteResult } from '../planner';
 import { dragPointTo, shownPosition } from './map-position';
 import type { MarkerDrag } from './marker-drag';
 import type { PlanStore } from './plan-store';
-import { formatLength } from './units';
+import { formatQuantity } from './units';
 
 /** The site dot's size and the label's font and line height (plan-mark-styles.ts). */
 const DOT_PX = 14;
@@ -98,7 +98,7 @@ export class SiteMarkers {
       const bad = r ? !r.meetsRequired : false;
       const label = String(site.id ?? '');
       const tipText = r
-        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${pHitText(r.pHit, r.pHitSE)}, CEP ${formatLength(r.cep_m, u.length, 1)}, ${r.reachable ? 'reachable' : 'not reachable'}`
+        ? `Site ${label}${site.name ? ` · ${site.name}` : ''} — ${r.variant}, P(hit) ${pHitText(r.pHit, r.pHitSE)}, CEP ${formatQuantity(r.cep_m, 'distance', u)}, ${r.reachable ? 'reachable' : 'not reachable'}`
         : `Site ${label}`;
       const iconKey = `${bad ? 'bad' : 'ok'}|${label}`;
       let m = this.markers.get(i);

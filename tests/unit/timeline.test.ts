@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import type { TimelineEntry } from '../../app/planner/forecast-series';
 import { timelineSvg } from '../../app/brief/timeline-svg';
+import { timelineSection } from '../../app/brief/timeline-section';
+import { resolvePlan } from '../../app/plan';
+import type { PlanFile } from '../../app/plan/plan';
+import { BRIEF_TIMELINE_MAX_FLIGHTS, timelineFlights } from '../../app/planner';
+import demo from '../../data/demo-plan.json';
 
 const entry = (time: string, a: number, b: number): TimelineEntry => ({
   time,
@@ -55,5 +60,23 @@ describe('the release-time timeline plot', () => {
   it('escapes site ids and says when there is nothing to draw', () => {
     expect(svg).not.toContain('b<x>');
     expect(timelineSvg([tl[0]], 0.9)).toContain('at least two forecast times');
+  });
+});
+
+describe('the brief’s timeline budget', () => {
+  const plan = resolvePlan(demo as unknown as PlanFile, { now: new Date('2026-12-01T08:00:00Z') });
+
+  it('counts the descents a timeline flies: times × sites × variants × samples', () => {
+    // The demo's own winds at 09:30+01:00 and one forecast at 13:00+01:00: 3.5 h every 15 min is
+    // 15 times; 12 sites, 3 variants, min(2000, 200) samples (arithmetic, common practice).
+    expect(timelineFlights(plan, 900)).toBe(15 * 12 * 3 * 200);
+    expect(timelineFlights(plan, 900)).toBeLessThanOrEqual(BRIEF_TIMELINE_MAX_FLIGHTS);
+  });
+
+  it('a brief that leaves the timeline out says why, as text', () => {
+    const html = timelineSection(plan, undefined, { omitted: 'Left out: <too many> descents' });
+    expect(html).toContain('Release-time timeline');
+    expect(html).toContain('Left out: &lt;too many&gt; descents');
+    expect(timelineSection(plan, undefined)).toBe('');
   });
 });
