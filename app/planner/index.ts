@@ -27,14 +27,16 @@ export {
 } from './plan-timeline';
 export { type Candidate, recommend, type Recommendation } from './recommend';
 export { windCoverageWarnings } from './wind-coverage';
+export { planDrop } from './planner';
 export {
   type GeoEllipse,
-  planDrop,
   type PlanOptions,
   type PlanResult,
+  type ReleaseWindow,
+  type ReleaseZone,
   type SiteResult,
   type VariantResult,
-} from './planner';
+} from './results';
 export { altitudeSweep, sweepHeightsAGL, type SweepPoint } from './sweeps';
 export {
   evenIndices,

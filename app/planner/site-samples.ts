@@ -2,7 +2,8 @@
 // site details view: the same seed, the same release (with the moving carrier's best-time shift)
 // and the same main stream, so the points give exactly the P(hit) and CEP the results show.
 import type { Plan } from '../plan';
-import { reportedStream, type VariantResult } from './planner';
+import { reportedStream } from './planner';
+import type { VariantResult } from './results';
 
 /** A landing ellipse about a centre given in metres east/north of the site. */
 export interface SiteEllipse {

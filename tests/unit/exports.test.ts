@@ -20,7 +20,7 @@ import {
 import { importSites } from '../../app/formats/import-sites';
 import type { Plan } from '../../app/plan/plan';
 import { hazardArea } from '../../app/safety/hazard-area';
-import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { planDrop, type PlanResult } from '../../app/planner';
 import { validatePlan } from '../../app/plan/validate';
 import { ellipseRing } from '../../app/map/geometry';
 import demo from '../../data/demo-plan.json';

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { FallTable } from '../../app/model/fall-table';
 import { FRAME_LIMIT_M, variantExtent } from '../../app/plan/plan-limits';
-import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { planDrop, type PlanResult } from '../../app/planner';
 import { hitProfile, runAround, searchEdge } from '../../app/model/release-window';
 import { formatPlanText } from '../../app/brief/report-text';
 import { validatePlan } from '../../app/plan/validate';

@@ -25,7 +25,7 @@ import {
   toRing,
   unionLocal,
 } from '../../app/safety/hazard-area';
-import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { planDrop, type PlanResult } from '../../app/planner';
 import { safetyChecks, DEFAULT_SAFETY_SETTINGS } from '../../app/safety/safety';
 import type { Plan } from '../../app/plan/plan';
 import { validatePlan } from '../../app/plan/validate';

@@ -11,7 +11,7 @@ import type { Feature, Polygon } from 'geojson';
 import { describe, expect, it } from 'vitest';
 import { airAt } from '../../app/model/atmosphere';
 import type { PlanFile, Variant } from '../../app/plan/plan';
-import { planDrop, type PlanResult } from '../../app/planner/planner';
+import { planDrop, type PlanResult } from '../../app/planner';
 import {
   DEFAULT_MANUAL_ITEMS,
   overallReady,
