@@ -21,7 +21,7 @@ import { hodographSvg, sweepSvg } from './wind-plots';
 import {
   includedText,
   type PlanResult,
-  pHitText,
+  pHitParts,
   type SiteResult,
   type SweepPoint,
   type TimelineEntry,
@@ -175,8 +175,8 @@ function variantCell(s: SiteResult, colour: string): string {
 
 /** P(hit) large, its standard error small under it: "0.91 ± 0.01" as text. */
 function phitCell(s: SiteResult): string {
-  const [p, se] = pHitText(s.pHit, s.pHitSE).split(' ± ');
-  return se === undefined ? esc(p) : `${esc(p)} <br><span class="small se">± ${esc(se)}</span>`;
+  const { p, se } = pHitParts(s.pHit, s.pHitSE);
+  return se === null ? esc(p) : `${esc(p)} <br><span class="small se">± ${esc(se)}</span>`;
 }
 
 /** Smallest and largest of finite values as "a" or "a–b" (one decimal), or null when none. */

@@ -104,12 +104,19 @@ export function includedText(sources: readonly ErrorSource[]): string {
 }
 
 /**
- * P(hit) (0–1) with its Monte Carlo standard error, both to two decimals: "0.91 ± 0.01". An error
- * that rounds to 0.00 is written "± <0.01", never "± 0.00"; a missing error leaves P(hit) alone.
+ * P(hit) (0–1) and its Monte Carlo standard error as text, both to two decimals: p "0.91", se
+ * "0.01". An error that rounds to 0.00 is written "<0.01", never "0.00"; a missing error is null.
+ * For views that set the two apart (a smaller type for the error); pHitText joins them.
  */
-export function pHitText(pHit: number, se?: number | null): string {
-  if (!Number.isFinite(pHit)) return '–';
+export function pHitParts(pHit: number, se?: number | null): { p: string; se: string | null } {
+  if (!Number.isFinite(pHit)) return { p: '–', se: null };
   const p = (Number(pHit.toFixed(2)) || 0).toFixed(2);
-  if (se === null || se === undefined || !Number.isFinite(se)) return p;
-  return se < 0.005 ? `${p} ± <0.01` : `${p} ± ${se.toFixed(2)}`;
+  if (se === null || se === undefined || !Number.isFinite(se)) return { p, se: null };
+  return { p, se: se < 0.005 ? '<0.01' : se.toFixed(2) };
+}
+
+/** P(hit) with its Monte Carlo standard error: "0.91 ± 0.01" (see pHitParts). */
+export function pHitText(pHit: number, se?: number | null): string {
+  const t = pHitParts(pHit, se);
+  return t.se === null ? t.p : `${t.p} ± ${t.se}`;
 }

@@ -13,6 +13,7 @@ export {
   type ErrorSource,
   errorSources,
   includedText,
+  pHitParts,
   pHitText,
   turbulenceText,
 } from './error-sources';

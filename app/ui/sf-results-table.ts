@@ -1,6 +1,6 @@
 import { css, html } from 'lit';
 import { customElement, state } from 'lit/decorators.js';
-import { type ErrorSource, pHitText, type SiteResult } from '../planner';
+import { type ErrorSource, includedText, pHitParts, type SiteResult } from '../planner';
 import type { PlanStore } from './plan-store';
 import { formatQuantity } from './units';
 import { sharedStyles } from './shared-styles';
@@ -36,8 +36,8 @@ function sortValue(r: SiteResult, k: Key): number | string {
 
 /** P(hit) with its standard error in a smaller, muted type: "0.91 ± 0.01" as text. */
 function pHitCell(r: SiteResult) {
-  const [p, se] = pHitText(r.pHit, r.pHitSE).split(' ± ');
-  return se === undefined ? p : html`${p}<span class="se"> ± ${se}</span>`;
+  const { p, se } = pHitParts(r.pHit, r.pHitSE);
+  return se === null ? p : html`${p}<span class="se"> ± ${se}</span>`;
 }
 
 /**
@@ -56,9 +56,7 @@ function variantCell(x: SiteResult) {
 /** "Included error sources: a, b, c." with each source's size and origin as its tooltip. */
 function includedLine(sources: readonly ErrorSource[]) {
   if (sources.length === 0)
-    return html`<p class="included" data-testid="included">
-      Included error sources: none (every flight is the nominal one).
-    </p>`;
+    return html`<p class="included" data-testid="included">${includedText(sources)}</p>`;
   return html`<p class="included" data-testid="included">
     Included error sources:
     ${sources.map(

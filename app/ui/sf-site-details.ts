@@ -11,7 +11,7 @@ import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
 import { fallProfileSvg, scatterSvg } from '../brief';
 import type { Plan } from '../plan';
 import {
-  pHitText,
+  pHitParts,
   type SiteResult,
   type SiteSamples,
   siteSamples,
@@ -358,10 +358,10 @@ export class SfSiteDetails extends StoreElement {
             html`<span class=${v.reachable ? 'good' : 'bad'}>${v.reachable ? 'yes' : 'no'}</span>`,
         )}
         ${row('phit', 'P(hit)', (v) => {
-          const [p, se] = pHitText(v.pHit, v.pHitSE).split(' ± ');
+          const { p, se } = pHitParts(v.pHit, v.pHitSE);
           const ok = v.pHit >= (this.store?.resultPlan?.requiredPHit ?? 0);
           return html`<span class=${ok ? 'good' : 'bad'}>${p}</span
-            >${se === undefined ? nothing : html`<span class="se"> ± ${se}</span>`}`;
+            >${se === null ? nothing : html`<span class="se"> ± ${se}</span>`}`;
         })}
         ${row('cep', 'CEP', (v) => formatQuantity(v.cep_m, 'distance', u))}
         ${
