@@ -1,19 +1,11 @@
 // Outlines short enough to read out: Douglas–Peucker simplification of closed rings in a local
 // metric frame (docs/model.md §17), with the tolerance raised until the list stays short.
+import { segDist } from '../safety';
 
 /** A point in a local frame, m east (x) and north (y). */
 export interface XY {
   x: number;
   y: number;
-}
-
-/** Distance (m) from p to the segment a–b. */
-export function segmentDistance(p: XY, a: XY, b: XY): number {
-  const dx = b.x - a.x;
-  const dy = b.y - a.y;
-  const L = dx * dx + dy * dy;
-  const t = L > 0 ? Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / L)) : 0;
-  return Math.hypot(p.x - a.x - t * dx, p.y - a.y - t * dy);
 }
 
 /** Indices kept of the open chain pts[i0..i1] (both ends kept), iterative Douglas–Peucker. */
@@ -24,7 +16,7 @@ function chain(pts: readonly XY[], i0: number, i1: number, tol_m: number, keep: 
     let far = -1;
     let farD = tol_m;
     for (let i = a + 1; i < b; i++) {
-      const d = segmentDistance(pts[i], pts[a], pts[b]);
+      const d = segDist(pts[i], pts[a], pts[b]);
       if (d > farD) {
         farD = d;
         far = i;
@@ -69,7 +61,7 @@ export function simplifyRing(ring: readonly XY[], tol_m: number): XY[] {
     let bestD = -1;
     for (let i = 0; i < n; i++) {
       if (keep[i]) continue;
-      const d = segmentDistance(pts[i], pts[0], pts[far]);
+      const d = segDist(pts[i], pts[0], pts[far]);
       if (d > bestD) {
         bestD = d;
         best = i;

@@ -4,6 +4,7 @@ import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { type LatLon, LocalFrame } from '../model';
 import type { XY } from './hazard-area';
 
+/** Distance (m) from p to the segment a–b. */
 export function segDist(p: XY, a: XY, b: XY): number {
   const dx = b.x - a.x;
   const dy = b.y - a.y;

@@ -1,6 +1,6 @@
 // Automatic safety checks, hazard area, crew checklist, readiness and sign-off.
 // The public face of app/safety/: other folders import from here only.
-export { clearance_m } from './clearance';
+export { clearance_m, segDist } from './clearance';
 export { circumscribed, type ConvexPiece, hazardArea, hazardPieces } from './hazard-area';
 export {
   blockingText,

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { segmentDistance, simplifyRing, simplifyRings, type XY } from '../../app/brief/outline';
+import { simplifyRing, simplifyRings, type XY } from '../../app/brief/outline';
+import { segDist as segmentDistance } from '../../app/safety';
 
 /** Distance from p to the closed ring's outline (its nearest edge), m. */
 function toOutline(p: XY, ring: readonly XY[]): number {
