@@ -3,7 +3,7 @@
  * numbered corners (tolerance stated), and the no-drop zones listed.
  */
 import type { BriefSafety } from './brief-html';
-import { esc, niceStep } from './brief-svg';
+import { esc, fitView, niceStep } from './brief-svg';
 import { simplifyRings, type XY } from './outline';
 import { LocalFrame } from '../model';
 import type { PlanResult } from '../planner';
@@ -19,24 +19,10 @@ const r1 = (v: number): string => (Math.round(v * 10) / 10).toString();
 /** Drawing of the hazard area: the full outline filled, the simplified one with numbered corners. */
 function hazardSvg(full: XY[][], simple: XY[][], zones: XY[][], sites: XY[], W = 520): string {
   const pts = [...full.flat(), ...simple.flat(), { x: 0, y: 0 }];
-  let minX = Math.min(...pts.map((p) => p.x));
-  let maxX = Math.max(...pts.map((p) => p.x));
-  let minY = Math.min(...pts.map((p) => p.y));
-  let maxY = Math.max(...pts.map((p) => p.y));
-  const pad = 0.1 * Math.max(maxX - minX, maxY - minY, 50);
   // As tall as the area needs within limits, so a wide area leaves room for the list beside it.
-  const H = Math.round(
-    Math.min(420, Math.max(240, (W * (maxY - minY + 2 * pad)) / (maxX - minX + 2 * pad))),
+  const { H, scale, tx, ty } = fitView(pts, W, 0.1, (w, h) =>
+    Math.round(Math.min(420, Math.max(240, (W * h) / w))),
   );
-  minX -= pad;
-  maxX += pad;
-  minY -= pad;
-  maxY += pad;
-  const scale = Math.min(W / (maxX - minX), H / (maxY - minY));
-  const cx = (minX + maxX) / 2;
-  const cy = (minY + maxY) / 2;
-  const tx = (x: number): number => W / 2 + (x - cx) * scale;
-  const ty = (y: number): number => H / 2 - (y - cy) * scale;
   const poly = (r: XY[]): string => r.map((p) => `${r1(tx(p.x))},${r1(ty(p.y))}`).join(' ');
   const inView = (p: XY): boolean => tx(p.x) >= 0 && tx(p.x) <= W && ty(p.y) >= 0 && ty(p.y) <= H;
   let k = 0;

@@ -22,6 +22,48 @@ export const PRINT_COLOURS = ['#0f766e', '#b45309', '#7c3aed', '#be123c', '#1d4e
 const DEG = Math.PI / 180;
 const r1 = (v: number): string => (Math.round(v * 10) / 10).toString();
 
+/**
+ * A drawing W px wide of local metres (x east, y north up) holding `pts`: their box grown on every
+ * side by padFrac of its larger side (at least 50 m), centred, one scale both ways. `height` is
+ * the drawing's height in px, or a function of the padded box's width and height in metres.
+ */
+export function fitView(
+  pts: readonly XY[],
+  W: number,
+  padFrac: number,
+  height: number | ((w_m: number, h_m: number) => number),
+): {
+  H: number;
+  scale: number;
+  cx: number;
+  cy: number;
+  tx: (x: number) => number;
+  ty: (y: number) => number;
+} {
+  let minX = Math.min(...pts.map((p) => p.x));
+  let maxX = Math.max(...pts.map((p) => p.x));
+  let minY = Math.min(...pts.map((p) => p.y));
+  let maxY = Math.max(...pts.map((p) => p.y));
+  const pad = padFrac * Math.max(maxX - minX, maxY - minY, 50);
+  const H =
+    typeof height === 'number' ? height : height(maxX - minX + 2 * pad, maxY - minY + 2 * pad);
+  minX -= pad;
+  maxX += pad;
+  minY -= pad;
+  maxY += pad;
+  const scale = Math.min(W / (maxX - minX), H / (maxY - minY));
+  const cx = (minX + maxX) / 2;
+  const cy = (minY + maxY) / 2;
+  return {
+    H,
+    scale,
+    cx,
+    cy,
+    tx: (x) => W / 2 + (x - cx) * scale,
+    ty: (y) => H / 2 - (y - cy) * scale,
+  };
+}
+
 interface XY {
   x: number;
   y: number;
@@ -133,21 +175,7 @@ export function overviewSvg(plan: Plan, result: PlanResult, opts: OverviewOption
     }
   }
 
-  // View box in metres (y north up: the SVG y axis is flipped by a transform).
-  let minX = Math.min(...pts.map((p) => p.x));
-  let maxX = Math.max(...pts.map((p) => p.x));
-  let minY = Math.min(...pts.map((p) => p.y));
-  let maxY = Math.max(...pts.map((p) => p.y));
-  const pad = 0.08 * Math.max(maxX - minX, maxY - minY, 50);
-  minX -= pad;
-  maxX += pad;
-  minY -= pad;
-  maxY += pad;
-  const scale = Math.min(W / (maxX - minX), H / (maxY - minY));
-  const cx = (minX + maxX) / 2;
-  const cy = (minY + maxY) / 2;
-  const tx = (x: number): number => W / 2 + (x - cx) * scale;
-  const ty = (y: number): number => H / 2 - (y - cy) * scale;
+  const { scale, cx, cy, tx, ty } = fitView(pts, W, 0.08, H);
   const halfW = W / 2 / scale;
   const halfH = H / 2 / scale;
 
