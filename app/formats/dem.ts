@@ -5,7 +5,17 @@
  * messages kept here, so a hostile file gets the same words whichever format it came in.
  */
 import proj4 from 'proj4';
-import { distance_m, type Ground, type LatLon, LocalFrame } from '../model';
+import {
+  distance_m,
+  type ElevationModel,
+  type Ground,
+  GridGround,
+  type LatLon,
+  type LocalBox,
+  LocalFrame,
+  sampledGround,
+  type TerrainGround,
+} from '../model';
 
 /** A WGS 84 box, degrees (west < east; no antimeridian crossing). */
 export interface LatLonBox {
@@ -239,8 +249,11 @@ function notCoveredText(
   return `the elevation model covers only part of the plan area: it falls short by ${short.join(', ')} (${covers}; ${area})`;
 }
 
+/** Most cells of a local grid when a plan area is too curved for one quadratic index map. */
+const MAX_LOCAL_CELLS = 4_000_000;
+
 /** A DEM in memory: a grid (often a window of a file) and its sampler. */
-export class Dem {
+export class Dem implements ElevationModel {
   readonly grid: DemGrid;
   private readonly conv: proj4.Converter;
 
@@ -317,6 +330,65 @@ export class Dem {
       west: Math.min(...pts.map((p) => p.x)),
       east: Math.max(...pts.map((p) => p.x)),
     };
+  }
+
+  /** The file's name (for messages). */
+  get name(): string {
+    return this.grid.file;
+  }
+
+  /** Cell spacing in metres (the smaller side; degrees converted at the grid's middle). */
+  cellSize_m(): number {
+    const g = this.grid;
+    if (!isGeographic(g.epsg)) return Math.min(g.dx, g.dy);
+    const lat = ((g.y0 - (g.rows * g.dy) / 2) * Math.PI) / 180;
+    return Math.min(g.dx * 111_320 * Math.cos(lat), g.dy * 110_574);
+  }
+
+  /**
+   * The ground over a box of a plan's local frame, for the planner (ElevationModel): the grid
+   * itself read through a quadratic map of local metres to cells when that map is good to 1/100
+   * of a cell over the box, else the heights resampled onto a local grid at the model's spacing.
+   * A DemError when the model does not cover the box.
+   */
+  localGround(frame: LocalFrame, box: LocalBox): TerrainGround {
+    const g = this.grid;
+    const outline: LatLon[] = [];
+    for (let i = 0; i <= 8; i++) {
+      const u = box.xMin + ((box.xMax - box.xMin) * i) / 8;
+      const v = box.yMin + ((box.yMax - box.yMin) * i) / 8;
+      outline.push(
+        frame.toLatLon(u, box.yMin),
+        frame.toLatLon(u, box.yMax),
+        frame.toLatLon(box.xMin, v),
+        frame.toLatLon(box.xMax, v),
+      );
+    }
+    const llBox: LatLonBox = {
+      south: Math.min(...outline.map((p) => p.lat)),
+      north: Math.max(...outline.map((p) => p.lat)),
+      west: Math.min(...outline.map((p) => p.lon)),
+      east: Math.max(...outline.map((p) => p.lon)),
+    };
+    // Throws the reader's own "does not cover" message (with distances) when it falls short.
+    windowFor(g, llBox, Number.MAX_SAFE_INTEGER);
+    const toIndex = (x: number, y: number) => {
+      const p = frame.toLatLon(x, y);
+      const q = this.conv.forward({ x: p.lon, y: p.lat });
+      return { c: (q.x - g.x0) / g.dx - 0.5, r: (g.y0 - q.y) / g.dy - 0.5 };
+    };
+    const cell = this.cellSize_m();
+    const map = GridGround.fit(toIndex, box);
+    if (map) return new GridGround(g.values, g.cols, g.rows, g.nodata, map, cell);
+    const n = ((box.xMax - box.xMin) / cell + 1) * ((box.yMax - box.yMin) / cell + 1);
+    if (!(n <= MAX_LOCAL_CELLS)) {
+      throw new DemError(
+        g.file,
+        `the plan area needs about ${Math.round(n)} cells at ${cell.toFixed(1)} m, more than ` +
+          `the limit of ${MAX_LOCAL_CELLS}; use a coarser model or a smaller plan area`,
+      );
+    }
+    return sampledGround((x, y) => this.sample(frame.toLatLon(x, y)), box, cell);
   }
 
   /** The ground in a plan's local frame (x east, y north, metres): heights MSL, null where unknown. */

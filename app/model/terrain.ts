@@ -5,7 +5,7 @@
  *
  * NaN behaviour: a path or ground that returns NaN ends the search as `no-data` at that point.
  */
-import type { LocalXY } from './geodesy';
+import type { LatLon, LocalFrame, LocalXY } from './geodesy';
 
 /** The ground in a local frame (x east, y north, metres): height MSL in metres, null where unknown. */
 export interface Ground {
@@ -256,4 +256,301 @@ export function hiddenGround(
     return { hidden: true, obstacle, fromSite_m, aboveSite_m, crossing };
   }
   return { hidden: false, crossing };
+}
+
+/** A box in a local frame, metres (x east, y north). */
+export interface LocalBox {
+  xMin: number;
+  yMin: number;
+  xMax: number;
+  yMax: number;
+}
+
+/**
+ * Ground of a gridded elevation model in a plan's local frame, fast enough for every Monte Carlo
+ * sample: heights, the lowest and highest height, and an upper bound over any local box.
+ */
+export interface TerrainGround extends Ground {
+  readonly maxHeight_m: number;
+  readonly minHeight_m: number;
+  /** Spacing of its heights, m: the finest step a crossing search needs. */
+  readonly cell_m: number;
+  /** An upper bound of every height inside the box; +Infinity when the box touches unknown ground. */
+  maxIn(box: LocalBox): number;
+}
+
+/** An elevation model the planner can fly over (app/formats Dem implements it). */
+export interface ElevationModel {
+  /** its file name, for messages */
+  readonly name: string;
+  /** Height MSL (m) at a WGS 84 point, bilinear; null outside the model or over nodata. */
+  sample(p: LatLon): number | null;
+  /**
+   * The ground over a box of a plan's local frame. Throws an Error whose message starts with the
+   * model's name when the model does not cover the box.
+   */
+  localGround(frame: LocalFrame, box: LocalBox): TerrainGround;
+}
+
+/** Quadratic map of local metres to fractional grid indices: c = Σ a_k m_k, r = Σ b_k m_k. */
+export interface GridMap {
+  /** coefficients of 1, x, y, x², xy, y² for the column (of cell centres) */
+  col: readonly number[];
+  /** the same for the row (row 0 the northmost) */
+  row: readonly number[];
+}
+
+/** Cells per side of the blocks whose maxima bound a box's heights. */
+const BLOCK = 8;
+
+/**
+ * A grid of heights read in a local frame through a quadratic index map (GridGround.fit builds
+ * it from any CRS transform): bilinear heights between cell centres, as Dem.sampleCrs, and block
+ * maxima for maxIn. NaN or `nodata` cells are unknown ground.
+ */
+export class GridGround implements TerrainGround {
+  readonly maxHeight_m: number;
+  readonly minHeight_m: number;
+  private readonly blockMax: Float32Array;
+  private readonly bCols: number;
+  private readonly bRows: number;
+
+  constructor(
+    private readonly values: Float32Array,
+    private readonly cols: number,
+    private readonly rows: number,
+    private readonly nodata: number | null,
+    private readonly map: GridMap,
+    readonly cell_m: number,
+  ) {
+    if (values.length !== cols * rows || cols < 2 || rows < 2) {
+      throw new RangeError(`a ground grid needs ≥ 2 × 2 cells and cols × rows heights`);
+    }
+    const nd = nodata === null ? null : Math.fround(nodata);
+    this.nodata = nd;
+    this.bCols = Math.ceil(cols / BLOCK);
+    this.bRows = Math.ceil(rows / BLOCK);
+    this.blockMax = new Float32Array(this.bCols * this.bRows).fill(-Infinity);
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let r = 0; r < rows; r++) {
+      for (let c = 0; c < cols; c++) {
+        const v = values[r * cols + c];
+        const known = !Number.isNaN(v) && v !== nd;
+        const bi = Math.floor(r / BLOCK) * this.bCols + Math.floor(c / BLOCK);
+        if (!known) {
+          this.blockMax[bi] = Infinity;
+          continue;
+        }
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+        if (v > this.blockMax[bi]) this.blockMax[bi] = v;
+      }
+    }
+    this.minHeight_m = lo;
+    this.maxHeight_m = hi;
+  }
+
+  private colOf(x: number, y: number): number {
+    const a = this.map.col;
+    return a[0] + a[1] * x + a[2] * y + a[3] * x * x + a[4] * x * y + a[5] * y * y;
+  }
+
+  private rowOf(x: number, y: number): number {
+    const b = this.map.row;
+    return b[0] + b[1] * x + b[2] * y + b[3] * x * x + b[4] * x * y + b[5] * y * y;
+  }
+
+  height(x_m: number, y_m: number): number | null {
+    const c = this.colOf(x_m, y_m);
+    const r = this.rowOf(x_m, y_m);
+    const cols = this.cols;
+    if (!(c >= 0 && r >= 0 && c <= cols - 1 && r <= this.rows - 1)) return null;
+    const i = Math.min(Math.floor(c), cols - 2);
+    const j = Math.min(Math.floor(r), this.rows - 2);
+    const fx = c - i;
+    const fy = r - j;
+    const v = this.values;
+    const k = j * cols + i;
+    const v00 = v[k];
+    const v10 = v[k + 1];
+    const v01 = v[k + cols];
+    const v11 = v[k + cols + 1];
+    const nd = this.nodata;
+    // A corner with zero weight may be unknown: a sample on a known cell's edge stands.
+    const bad = (val: number, w: number) => w !== 0 && (Number.isNaN(val) || val === nd);
+    if (
+      bad(v00, (1 - fx) * (1 - fy)) ||
+      bad(v10, fx * (1 - fy)) ||
+      bad(v01, (1 - fx) * fy) ||
+      bad(v11, fx * fy)
+    ) {
+      return null;
+    }
+    let s = 0;
+    if (fx < 1 && fy < 1) s += (1 - fx) * (1 - fy) * v00;
+    if (fx > 0 && fy < 1) s += fx * (1 - fy) * v10;
+    if (fx < 1 && fy > 0) s += (1 - fx) * fy * v01;
+    if (fx > 0 && fy > 0) s += fx * fy * v11;
+    return s;
+  }
+
+  maxIn(box: LocalBox): number {
+    let cMin = Infinity;
+    let cMax = -Infinity;
+    let rMin = Infinity;
+    let rMax = -Infinity;
+    for (const x of [box.xMin, (box.xMin + box.xMax) / 2, box.xMax]) {
+      for (const y of [box.yMin, (box.yMin + box.yMax) / 2, box.yMax]) {
+        const c = this.colOf(x, y);
+        const r = this.rowOf(x, y);
+        if (c < cMin) cMin = c;
+        if (c > cMax) cMax = c;
+        if (r < rMin) rMin = r;
+        if (r > rMax) rMax = r;
+      }
+    }
+    // One cell of slack covers the map's curvature over the box and the bilinear neighbours.
+    if (!(
+      cMin - 1 >= 0 &&
+      rMin - 1 >= 0 &&
+      cMax + 1 <= this.cols - 1 &&
+      rMax + 1 <= this.rows - 1
+    )) {
+      return Infinity;
+    }
+    const bc0 = Math.floor((cMin - 1) / BLOCK);
+    const bc1 = Math.floor((cMax + 2) / BLOCK);
+    const br0 = Math.floor((rMin - 1) / BLOCK);
+    const br1 = Math.floor((rMax + 2) / BLOCK);
+    if ((bc1 - bc0 + 1) * (br1 - br0 + 1) > 4096) return this.maxHeight_m;
+    let m = -Infinity;
+    for (let br = br0; br <= Math.min(br1, this.bRows - 1); br++) {
+      for (let bc = bc0; bc <= Math.min(bc1, this.bCols - 1); bc++) {
+        const v = this.blockMax[br * this.bCols + bc];
+        if (v > m) m = v;
+      }
+    }
+    return m;
+  }
+
+  /**
+   * The quadratic index map of a transform local (x, y) → fractional (col, row), fitted by least
+   * squares on a 5 × 5 lattice over `box` and checked on a 9 × 9 one. Returns null when the fit
+   * misses by more than `tol` cells anywhere (the caller then resamples onto a local grid).
+   */
+  static fit(
+    toIndex: (x: number, y: number) => { c: number; r: number },
+    box: LocalBox,
+    tol = 0.01,
+  ): GridMap | null {
+    const terms = (x: number, y: number) => [1, x, y, x * x, x * y, y * y];
+    // Scale to the box so the normal equations stay well conditioned.
+    const cx = (box.xMin + box.xMax) / 2;
+    const cy = (box.yMin + box.yMax) / 2;
+    const sx = Math.max(1, (box.xMax - box.xMin) / 2);
+    const sy = Math.max(1, (box.yMax - box.yMin) / 2);
+    const ata = Array.from({ length: 6 }, () => new Array<number>(6).fill(0));
+    const atc = new Array<number>(6).fill(0);
+    const atr = new Array<number>(6).fill(0);
+    for (let i = 0; i <= 4; i++) {
+      for (let j = 0; j <= 4; j++) {
+        const u = -1 + i / 2;
+        const v = -1 + j / 2;
+        const q = toIndex(cx + u * sx, cy + v * sy);
+        if (!Number.isFinite(q.c) || !Number.isFinite(q.r)) return null;
+        const t = terms(u, v);
+        for (let a = 0; a < 6; a++) {
+          atc[a] += t[a] * q.c;
+          atr[a] += t[a] * q.r;
+          for (let b = 0; b < 6; b++) ata[a][b] += t[a] * t[b];
+        }
+      }
+    }
+    const pc = solve6(ata, atc);
+    const pr = solve6(ata, atr);
+    if (!pc || !pr) return null;
+    // Back from the scaled (u, v) to (x, y): u = (x − cx)/sx, v = (y − cy)/sy.
+    const unscale = (p: number[]): number[] => {
+      const [k0, k1, k2, k3, k4, k5] = p;
+      const a1 = k1 / sx;
+      const a2 = k2 / sy;
+      const a3 = k3 / (sx * sx);
+      const a4 = k4 / (sx * sy);
+      const a5 = k5 / (sy * sy);
+      return [
+        k0 - a1 * cx - a2 * cy + a3 * cx * cx + a4 * cx * cy + a5 * cy * cy,
+        a1 - 2 * a3 * cx - a4 * cy,
+        a2 - 2 * a5 * cy - a4 * cx,
+        a3,
+        a4,
+        a5,
+      ];
+    };
+    const map: GridMap = { col: unscale(pc), row: unscale(pr) };
+    const ev = (p: readonly number[], x: number, y: number) =>
+      p[0] + p[1] * x + p[2] * y + p[3] * x * x + p[4] * x * y + p[5] * y * y;
+    for (let i = 0; i <= 8; i++) {
+      for (let j = 0; j <= 8; j++) {
+        const x = cx + (-1 + i / 4) * sx;
+        const y = cy + (-1 + j / 4) * sy;
+        const q = toIndex(x, y);
+        if (Math.abs(ev(map.col, x, y) - q.c) > tol || Math.abs(ev(map.row, x, y) - q.r) > tol) {
+          return null;
+        }
+      }
+    }
+    return map;
+  }
+}
+
+/** Gaussian elimination with partial pivoting on a 6 × 6 system; null when singular. */
+function solve6(m: number[][], rhs: number[]): number[] | null {
+  const a = m.map((row, i) => [...row, rhs[i]]);
+  const n = 6;
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    for (let i = k + 1; i < n; i++) if (Math.abs(a[i][k]) > Math.abs(a[p][k])) p = i;
+    if (Math.abs(a[p][k]) < 1e-12) return null;
+    [a[k], a[p]] = [a[p], a[k]];
+    for (let i = k + 1; i < n; i++) {
+      const f = a[i][k] / a[k][k];
+      for (let j = k; j <= n; j++) a[i][j] -= f * a[k][j];
+    }
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let i = n - 1; i >= 0; i--) {
+    let s = a[i][n];
+    for (let j = i + 1; j < n; j++) s -= a[i][j] * x[j];
+    x[i] = s / a[i][i];
+  }
+  return x;
+}
+
+/**
+ * A function ground as a GridGround on a regular local grid of `cell_m` spacing covering `box`
+ * (tests and analytic terrain: planes, cones, ridges). Heights are sampled at the cell centres,
+ * so the ground between them is bilinear, as a DEM's is.
+ */
+export function sampledGround(
+  height: (x_m: number, y_m: number) => number | null,
+  box: LocalBox,
+  cell_m: number,
+): GridGround {
+  const cols = Math.max(2, Math.ceil((box.xMax - box.xMin) / cell_m) + 1);
+  const rows = Math.max(2, Math.ceil((box.yMax - box.yMin) / cell_m) + 1);
+  if (cols * rows > 16_000_000) throw new RangeError(`${cols} × ${rows} cells is too many`);
+  const values = new Float32Array(cols * rows);
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < cols; c++) {
+      const h = height(box.xMin + c * cell_m, box.yMax - r * cell_m);
+      values[r * cols + c] = h === null ? NaN : h;
+    }
+  }
+  // col = (x − xMin)/cell, row = (yMax − y)/cell.
+  const map: GridMap = {
+    col: [-box.xMin / cell_m, 1 / cell_m, 0, 0, 0, 0],
+    row: [box.yMax / cell_m, 0, -1 / cell_m, 0, 0, 0],
+  };
+  return new GridGround(values, cols, rows, null, map, cell_m);
 }

@@ -30,13 +30,20 @@ export { type Candidate, recommend, type Recommendation } from './recommend';
 export { windCoverageWarnings } from './wind-coverage';
 export { planDrop } from './planner';
 export {
+  type CarrierGroundPoint,
+  type FallProfilePoint,
   type GeoEllipse,
+  type GeoPolygon,
+  type HiddenBy,
   type PlanOptions,
+  type PlanTerrain,
   type PlanResult,
   type ReleaseWindow,
   type ReleaseZone,
+  type SiteGround,
   type SiteResult,
   type VariantResult,
+  type VariantTerrain,
 } from './results';
 export { altitudeSweep, sweepHeightsAGL, type SweepPoint } from './sweeps';
 export {
@@ -47,3 +54,10 @@ export {
   siteSamples,
   type SiteSamplesOptions,
 } from './site-samples';
+export {
+  type AreaBox,
+  MAX_TERRAIN_MARGIN_M,
+  terrainArea,
+  terrainLocalBox,
+  terrainMargin_m,
+} from './terrain-area';
