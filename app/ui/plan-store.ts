@@ -1,4 +1,5 @@
 /** The app's one state object: the plan being edited, its checks, history, autosave and results. */
+import type { Dem } from '../formats';
 import { parseCoordinate } from '../model';
 import { allowedRange, type Plan, type PlanIssue, validatePlan } from '../plan';
 import type { PlanSafety } from '../safety';
@@ -19,6 +20,15 @@ import { type DamagedDraft, type Draft, loadDraft, loadSettings, withTime } from
 
 export type { Settings } from './saved-state';
 export type { DamagedDraft } from './start-state';
+
+/** Where the elevation model stands: none, being read, read (store.dem holds it), or not readable. */
+export interface TerrainStatus {
+  /** the elevation model file's name ('' when there is none) */
+  name: string;
+  state: 'none' | 'loading' | 'ready' | 'error';
+  /** why the file could not be read or kept (shown beside it), or a note on what is going on */
+  message?: string;
+}
 
 /** Text typed into a field that is not a value yet, with the reason. */
 export interface FieldText {
@@ -59,6 +69,13 @@ export class PlanStore extends EventTarget {
   damaged: DamagedDraft | null = null;
   /** Why the last autosave failed; cleared by the next one that succeeds. */
   saveError: string | null = null;
+  /**
+   * The elevation model the plan is flown over (the window of the opened file read about the
+   * plan area), or null: flat ground at the typed elevations. Set through setTerrain.
+   */
+  dem: Dem | null = null;
+  /** The elevation model's file and state; a failed read keeps the previous `dem`. */
+  terrainStatus: TerrainStatus = { name: '', state: 'none' };
 
   private history: PlanHistory;
   private readonly run = new PlanningRun(this, () => this.emit());
@@ -322,6 +339,18 @@ export class PlanStore extends EventTarget {
 
   setNotice(kind: 'info' | 'error', text: string): void {
     this.notice = { kind, text };
+    this.emit();
+  }
+
+  /**
+   * Sets the elevation model (null: none) and its status, and replans when the model changed.
+   * A status alone (loading, an error) changes nothing else: the model and results stay.
+   */
+  setTerrain(dem: Dem | null, status: TerrainStatus): void {
+    const changed = dem !== this.dem;
+    this.dem = dem;
+    this.terrainStatus = status;
+    if (changed && this.plan && this.issues.length === 0) this.run.planSoon(0);
     this.emit();
   }
 

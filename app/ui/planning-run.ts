@@ -1,8 +1,9 @@
 /** Talks to the planning worker: sends the valid plan, one request at a time, takes replies. */
+import type { Dem } from '../formats';
 import type { Plan } from '../plan';
 import type { PlanSafety } from '../safety';
 import type { PlanResult } from '../planner';
-import type { WorkerReply } from '../worker';
+import type { WorkerReply, WorkerRequest } from '../worker';
 import { errorText } from './safe-storage';
 
 /** Least time between two progress redraws (ms). */
@@ -19,6 +20,8 @@ export interface PlanningState {
   progress: number;
   elapsed_ms: number;
   workerError: string | null;
+  /** The elevation model plans are flown over, or null (flat ground). */
+  dem: Dem | null;
 }
 
 /** One planning worker and the request in flight (a newer plan waits for it to finish). */
@@ -31,6 +34,8 @@ export class PlanningRun {
   private progressShownAt = -Infinity;
   private pending: Plan | null = null;
   private sentPlan: Plan | null = null;
+  /** The elevation model the worker holds (it keeps the last one sent). */
+  private sentDem: Dem | null = null;
   private computeTimer: ReturnType<typeof setTimeout> | undefined;
 
   /** emit: tells the app the state changed. */
@@ -56,6 +61,7 @@ export class PlanningRun {
   attach(worker: Worker): void {
     this.worker = worker;
     this.workerDead = false;
+    this.sentDem = null;
     worker.onmessage = (ev: MessageEvent<WorkerReply>) => this.onReply(ev.data);
     worker.onerror = (ev) => {
       // An error with a message comes from the running worker's code: forget the lost request so
@@ -110,7 +116,13 @@ export class PlanningRun {
     this.inFlight = this.nextId++;
     this.state.progress = 0;
     this.sentPlan = plan;
-    this.worker.postMessage({ id: this.inFlight, plan });
+    const req: WorkerRequest = { id: this.inFlight, plan };
+    // The grid (up to 64 MB) is copied to the worker once per model, not with every plan.
+    if (this.state.dem !== this.sentDem) {
+      req.terrain = this.state.dem ? this.state.dem.grid : null;
+      this.sentDem = this.state.dem;
+    }
+    this.worker.postMessage(req);
   }
 
   private onReply(m: WorkerReply): void {

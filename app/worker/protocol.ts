@@ -1,3 +1,4 @@
+import type { DemGrid } from '../formats';
 import type { Plan } from '../plan';
 import type { PlanSafety } from '../safety';
 import type { PlanResult } from '../planner';
@@ -6,6 +7,11 @@ import type { PlanResult } from '../planner';
 export interface WorkerRequest {
   id: number;
   plan: Plan;
+  /**
+   * Present when the elevation model changed since the last request: its grid, or null for
+   * none. The worker keeps it and flies every later plan over it.
+   */
+  terrain?: DemGrid | null;
 }
 
 /** Worker → main thread. */
