@@ -11,6 +11,7 @@ export { briefSafety } from './brief-safety';
 export { esc, niceStep, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 export { CAUTION_TEXT } from './caution';
 export { fallProfileSvg, type FallProfileOptions } from './fall-profile-svg';
+export { groundProfileSvg, type GroundProfileOptions } from './ground-profile-svg';
 export { formatPlanText } from './report-text';
 export { type LabelUnit, type ScatterInput, type ScatterOptions, scatterSvg } from './scatter-svg';
 export { isUtc, planZone, type PlanZone, UTC_ZONE, zoneClock, zoneClockText } from './plan-clock';
