@@ -6,6 +6,7 @@ export {
   type NoDropZone,
   type Plan,
   type PlanFile,
+  type PlanTerrainFile,
   type ResolvedSite,
   type ResolvedVariant,
   type SafetySection,

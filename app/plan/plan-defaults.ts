@@ -114,5 +114,6 @@ export function resolvePlan(file: PlanFile, opts: { now?: Date } = {}): Plan {
     requiredPHit: file.requiredPHit ?? DEFAULTS.requiredPHit,
     // Safety defaults live with the checks (DEFAULT_SAFETY_SETTINGS, DEFAULT_MANUAL_ITEMS).
     ...(file.safety ? { safety: structuredClone(file.safety) } : {}),
+    ...(file.terrain ? { terrain: { file: file.terrain.file } } : {}),
   };
 }

@@ -21,7 +21,7 @@ const runtime0 = function ucs2length(str) {
 };
 export const validate = validate10;
 export default validate10;
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10},"turbulence":{"enum":["none","light","moderate","severe","auto"],"description":"Modelled gusts and vertical air (low-altitude MIL-F-8785C forms): none, light, moderate or severe (wind at 20 ft of 15, 30 or 45 kt), or auto (the plan's own wind at 20 ft). Default auto."},"gust_mps":{"type":"number","description":"Set 1 sigma horizontal gust per component, m/s (0 to 10); replaces the modelled gust. Default: modelled.","minimum":0,"maximum":10},"gustTime_s":{"type":"number","description":"Set correlation time of the gust the vehicle falls through, s (0.1 to 3600); replaces the modelled one. Default: modelled.","minimum":0.1,"maximum":3600},"verticalAir_mps":{"type":"number","description":"Set 1 sigma vertical air velocity, constant through one fall, m/s (0 to 5); replaces the modelled one. Default: modelled.","minimum":0,"maximum":5}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100},"cost":{"type":"number","description":"Cost of flying one of this variant, in any unit the team likes (the same for every variant), 0 to 1000000000. The recommendation is the cheapest variant that meets requiredPHit, ties in catalogue order. Default 0.","minimum":0,"maximum":1000000000}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10},"turbulence":{"enum":["none","light","moderate","severe","auto"],"description":"Modelled gusts and vertical air (low-altitude MIL-F-8785C forms): none, light, moderate or severe (wind at 20 ft of 15, 30 or 45 kt), or auto (the plan's own wind at 20 ft). Default auto."},"gust_mps":{"type":"number","description":"Set 1 sigma horizontal gust per component, m/s (0 to 10); replaces the modelled gust. Default: modelled.","minimum":0,"maximum":10},"gustTime_s":{"type":"number","description":"Set correlation time of the gust the vehicle falls through, s (0.1 to 3600); replaces the modelled one. Default: modelled.","minimum":0.1,"maximum":3600},"verticalAir_mps":{"type":"number","description":"Set 1 sigma vertical air velocity, constant through one fall, m/s (0 to 5); replaces the modelled one. Default: modelled.","minimum":0,"maximum":5}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"terrain":{"type":"object","additionalProperties":false,"required":["file"],"description":"The elevation model the plan is flown over (docs/model.md §18).","properties":{"file":{"type":"string","minLength":1,"maxLength":1000,"pattern":"^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$","description":"A GeoTIFF (.tif, .tiff) or ESRI ASCII grid (.asc), its path relative to the plan file's folder; 1 to 1000 characters, no control characters. The CLI's --terrain overrides it."}}},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100},"cost":{"type":"number","description":"Cost of flying one of this variant, in any unit the team likes (the same for every variant), 0 to 1000000000. The recommendation is the cheapest variant that meets requiredPHit, ties in catalogue order. Default 0.","minimum":0,"maximum":1000000000}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
 const schema12 = {"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."};
 const schema14 = {"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}};
 const schema23 = {"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}};
@@ -1040,6 +1040,7 @@ validate15.errors = vErrors;
 return errors === 0;
 }
 
+const pattern3 = new RegExp("^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$", "u");
 
 function validate10(data, {instancePath="", parentData, parentDataProperty, rootData=data}={}){
 let vErrors = null;
@@ -2973,12 +2974,11 @@ vErrors.push(err159);
 errors++;
 }
 }
-if(data.safety !== undefined){
-let data58 = data.safety;
+if(data.terrain !== undefined){
+let data58 = data.terrain;
 if(data58 && typeof data58 == "object" && !Array.isArray(data58)){
-for(const key12 in data58){
-if(!(((((((key12 === "ceiling_m") || (key12 === "noDropBuffer_m")) || (key12 === "hazardBuffer_m")) || (key12 === "thrustMargin_pct")) || (key12 === "noDropZones")) || (key12 === "checklist")) || (key12 === "signoff"))){
-const err160 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data58};
+if(data58.file === undefined){
+const err160 = {instancePath:instancePath+"/terrain",schemaPath:"#/properties/terrain/required",keyword:"required",params:{missingProperty: "file"},message:"must have required property '"+"file"+"'",schema:schema11.properties.terrain.required,parentSchema:schema11.properties.terrain,data:data58};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -2987,12 +2987,9 @@ vErrors.push(err160);
 }
 errors++;
 }
-}
-if(data58.ceiling_m !== undefined){
-let data59 = data58.ceiling_m;
-if((typeof data59 == "number") && (isFinite(data59))){
-if(data59 > 10000 || isNaN(data59)){
-const err161 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
+for(const key12 in data58){
+if(!(key12 === "file")){
+const err161 = {instancePath:instancePath+"/terrain",schemaPath:"#/properties/terrain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.terrain,data:data58};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -3001,8 +2998,12 @@ vErrors.push(err161);
 }
 errors++;
 }
-if(data59 < 1 || isNaN(data59)){
-const err162 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
+}
+if(data58.file !== undefined){
+let data59 = data58.file;
+if(typeof data59 === "string"){
+if(func3(data59) > 1000){
+const err162 = {instancePath:instancePath+"/terrain/file",schemaPath:"#/properties/terrain/properties/file/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema11.properties.terrain.properties.file,data:data59};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -3011,9 +3012,8 @@ vErrors.push(err162);
 }
 errors++;
 }
-}
-else {
-const err163 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data59};
+if(func3(data59) < 1){
+const err163 = {instancePath:instancePath+"/terrain/file",schemaPath:"#/properties/terrain/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.terrain.properties.file,data:data59};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -3022,12 +3022,8 @@ vErrors.push(err163);
 }
 errors++;
 }
-}
-if(data58.noDropBuffer_m !== undefined){
-let data60 = data58.noDropBuffer_m;
-if((typeof data60 == "number") && (isFinite(data60))){
-if(data60 > 10000 || isNaN(data60)){
-const err164 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
+if(!pattern3.test(data59)){
+const err164 = {instancePath:instancePath+"/terrain/file",schemaPath:"#/properties/terrain/properties/file/pattern",keyword:"pattern",params:{pattern: "^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$"},message:"must match pattern \""+"^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$"+"\"",schema:"^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$",parentSchema:schema11.properties.terrain.properties.file,data:data59};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -3036,8 +3032,9 @@ vErrors.push(err164);
 }
 errors++;
 }
-if(data60 < 0 || isNaN(data60)){
-const err165 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
+}
+else {
+const err165 = {instancePath:instancePath+"/terrain/file",schemaPath:"#/properties/terrain/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.terrain.properties.file.type,parentSchema:schema11.properties.terrain.properties.file,data:data59};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -3047,8 +3044,9 @@ vErrors.push(err165);
 errors++;
 }
 }
+}
 else {
-const err166 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data60};
+const err166 = {instancePath:instancePath+"/terrain",schemaPath:"#/properties/terrain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.terrain.type,parentSchema:schema11.properties.terrain,data:data58};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -3058,11 +3056,12 @@ vErrors.push(err166);
 errors++;
 }
 }
-if(data58.hazardBuffer_m !== undefined){
-let data61 = data58.hazardBuffer_m;
-if((typeof data61 == "number") && (isFinite(data61))){
-if(data61 > 10000 || isNaN(data61)){
-const err167 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
+if(data.safety !== undefined){
+let data60 = data.safety;
+if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
+for(const key13 in data60){
+if(!(((((((key13 === "ceiling_m") || (key13 === "noDropBuffer_m")) || (key13 === "hazardBuffer_m")) || (key13 === "thrustMargin_pct")) || (key13 === "noDropZones")) || (key13 === "checklist")) || (key13 === "signoff"))){
+const err167 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data60};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -3071,8 +3070,12 @@ vErrors.push(err167);
 }
 errors++;
 }
-if(data61 < 0 || isNaN(data61)){
-const err168 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
+}
+if(data60.ceiling_m !== undefined){
+let data61 = data60.ceiling_m;
+if((typeof data61 == "number") && (isFinite(data61))){
+if(data61 > 10000 || isNaN(data61)){
+const err168 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data61};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -3081,9 +3084,8 @@ vErrors.push(err168);
 }
 errors++;
 }
-}
-else {
-const err169 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data61};
+if(data61 < 1 || isNaN(data61)){
+const err169 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data61};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -3093,11 +3095,8 @@ vErrors.push(err169);
 errors++;
 }
 }
-if(data58.thrustMargin_pct !== undefined){
-let data62 = data58.thrustMargin_pct;
-if((typeof data62 == "number") && (isFinite(data62))){
-if(data62 > 90 || isNaN(data62)){
-const err170 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
+else {
+const err170 = {instancePath:instancePath+"/safety/ceiling_m",schemaPath:"#/properties/safety/properties/ceiling_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.ceiling_m.type,parentSchema:schema11.properties.safety.properties.ceiling_m,data:data61};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -3106,8 +3105,12 @@ vErrors.push(err170);
 }
 errors++;
 }
-if(data62 < 0 || isNaN(data62)){
-const err171 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
+}
+if(data60.noDropBuffer_m !== undefined){
+let data62 = data60.noDropBuffer_m;
+if((typeof data62 == "number") && (isFinite(data62))){
+if(data62 > 10000 || isNaN(data62)){
+const err171 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data62};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -3116,9 +3119,8 @@ vErrors.push(err171);
 }
 errors++;
 }
-}
-else {
-const err172 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data62};
+if(data62 < 0 || isNaN(data62)){
+const err172 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data62};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -3128,11 +3130,8 @@ vErrors.push(err172);
 errors++;
 }
 }
-if(data58.noDropZones !== undefined){
-let data63 = data58.noDropZones;
-if(Array.isArray(data63)){
-if(data63.length > 200){
-const err173 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data63};
+else {
+const err173 = {instancePath:instancePath+"/safety/noDropBuffer_m",schemaPath:"#/properties/safety/properties/noDropBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.noDropBuffer_m.type,parentSchema:schema11.properties.safety.properties.noDropBuffer_m,data:data62};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -3141,12 +3140,12 @@ vErrors.push(err173);
 }
 errors++;
 }
-const len6 = data63.length;
-for(let i6=0; i6<len6; i6++){
-let data64 = data63[i6];
-if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
-if(data64.type === undefined){
-const err174 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data64};
+}
+if(data60.hazardBuffer_m !== undefined){
+let data63 = data60.hazardBuffer_m;
+if((typeof data63 == "number") && (isFinite(data63))){
+if(data63 > 10000 || isNaN(data63)){
+const err174 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data63};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -3155,8 +3154,8 @@ vErrors.push(err174);
 }
 errors++;
 }
-if(data64.geometry === undefined){
-const err175 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data64};
+if(data63 < 0 || isNaN(data63)){
+const err175 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data63};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -3165,9 +3164,9 @@ vErrors.push(err175);
 }
 errors++;
 }
-for(const key13 in data64){
-if(!(((key13 === "type") || (key13 === "properties")) || (key13 === "geometry"))){
-const err176 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data64};
+}
+else {
+const err176 = {instancePath:instancePath+"/safety/hazardBuffer_m",schemaPath:"#/properties/safety/properties/hazardBuffer_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.hazardBuffer_m.type,parentSchema:schema11.properties.safety.properties.hazardBuffer_m,data:data63};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -3177,10 +3176,11 @@ vErrors.push(err176);
 errors++;
 }
 }
-if(data64.type !== undefined){
-let data65 = data64.type;
-if("Feature" !== data65){
-const err177 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data65};
+if(data60.thrustMargin_pct !== undefined){
+let data64 = data60.thrustMargin_pct;
+if((typeof data64 == "number") && (isFinite(data64))){
+if(data64 > 90 || isNaN(data64)){
+const err177 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/maximum",keyword:"maximum",params:{comparison: "<=", limit: 90},message:"must be <= 90",schema:90,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data64};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -3189,15 +3189,8 @@ vErrors.push(err177);
 }
 errors++;
 }
-}
-if(data64.properties !== undefined){
-let data66 = data64.properties;
-if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
-if(data66.name !== undefined){
-let data67 = data66.name;
-if(typeof data67 === "string"){
-if(func3(data67) > 200){
-const err178 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data67};
+if(data64 < 0 || isNaN(data64)){
+const err178 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data64};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -3208,7 +3201,7 @@ errors++;
 }
 }
 else {
-const err179 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data67};
+const err179 = {instancePath:instancePath+"/safety/thrustMargin_pct",schemaPath:"#/properties/safety/properties/thrustMargin_pct/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.thrustMargin_pct.type,parentSchema:schema11.properties.safety.properties.thrustMargin_pct,data:data64};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -3218,9 +3211,11 @@ vErrors.push(err179);
 errors++;
 }
 }
-}
-else {
-const err180 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data66};
+if(data60.noDropZones !== undefined){
+let data65 = data60.noDropZones;
+if(Array.isArray(data65)){
+if(data65.length > 200){
+const err180 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data65};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -3229,12 +3224,12 @@ vErrors.push(err180);
 }
 errors++;
 }
-}
-if(data64.geometry !== undefined){
-let data68 = data64.geometry;
-if(data68 && typeof data68 == "object" && !Array.isArray(data68)){
-if(data68.type === undefined){
-const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data68};
+const len6 = data65.length;
+for(let i6=0; i6<len6; i6++){
+let data66 = data65[i6];
+if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
+if(data66.type === undefined){
+const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data66};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -3243,8 +3238,8 @@ vErrors.push(err181);
 }
 errors++;
 }
-if(data68.coordinates === undefined){
-const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data68};
+if(data66.geometry === undefined){
+const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data66};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -3253,9 +3248,9 @@ vErrors.push(err182);
 }
 errors++;
 }
-for(const key14 in data68){
-if(!((key14 === "type") || (key14 === "coordinates"))){
-const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data68};
+for(const key14 in data66){
+if(!(((key14 === "type") || (key14 === "properties")) || (key14 === "geometry"))){
+const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data66};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -3265,10 +3260,10 @@ vErrors.push(err183);
 errors++;
 }
 }
-if(data68.type !== undefined){
-let data69 = data68.type;
-if("Polygon" !== data69){
-const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data69};
+if(data66.type !== undefined){
+let data67 = data66.type;
+if("Feature" !== data67){
+const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data67};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -3278,11 +3273,14 @@ vErrors.push(err184);
 errors++;
 }
 }
-if(data68.coordinates !== undefined){
-let data70 = data68.coordinates;
-if(Array.isArray(data70)){
-if(data70.length > 50){
-const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
+if(data66.properties !== undefined){
+let data68 = data66.properties;
+if(data68 && typeof data68 == "object" && !Array.isArray(data68)){
+if(data68.name !== undefined){
+let data69 = data68.name;
+if(typeof data69 === "string"){
+if(func3(data69) > 200){
+const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data69};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -3291,8 +3289,9 @@ vErrors.push(err185);
 }
 errors++;
 }
-if(data70.length < 1){
-const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
+}
+else {
+const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data69};
 if(vErrors === null){
 vErrors = [err186];
 }
@@ -3301,12 +3300,10 @@ vErrors.push(err186);
 }
 errors++;
 }
-const len7 = data70.length;
-for(let i7=0; i7<len7; i7++){
-let data71 = data70[i7];
-if(Array.isArray(data71)){
-if(data71.length > 5000){
-const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
+}
+}
+else {
+const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data68};
 if(vErrors === null){
 vErrors = [err187];
 }
@@ -3315,8 +3312,12 @@ vErrors.push(err187);
 }
 errors++;
 }
-if(data71.length < 4){
-const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
+}
+if(data66.geometry !== undefined){
+let data70 = data66.geometry;
+if(data70 && typeof data70 == "object" && !Array.isArray(data70)){
+if(data70.type === undefined){
+const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data70};
 if(vErrors === null){
 vErrors = [err188];
 }
@@ -3325,12 +3326,8 @@ vErrors.push(err188);
 }
 errors++;
 }
-const len8 = data71.length;
-for(let i8=0; i8<len8; i8++){
-let data72 = data71[i8];
-if(Array.isArray(data72)){
-if(data72.length > 3){
-const err189 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
+if(data70.coordinates === undefined){
+const err189 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data70};
 if(vErrors === null){
 vErrors = [err189];
 }
@@ -3339,8 +3336,9 @@ vErrors.push(err189);
 }
 errors++;
 }
-if(data72.length < 2){
-const err190 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
+for(const key15 in data70){
+if(!((key15 === "type") || (key15 === "coordinates"))){
+const err190 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data70};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -3349,12 +3347,11 @@ vErrors.push(err190);
 }
 errors++;
 }
-const len9 = data72.length;
-for(let i9=0; i9<len9; i9++){
-let data73 = data72[i9];
-if((typeof data73 == "number") && (isFinite(data73))){
-if(data73 > 180 || isNaN(data73)){
-const err191 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
+}
+if(data70.type !== undefined){
+let data71 = data70.type;
+if("Polygon" !== data71){
+const err191 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data71};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -3363,8 +3360,12 @@ vErrors.push(err191);
 }
 errors++;
 }
-if(data73 < -180 || isNaN(data73)){
-const err192 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
+}
+if(data70.coordinates !== undefined){
+let data72 = data70.coordinates;
+if(Array.isArray(data72)){
+if(data72.length > 50){
+const err192 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -3373,9 +3374,8 @@ vErrors.push(err192);
 }
 errors++;
 }
-}
-else {
-const err193 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data73};
+if(data72.length < 1){
+const err193 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -3384,10 +3384,12 @@ vErrors.push(err193);
 }
 errors++;
 }
-}
-}
-else {
-const err194 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data72};
+const len7 = data72.length;
+for(let i7=0; i7<len7; i7++){
+let data73 = data72[i7];
+if(Array.isArray(data73)){
+if(data73.length > 5000){
+const err194 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -3396,10 +3398,8 @@ vErrors.push(err194);
 }
 errors++;
 }
-}
-}
-else {
-const err195 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data71};
+if(data73.length < 4){
+const err195 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -3408,10 +3408,12 @@ vErrors.push(err195);
 }
 errors++;
 }
-}
-}
-else {
-const err196 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data70};
+const len8 = data73.length;
+for(let i8=0; i8<len8; i8++){
+let data74 = data73[i8];
+if(Array.isArray(data74)){
+if(data74.length > 3){
+const err196 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -3420,10 +3422,8 @@ vErrors.push(err196);
 }
 errors++;
 }
-}
-}
-else {
-const err197 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data68};
+if(data74.length < 2){
+const err197 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -3432,10 +3432,12 @@ vErrors.push(err197);
 }
 errors++;
 }
-}
-}
-else {
-const err198 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data64};
+const len9 = data74.length;
+for(let i9=0; i9<len9; i9++){
+let data75 = data74[i9];
+if((typeof data75 == "number") && (isFinite(data75))){
+if(data75 > 180 || isNaN(data75)){
+const err198 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -3444,10 +3446,8 @@ vErrors.push(err198);
 }
 errors++;
 }
-}
-}
-else {
-const err199 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data63};
+if(data75 < -180 || isNaN(data75)){
+const err199 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -3457,11 +3457,8 @@ vErrors.push(err199);
 errors++;
 }
 }
-if(data58.checklist !== undefined){
-let data74 = data58.checklist;
-if(Array.isArray(data74)){
-if(data74.length > 200){
-const err200 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data74};
+else {
+const err200 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -3470,16 +3467,10 @@ vErrors.push(err200);
 }
 errors++;
 }
-const len10 = data74.length;
-for(let i10=0; i10<len10; i10++){
-if(!(validate15(data74[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data74,parentDataProperty:i10,rootData}))){
-vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
-errors = vErrors.length;
-}
 }
 }
 else {
-const err201 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data74};
+const err201 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -3489,11 +3480,9 @@ vErrors.push(err201);
 errors++;
 }
 }
-if(data58.signoff !== undefined){
-let data76 = data58.signoff;
-if(data76 && typeof data76 == "object" && !Array.isArray(data76)){
-if(data76.who === undefined){
-const err202 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
+}
+else {
+const err202 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -3502,8 +3491,10 @@ vErrors.push(err202);
 }
 errors++;
 }
-if(data76.when === undefined){
-const err203 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
+}
+}
+else {
+const err203 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -3512,9 +3503,10 @@ vErrors.push(err203);
 }
 errors++;
 }
-for(const key15 in data76){
-if(!(((((key15 === "who") || (key15 === "when")) || (key15 === "reason")) || (key15 === "planHash")) || (key15 === "covers"))){
-const err204 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
+}
+}
+else {
+const err204 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data70};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -3524,11 +3516,9 @@ vErrors.push(err204);
 errors++;
 }
 }
-if(data76.who !== undefined){
-let data77 = data76.who;
-if(typeof data77 === "string"){
-if(func3(data77) > 100){
-const err205 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
+}
+else {
+const err205 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data66};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -3537,8 +3527,10 @@ vErrors.push(err205);
 }
 errors++;
 }
-if(func3(data77) < 1){
-const err206 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
+}
+}
+else {
+const err206 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data65};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -3548,8 +3540,11 @@ vErrors.push(err206);
 errors++;
 }
 }
-else {
-const err207 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data77};
+if(data60.checklist !== undefined){
+let data76 = data60.checklist;
+if(Array.isArray(data76)){
+if(data76.length > 200){
+const err207 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data76};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -3558,12 +3553,16 @@ vErrors.push(err207);
 }
 errors++;
 }
+const len10 = data76.length;
+for(let i10=0; i10<len10; i10++){
+if(!(validate15(data76[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data76,parentDataProperty:i10,rootData}))){
+vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
+errors = vErrors.length;
 }
-if(data76.when !== undefined){
-let data78 = data76.when;
-if(typeof data78 === "string"){
-if(func3(data78) > 40){
-const err208 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data78};
+}
+}
+else {
+const err208 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data76};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -3573,8 +3572,11 @@ vErrors.push(err208);
 errors++;
 }
 }
-else {
-const err209 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data78};
+if(data60.signoff !== undefined){
+let data78 = data60.signoff;
+if(data78 && typeof data78 == "object" && !Array.isArray(data78)){
+if(data78.who === undefined){
+const err209 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -3583,12 +3585,8 @@ vErrors.push(err209);
 }
 errors++;
 }
-}
-if(data76.reason !== undefined){
-let data79 = data76.reason;
-if(typeof data79 === "string"){
-if(func3(data79) > 2000){
-const err210 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data79};
+if(data78.when === undefined){
+const err210 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
 if(vErrors === null){
 vErrors = [err210];
 }
@@ -3597,9 +3595,9 @@ vErrors.push(err210);
 }
 errors++;
 }
-}
-else {
-const err211 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data79};
+for(const key16 in data78){
+if(!(((((key16 === "who") || (key16 === "when")) || (key16 === "reason")) || (key16 === "planHash")) || (key16 === "covers"))){
+const err211 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
 if(vErrors === null){
 vErrors = [err211];
 }
@@ -3609,11 +3607,11 @@ vErrors.push(err211);
 errors++;
 }
 }
-if(data76.planHash !== undefined){
-let data80 = data76.planHash;
-if(typeof data80 === "string"){
-if(func3(data80) > 64){
-const err212 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data80};
+if(data78.who !== undefined){
+let data79 = data78.who;
+if(typeof data79 === "string"){
+if(func3(data79) > 100){
+const err212 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
 if(vErrors === null){
 vErrors = [err212];
 }
@@ -3622,9 +3620,8 @@ vErrors.push(err212);
 }
 errors++;
 }
-}
-else {
-const err213 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data80};
+if(func3(data79) < 1){
+const err213 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
 if(vErrors === null){
 vErrors = [err213];
 }
@@ -3634,11 +3631,8 @@ vErrors.push(err213);
 errors++;
 }
 }
-if(data76.covers !== undefined){
-let data81 = data76.covers;
-if(Array.isArray(data81)){
-if(data81.length > 50){
-const err214 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data81};
+else {
+const err214 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
 if(vErrors === null){
 vErrors = [err214];
 }
@@ -3647,12 +3641,12 @@ vErrors.push(err214);
 }
 errors++;
 }
-const len11 = data81.length;
-for(let i11=0; i11<len11; i11++){
-let data82 = data81[i11];
-if(typeof data82 === "string"){
-if(func3(data82) > 64){
-const err215 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data82};
+}
+if(data78.when !== undefined){
+let data80 = data78.when;
+if(typeof data80 === "string"){
+if(func3(data80) > 40){
+const err215 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data80};
 if(vErrors === null){
 vErrors = [err215];
 }
@@ -3663,7 +3657,7 @@ errors++;
 }
 }
 else {
-const err216 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data82};
+const err216 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data80};
 if(vErrors === null){
 vErrors = [err216];
 }
@@ -3673,9 +3667,11 @@ vErrors.push(err216);
 errors++;
 }
 }
-}
-else {
-const err217 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data81};
+if(data78.reason !== undefined){
+let data81 = data78.reason;
+if(typeof data81 === "string"){
+if(func3(data81) > 2000){
+const err217 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data81};
 if(vErrors === null){
 vErrors = [err217];
 }
@@ -3685,9 +3681,8 @@ vErrors.push(err217);
 errors++;
 }
 }
-}
 else {
-const err218 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data76};
+const err218 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data81};
 if(vErrors === null){
 vErrors = [err218];
 }
@@ -3697,9 +3692,11 @@ vErrors.push(err218);
 errors++;
 }
 }
-}
-else {
-const err219 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data58};
+if(data78.planHash !== undefined){
+let data82 = data78.planHash;
+if(typeof data82 === "string"){
+if(func3(data82) > 64){
+const err219 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data82};
 if(vErrors === null){
 vErrors = [err219];
 }
@@ -3709,14 +3706,100 @@ vErrors.push(err219);
 errors++;
 }
 }
-}
 else {
-const err220 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+const err220 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data82};
 if(vErrors === null){
 vErrors = [err220];
 }
 else {
 vErrors.push(err220);
+}
+errors++;
+}
+}
+if(data78.covers !== undefined){
+let data83 = data78.covers;
+if(Array.isArray(data83)){
+if(data83.length > 50){
+const err221 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data83};
+if(vErrors === null){
+vErrors = [err221];
+}
+else {
+vErrors.push(err221);
+}
+errors++;
+}
+const len11 = data83.length;
+for(let i11=0; i11<len11; i11++){
+let data84 = data83[i11];
+if(typeof data84 === "string"){
+if(func3(data84) > 64){
+const err222 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data84};
+if(vErrors === null){
+vErrors = [err222];
+}
+else {
+vErrors.push(err222);
+}
+errors++;
+}
+}
+else {
+const err223 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data84};
+if(vErrors === null){
+vErrors = [err223];
+}
+else {
+vErrors.push(err223);
+}
+errors++;
+}
+}
+}
+else {
+const err224 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data83};
+if(vErrors === null){
+vErrors = [err224];
+}
+else {
+vErrors.push(err224);
+}
+errors++;
+}
+}
+}
+else {
+const err225 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
+if(vErrors === null){
+vErrors = [err225];
+}
+else {
+vErrors.push(err225);
+}
+errors++;
+}
+}
+}
+else {
+const err226 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data60};
+if(vErrors === null){
+vErrors = [err226];
+}
+else {
+vErrors.push(err226);
+}
+errors++;
+}
+}
+}
+else {
+const err227 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err227];
+}
+else {
+vErrors.push(err227);
 }
 errors++;
 }

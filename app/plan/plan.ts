@@ -104,6 +104,11 @@ export interface Signoff {
 }
 
 export interface PlanFile {
+/** The elevation model a plan names: a .tif/.tiff/.asc path relative to the plan file's folder. */
+export interface PlanTerrainFile {
+  file: string;
+}
+
   format: 'seedfall-plan';
   version: 1;
   name?: string;
@@ -127,6 +132,7 @@ export interface PlanFile {
   requiredPHit?: number;
   safety?: SafetySection;
 }
+  terrain?: PlanTerrainFile;
 
 /** A plan with every default applied; what the core computes on. */
 export interface Plan {
@@ -152,6 +158,8 @@ export interface Plan {
   /** As in the file; defaults are applied by the safety checks (DEFAULT_SAFETY_SETTINGS). */
   safety?: SafetySection;
 }
+  /** As in the file (absent when the file has none). */
+  terrain?: PlanTerrainFile;
 
 export interface ResolvedVariant extends Variant {
   name: string;

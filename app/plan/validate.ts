@@ -28,6 +28,8 @@ type SchemaNode = Json & { properties?: Json };
 const STEERED = new Set(['fixed-heading', 'homing']);
 const PATTERN_HINTS: Record<string, string> = {
   [schema.definitions.id.pattern]: 'must be printable characters with no leading or trailing space',
+  [schema.properties.terrain.properties.file.pattern]:
+    'must name a .tif, .tiff or .asc file, with no control characters',
 };
 
 const isRecord = (x: unknown): x is Json =>
