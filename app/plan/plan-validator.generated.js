@@ -21,7 +21,7 @@ const runtime0 = function ucs2length(str) {
 };
 export const validate = validate10;
 export default validate10;
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10},"turbulence":{"enum":["none","light","moderate","severe","auto"],"description":"Modelled gusts and vertical air (low-altitude MIL-F-8785C forms): none, light, moderate or severe (wind at 20 ft of 15, 30 or 45 kt), or auto (the plan's own wind at 20 ft). Default auto."},"gust_mps":{"type":"number","description":"Set 1 sigma horizontal gust per component, m/s (0 to 10); replaces the modelled gust. Default: modelled.","minimum":0,"maximum":10},"gustTime_s":{"type":"number","description":"Set correlation time of the gust the vehicle falls through, s (0.1 to 3600); replaces the modelled one. Default: modelled.","minimum":0.1,"maximum":3600},"verticalAir_mps":{"type":"number","description":"Set 1 sigma vertical air velocity, constant through one fall, m/s (0 to 5); replaces the modelled one. Default: modelled.","minimum":0,"maximum":5}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"terrain":{"type":"object","additionalProperties":false,"required":["file"],"description":"The elevation model the plan is flown over (docs/model.md §18).","properties":{"file":{"type":"string","minLength":1,"maxLength":1000,"pattern":"^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$","description":"A GeoTIFF (.tif, .tiff) or ESRI ASCII grid (.asc), its path relative to the plan file's folder; 1 to 1000 characters, no control characters. The CLI's --terrain overrides it."}}},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100},"cost":{"type":"number","description":"Cost of flying one of this variant, in any unit the team likes (the same for every variant), 0 to 1000000000. The recommendation is the cheapest variant that meets requiredPHit, ties in catalogue order. Default 0.","minimum":0,"maximum":1000000000}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","title":"Seedfall plan file, version 1","description":"One drop plan: air, wind, release, vehicle variants and sensor sites. Field reference and defaults: docs/plan-format.md.","type":"object","additionalProperties":false,"required":["format","version","release","variants","sites"],"properties":{"format":{"const":"seedfall-plan","description":"Marks the file as a Seedfall plan."},"version":{"const":1,"description":"Plan file version."},"name":{"type":"string","maxLength":200,"description":"Title shown in the app and brief. Default \"Untitled plan\"."},"time":{"type":"string","format":"date-time","description":"Planned release time, ISO 8601 / RFC 3339 with zone. Default: now."},"groundElevation_m":{"type":"number","description":"Ground elevation at the release area, m MSL. Default 0.","minimum":-500,"maximum":10000},"atmosphere":{"type":"object","additionalProperties":false,"properties":{"isaOffset_K":{"type":"number","description":"Temperature offset from the standard atmosphere, K. Default 0.","minimum":-60,"maximum":60},"sounding":{"type":"object","additionalProperties":false,"required":["levels"],"description":"Measured or forecast temperatures; when given, density comes from them by hydrostatic integration instead of the ISA offset.","properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"surfacePressure_hPa":{"type":"number","minimum":300,"maximum":1100,"description":"Pressure at the lowest level, hPa. Default: standard pressure there."},"levels":{"type":"array","minItems":1,"maxItems":500,"items":{"type":"object","additionalProperties":false,"required":["altitude_m","temperature_K"],"properties":{"altitude_m":{"type":"number","minimum":-500,"maximum":30000},"temperature_K":{"type":"number","minimum":150,"maximum":350}}}}}}}},"winds":{"type":"object","additionalProperties":false,"properties":{"reference":{"$ref":"#/definitions/altitudeReference"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"surfaceExponent":{"type":"number","description":"Power-law exponent of the wind below the lowest layer. Default 1/7.","minimum":0,"maximum":1},"forecasts":{"type":"array","maxItems":48,"description":"Further wind profiles with valid times (same reference as layers), interpolated in time for the release-time timeline.","items":{"type":"object","additionalProperties":false,"required":["time","layers"],"properties":{"time":{"type":"string","format":"date-time"},"layers":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/windLayer"}},"reference":{"$ref":"#/definitions/altitudeReference"}},"description":"A profile valid at `time`; its altitudes are per its own `reference` (default: winds.reference)."}}}},"release":{"type":"object","additionalProperties":false,"required":["lat","lon","altitude_m"],"properties":{"lat":{"type":"number","description":"Release point latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Release point longitude, degrees WGS 84.","minimum":-180,"maximum":180},"altitude_m":{"type":"number","description":"Release altitude, m, above ground or sea level per reference.","minimum":-500,"maximum":10000},"reference":{"$ref":"#/definitions/altitudeReference"}}},"carrier":{"type":"object","additionalProperties":false,"properties":{"groundSpeed_mps":{"type":"number","description":"Carrier ground speed at release, m/s: 0 (hover) or 0.5 to 100. Default 0.","minimum":0,"maximum":100,"not":{"type":"number","exclusiveMinimum":0,"exclusiveMaximum":0.5}},"trackDeg":{"type":"number","description":"Carrier ground track, degrees true. Default 0.","minimum":0,"maximum":360}}},"variants":{"type":"array","minItems":1,"maxItems":100,"items":{"$ref":"#/definitions/variant"}},"sites":{"type":"array","maxItems":1000,"items":{"$ref":"#/definitions/site"}},"uncertainty":{"type":"object","additionalProperties":false,"properties":{"windSpeed_mps":{"type":"number","description":"1 sigma wind error per horizontal component, m/s. Default 0.","minimum":0,"maximum":30},"windCorrelation_m":{"type":"number","description":"Altitude over which wind errors decorrelate, m (1 to 100000). Default 300.","minimum":1,"maximum":100000},"descentRate_pct":{"type":"number","description":"1 sigma descent-rate error, % of nominal. Default 0.","minimum":0,"exclusiveMaximum":50},"releasePosition_m":{"type":"number","description":"1 sigma release position error per horizontal axis, m (0 to 1000). Default 0.","minimum":0,"maximum":1000},"heading_deg":{"type":"number","description":"1 sigma heading error of steered variants, degrees. Default 0.","minimum":0,"maximum":180},"releaseTiming_s":{"type":"number","description":"1 sigma release timing error, s (0 to 10). Default 0.","minimum":0,"maximum":10},"turbulence":{"enum":["none","light","moderate","severe","auto"],"description":"Modelled gusts and vertical air (low-altitude MIL-F-8785C forms): none, light, moderate or severe (wind at 20 ft of 15, 30 or 45 kt), or auto (the plan's own wind at 20 ft). Default auto."},"gust_mps":{"type":"number","description":"Set 1 sigma horizontal gust per component, m/s (0 to 10); replaces the modelled gust. Default: modelled.","minimum":0,"maximum":10},"gustTime_s":{"type":"number","description":"Set correlation time of the gust the vehicle falls through, s (0.1 to 3600); replaces the modelled one. Default: modelled.","minimum":0.1,"maximum":3600},"verticalAir_mps":{"type":"number","description":"Set 1 sigma vertical air velocity, constant through one fall, m/s (0 to 5); replaces the modelled one. Default: modelled.","minimum":0,"maximum":5}}},"monteCarlo":{"type":"object","additionalProperties":false,"properties":{"samples":{"type":"integer","minimum":1,"maximum":100000,"description":"Monte Carlo sample count. Default 2000."},"seed":{"type":"integer","minimum":0,"maximum":4294967295,"description":"Seed of the random generator (unsigned 32-bit). Default 1."}}},"requiredPHit":{"type":"number","description":"Hit probability a site needs to be planned as reachable (0.01 to 1). Default 0.9.","minimum":0.01,"maximum":1},"terrain":{"type":"object","additionalProperties":false,"required":["file"],"description":"The elevation model the plan is flown over (docs/model.md §18).","properties":{"file":{"type":"string","minLength":1,"maxLength":1000,"pattern":"^[^\\p{Cc}]*\\.(?:[Tt][Ii][Ff][Ff]?|[Aa][Ss][Cc])$","description":"A GeoTIFF (.tif, .tiff) or ESRI ASCII grid (.asc), its path relative to the plan file's folder; 1 to 1000 characters, no control characters. The CLI's --terrain overrides it."}}},"safety":{"type":"object","additionalProperties":false,"description":"Safety settings, no-drop zones, the crew checklist and the ready sign-off.","properties":{"ceiling_m":{"type":"number","description":"Highest release altitude allowed, m AGL (1 to 10000; a setting: match local rules). Default 120.","minimum":1,"maximum":10000},"noDropBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least clearance of 99 % ellipses from no-drop zones, m. Default 10."},"hazardBuffer_m":{"type":"number","minimum":0,"maximum":10000,"description":"Margin around the hazard area, m. Default 20."},"thrustMargin_pct":{"type":"number","minimum":0,"maximum":90,"description":"Control time kept in reserve, %. Default 20."},"terrainClearance_m":{"type":"number","minimum":0,"maximum":10000,"description":"Least height of the carrier above the terrain along its track or at hover points, m (checked over an elevation model). Default 30."},"noDropZones":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/noDropZone"}},"checklist":{"type":"array","maxItems":200,"items":{"$ref":"#/definitions/checklistItem"}},"signoff":{"type":"object","additionalProperties":false,"required":["who","when"],"description":"Who marked the plan ready and when; a reason is required when an automatic check failed.","properties":{"who":{"type":"string","minLength":1,"maxLength":100},"when":{"type":"string","maxLength":40},"reason":{"type":"string","maxLength":2000},"planHash":{"type":"string","maxLength":64,"description":"Fingerprint of the plan as signed; any later change voids the sign-off."},"covers":{"type":"array","maxItems":50,"items":{"type":"string","maxLength":64},"description":"Ids of the failing automatic checks the reason was written for."}}}}}},"definitions":{"id":{"type":"string","minLength":1,"maxLength":64,"pattern":"^[^\\s\\p{Cc}](?:[^\\p{Cc}]*[^\\s\\p{Cc}])?$","description":"Identifier: 1 to 64 printable characters, no leading or trailing space."},"altitudeReference":{"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."},"windLayer":{"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}},"variant":{"type":"object","additionalProperties":false,"required":["id","guidance","descentRate_mps"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"guidance":{"enum":["passive","fixed-heading","homing"],"description":"How the vehicle steers after release."},"descentRate_mps":{"type":"number","description":"Steady descent speed at sea-level standard density, m/s (0.05 to 30).","minimum":0.05,"maximum":30},"glideAngle_deg":{"type":"number","description":"Glide angle below horizontal in still air, degrees (1 to 90; steered: below 90). Default 90 (passive).","minimum":1,"maximum":90},"controlTime_s":{"type":"number","description":"Longest steering time after the entry, s. Default 0 (passive).","minimum":0,"maximum":3600},"entryLoss_m":{"type":"number","description":"Altitude lost after release before steering starts, m. Default 0.","minimum":0,"maximum":10000},"referenceMass_kg":{"type":"number","description":"Mass the descent rate was measured with, kg (0.001 to 100).","minimum":0.001,"maximum":100},"payloadMass_kg":{"type":"number","description":"Mass flown in this plan, kg (0.001 to 100; needs referenceMass_kg, and 0.25 to 4 times it).","minimum":0.001,"maximum":100},"throwTime_s":{"type":"number","description":"Override of the forward-throw relaxation time, s (0 to 10).","minimum":0,"maximum":10},"maxWind_mps":{"type":"number","description":"Largest wind the variant is cleared for, m/s.","minimum":0,"maximum":100},"cost":{"type":"number","description":"Cost of flying one of this variant, in any unit the team likes (the same for every variant), 0 to 1000000000. The recommendation is the cheapest variant that meets requiredPHit, ties in catalogue order. Default 0.","minimum":0,"maximum":1000000000}}},"site":{"type":"object","additionalProperties":false,"required":["id","lat","lon"],"properties":{"id":{"$ref":"#/definitions/id"},"name":{"type":"string","maxLength":200,"description":"Display name. Default: the id."},"lat":{"type":"number","description":"Site latitude, degrees WGS 84.","minimum":-90,"maximum":90},"lon":{"type":"number","description":"Site longitude, degrees WGS 84.","minimum":-180,"maximum":180},"elevation_m":{"type":"number","description":"Ground elevation at the site, m MSL. Default groundElevation_m.","minimum":-500,"maximum":10000},"tolerance_m":{"type":"number","description":"Landing within this distance counts as a hit, m (0.1 to 10000). Default 10.","minimum":0.1,"maximum":10000},"variant":{"$ref":"#/definitions/id"}}},"noDropZone":{"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}},"checklistItem":{"type":"object","additionalProperties":false,"required":["id","text","state"],"properties":{"id":{"$ref":"#/definitions/id"},"text":{"type":"string","minLength":1,"maxLength":500,"description":"What the crew checks."},"state":{"enum":["open","done","n/a"]},"who":{"type":"string","maxLength":100},"when":{"type":"string","maxLength":40},"note":{"type":"string","maxLength":1000}}}}};
 const schema12 = {"enum":["AGL","MSL"],"description":"AGL: above groundElevation_m; MSL: above mean sea level. Default AGL."};
 const schema14 = {"type":"object","additionalProperties":false,"required":["altitude_m","fromDeg","speed_mps"],"properties":{"altitude_m":{"type":"number","description":"Layer altitude, m, per winds.reference. Up to 20000 m so upper-level forecasts can be kept whole.","minimum":-500,"maximum":20000},"fromDeg":{"type":"number","description":"Direction the wind blows from, degrees true.","minimum":0,"maximum":360},"speed_mps":{"type":"number","description":"Wind speed, m/s.","minimum":0,"maximum":100}}};
 const schema23 = {"type":"object","additionalProperties":false,"required":["type","geometry"],"description":"A no-drop zone as a GeoJSON (RFC 7946) Feature with a Polygon geometry ([lon, lat] positions).","properties":{"type":{"const":"Feature"},"properties":{"type":"object","properties":{"name":{"type":"string","maxLength":200}}},"geometry":{"type":"object","additionalProperties":false,"required":["type","coordinates"],"properties":{"type":{"const":"Polygon"},"coordinates":{"type":"array","minItems":1,"maxItems":50,"items":{"type":"array","minItems":4,"maxItems":5000,"items":{"type":"array","minItems":2,"maxItems":3,"items":{"type":"number","minimum":-180,"maximum":180},"description":"[lon, lat] or [lon, lat, altitude] in degrees (RFC 7946 order); longitude within ±180 here, latitude within ±90 checked by validatePlan."}}}}}}};
@@ -3060,7 +3060,7 @@ if(data.safety !== undefined){
 let data60 = data.safety;
 if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
 for(const key13 in data60){
-if(!(((((((key13 === "ceiling_m") || (key13 === "noDropBuffer_m")) || (key13 === "hazardBuffer_m")) || (key13 === "thrustMargin_pct")) || (key13 === "noDropZones")) || (key13 === "checklist")) || (key13 === "signoff"))){
+if(!((((((((key13 === "ceiling_m") || (key13 === "noDropBuffer_m")) || (key13 === "hazardBuffer_m")) || (key13 === "thrustMargin_pct")) || (key13 === "terrainClearance_m")) || (key13 === "noDropZones")) || (key13 === "checklist")) || (key13 === "signoff"))){
 const err167 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety,data:data60};
 if(vErrors === null){
 vErrors = [err167];
@@ -3211,11 +3211,11 @@ vErrors.push(err179);
 errors++;
 }
 }
-if(data60.noDropZones !== undefined){
-let data65 = data60.noDropZones;
-if(Array.isArray(data65)){
-if(data65.length > 200){
-const err180 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data65};
+if(data60.terrainClearance_m !== undefined){
+let data65 = data60.terrainClearance_m;
+if((typeof data65 == "number") && (isFinite(data65))){
+if(data65 > 10000 || isNaN(data65)){
+const err180 = {instancePath:instancePath+"/safety/terrainClearance_m",schemaPath:"#/properties/safety/properties/terrainClearance_m/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.safety.properties.terrainClearance_m,data:data65};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -3224,12 +3224,8 @@ vErrors.push(err180);
 }
 errors++;
 }
-const len6 = data65.length;
-for(let i6=0; i6<len6; i6++){
-let data66 = data65[i6];
-if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
-if(data66.type === undefined){
-const err181 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data66};
+if(data65 < 0 || isNaN(data65)){
+const err181 = {instancePath:instancePath+"/safety/terrainClearance_m",schemaPath:"#/properties/safety/properties/terrainClearance_m/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.safety.properties.terrainClearance_m,data:data65};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -3238,8 +3234,9 @@ vErrors.push(err181);
 }
 errors++;
 }
-if(data66.geometry === undefined){
-const err182 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data66};
+}
+else {
+const err182 = {instancePath:instancePath+"/safety/terrainClearance_m",schemaPath:"#/properties/safety/properties/terrainClearance_m/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.safety.properties.terrainClearance_m.type,parentSchema:schema11.properties.safety.properties.terrainClearance_m,data:data65};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -3248,9 +3245,12 @@ vErrors.push(err182);
 }
 errors++;
 }
-for(const key14 in data66){
-if(!(((key14 === "type") || (key14 === "properties")) || (key14 === "geometry"))){
-const err183 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data66};
+}
+if(data60.noDropZones !== undefined){
+let data66 = data60.noDropZones;
+if(Array.isArray(data66)){
+if(data66.length > 200){
+const err183 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.noDropZones,data:data66};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -3259,11 +3259,12 @@ vErrors.push(err183);
 }
 errors++;
 }
-}
-if(data66.type !== undefined){
-let data67 = data66.type;
-if("Feature" !== data67){
-const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data67};
+const len6 = data66.length;
+for(let i6=0; i6<len6; i6++){
+let data67 = data66[i6];
+if(data67 && typeof data67 == "object" && !Array.isArray(data67)){
+if(data67.type === undefined){
+const err184 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.required,parentSchema:schema23,data:data67};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -3272,15 +3273,8 @@ vErrors.push(err184);
 }
 errors++;
 }
-}
-if(data66.properties !== undefined){
-let data68 = data66.properties;
-if(data68 && typeof data68 == "object" && !Array.isArray(data68)){
-if(data68.name !== undefined){
-let data69 = data68.name;
-if(typeof data69 === "string"){
-if(func3(data69) > 200){
-const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data69};
+if(data67.geometry === undefined){
+const err185 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/required",keyword:"required",params:{missingProperty: "geometry"},message:"must have required property '"+"geometry"+"'",schema:schema23.required,parentSchema:schema23,data:data67};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -3289,9 +3283,9 @@ vErrors.push(err185);
 }
 errors++;
 }
-}
-else {
-const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data69};
+for(const key14 in data67){
+if(!(((key14 === "type") || (key14 === "properties")) || (key14 === "geometry"))){
+const err186 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema23,data:data67};
 if(vErrors === null){
 vErrors = [err186];
 }
@@ -3301,9 +3295,10 @@ vErrors.push(err186);
 errors++;
 }
 }
-}
-else {
-const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data68};
+if(data67.type !== undefined){
+let data68 = data67.type;
+if("Feature" !== data68){
+const err187 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/type",schemaPath:"#/definitions/noDropZone/properties/type/const",keyword:"const",params:{allowedValue: "Feature"},message:"must be equal to constant",schema:"Feature",parentSchema:schema23.properties.type,data:data68};
 if(vErrors === null){
 vErrors = [err187];
 }
@@ -3313,11 +3308,14 @@ vErrors.push(err187);
 errors++;
 }
 }
-if(data66.geometry !== undefined){
-let data70 = data66.geometry;
-if(data70 && typeof data70 == "object" && !Array.isArray(data70)){
-if(data70.type === undefined){
-const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data70};
+if(data67.properties !== undefined){
+let data69 = data67.properties;
+if(data69 && typeof data69 == "object" && !Array.isArray(data69)){
+if(data69.name !== undefined){
+let data70 = data69.name;
+if(typeof data70 === "string"){
+if(func3(data70) > 200){
+const err188 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema23.properties.properties.properties.name,data:data70};
 if(vErrors === null){
 vErrors = [err188];
 }
@@ -3326,8 +3324,9 @@ vErrors.push(err188);
 }
 errors++;
 }
-if(data70.coordinates === undefined){
-const err189 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data70};
+}
+else {
+const err189 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties/name",schemaPath:"#/definitions/noDropZone/properties/properties/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema23.properties.properties.properties.name.type,parentSchema:schema23.properties.properties.properties.name,data:data70};
 if(vErrors === null){
 vErrors = [err189];
 }
@@ -3336,9 +3335,10 @@ vErrors.push(err189);
 }
 errors++;
 }
-for(const key15 in data70){
-if(!((key15 === "type") || (key15 === "coordinates"))){
-const err190 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data70};
+}
+}
+else {
+const err190 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/properties",schemaPath:"#/definitions/noDropZone/properties/properties/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.properties.type,parentSchema:schema23.properties.properties,data:data69};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -3348,10 +3348,11 @@ vErrors.push(err190);
 errors++;
 }
 }
-if(data70.type !== undefined){
-let data71 = data70.type;
-if("Polygon" !== data71){
-const err191 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data71};
+if(data67.geometry !== undefined){
+let data71 = data67.geometry;
+if(data71 && typeof data71 == "object" && !Array.isArray(data71)){
+if(data71.type === undefined){
+const err191 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "type"},message:"must have required property '"+"type"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data71};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -3360,12 +3361,8 @@ vErrors.push(err191);
 }
 errors++;
 }
-}
-if(data70.coordinates !== undefined){
-let data72 = data70.coordinates;
-if(Array.isArray(data72)){
-if(data72.length > 50){
-const err192 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
+if(data71.coordinates === undefined){
+const err192 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/required",keyword:"required",params:{missingProperty: "coordinates"},message:"must have required property '"+"coordinates"+"'",schema:schema23.properties.geometry.required,parentSchema:schema23.properties.geometry,data:data71};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -3374,8 +3371,9 @@ vErrors.push(err192);
 }
 errors++;
 }
-if(data72.length < 1){
-const err193 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
+for(const key15 in data71){
+if(!((key15 === "type") || (key15 === "coordinates"))){
+const err193 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema23.properties.geometry,data:data71};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -3384,12 +3382,11 @@ vErrors.push(err193);
 }
 errors++;
 }
-const len7 = data72.length;
-for(let i7=0; i7<len7; i7++){
-let data73 = data72[i7];
-if(Array.isArray(data73)){
-if(data73.length > 5000){
-const err194 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
+}
+if(data71.type !== undefined){
+let data72 = data71.type;
+if("Polygon" !== data72){
+const err194 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/type",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/type/const",keyword:"const",params:{allowedValue: "Polygon"},message:"must be equal to constant",schema:"Polygon",parentSchema:schema23.properties.geometry.properties.type,data:data72};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -3398,8 +3395,12 @@ vErrors.push(err194);
 }
 errors++;
 }
-if(data73.length < 4){
-const err195 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
+}
+if(data71.coordinates !== undefined){
+let data73 = data71.coordinates;
+if(Array.isArray(data73)){
+if(data73.length > 50){
+const err195 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema23.properties.geometry.properties.coordinates,data:data73};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -3408,12 +3409,8 @@ vErrors.push(err195);
 }
 errors++;
 }
-const len8 = data73.length;
-for(let i8=0; i8<len8; i8++){
-let data74 = data73[i8];
-if(Array.isArray(data74)){
-if(data74.length > 3){
-const err196 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
+if(data73.length < 1){
+const err196 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema23.properties.geometry.properties.coordinates,data:data73};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -3422,8 +3419,12 @@ vErrors.push(err196);
 }
 errors++;
 }
-if(data74.length < 2){
-const err197 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
+const len7 = data73.length;
+for(let i7=0; i7<len7; i7++){
+let data74 = data73[i7];
+if(Array.isArray(data74)){
+if(data74.length > 5000){
+const err197 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/maxItems",keyword:"maxItems",params:{limit: 5000},message:"must NOT have more than 5000 items",schema:5000,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data74};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -3432,12 +3433,8 @@ vErrors.push(err197);
 }
 errors++;
 }
-const len9 = data74.length;
-for(let i9=0; i9<len9; i9++){
-let data75 = data74[i9];
-if((typeof data75 == "number") && (isFinite(data75))){
-if(data75 > 180 || isNaN(data75)){
-const err198 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
+if(data74.length < 4){
+const err198 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/minItems",keyword:"minItems",params:{limit: 4},message:"must NOT have fewer than 4 items",schema:4,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data74};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -3446,8 +3443,12 @@ vErrors.push(err198);
 }
 errors++;
 }
-if(data75 < -180 || isNaN(data75)){
-const err199 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
+const len8 = data74.length;
+for(let i8=0; i8<len8; i8++){
+let data75 = data74[i8];
+if(Array.isArray(data75)){
+if(data75.length > 3){
+const err199 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -3456,9 +3457,8 @@ vErrors.push(err199);
 }
 errors++;
 }
-}
-else {
-const err200 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data75};
+if(data75.length < 2){
+const err200 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -3467,10 +3467,12 @@ vErrors.push(err200);
 }
 errors++;
 }
-}
-}
-else {
-const err201 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data74};
+const len9 = data75.length;
+for(let i9=0; i9<len9; i9++){
+let data76 = data75[i9];
+if((typeof data76 == "number") && (isFinite(data76))){
+if(data76 > 180 || isNaN(data76)){
+const err201 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/maximum",keyword:"maximum",params:{comparison: "<=", limit: 180},message:"must be <= 180",schema:180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data76};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -3479,10 +3481,8 @@ vErrors.push(err201);
 }
 errors++;
 }
-}
-}
-else {
-const err202 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data73};
+if(data76 < -180 || isNaN(data76)){
+const err202 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: -180},message:"must be >= -180",schema:-180,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data76};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -3492,9 +3492,8 @@ vErrors.push(err202);
 errors++;
 }
 }
-}
 else {
-const err203 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data72};
+const err203 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8+"/" + i9,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/items/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema23.properties.geometry.properties.coordinates.items.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items.items,data:data76};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -3506,7 +3505,7 @@ errors++;
 }
 }
 else {
-const err204 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data70};
+const err204 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7+"/" + i8,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items.items,data:data75};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -3518,7 +3517,7 @@ errors++;
 }
 }
 else {
-const err205 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data66};
+const err205 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates/" + i7,schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/items/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.items.type,parentSchema:schema23.properties.geometry.properties.coordinates.items,data:data74};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -3530,7 +3529,7 @@ errors++;
 }
 }
 else {
-const err206 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data65};
+const err206 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry/coordinates",schemaPath:"#/definitions/noDropZone/properties/geometry/properties/coordinates/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema23.properties.geometry.properties.coordinates.type,parentSchema:schema23.properties.geometry.properties.coordinates,data:data73};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -3540,11 +3539,9 @@ vErrors.push(err206);
 errors++;
 }
 }
-if(data60.checklist !== undefined){
-let data76 = data60.checklist;
-if(Array.isArray(data76)){
-if(data76.length > 200){
-const err207 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data76};
+}
+else {
+const err207 = {instancePath:instancePath+"/safety/noDropZones/" + i6+"/geometry",schemaPath:"#/definitions/noDropZone/properties/geometry/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.properties.geometry.type,parentSchema:schema23.properties.geometry,data:data71};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -3553,16 +3550,10 @@ vErrors.push(err207);
 }
 errors++;
 }
-const len10 = data76.length;
-for(let i10=0; i10<len10; i10++){
-if(!(validate15(data76[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data76,parentDataProperty:i10,rootData}))){
-vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
-errors = vErrors.length;
-}
 }
 }
 else {
-const err208 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data76};
+const err208 = {instancePath:instancePath+"/safety/noDropZones/" + i6,schemaPath:"#/definitions/noDropZone/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema23.type,parentSchema:schema23,data:data67};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -3572,11 +3563,9 @@ vErrors.push(err208);
 errors++;
 }
 }
-if(data60.signoff !== undefined){
-let data78 = data60.signoff;
-if(data78 && typeof data78 == "object" && !Array.isArray(data78)){
-if(data78.who === undefined){
-const err209 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
+}
+else {
+const err209 = {instancePath:instancePath+"/safety/noDropZones",schemaPath:"#/properties/safety/properties/noDropZones/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.noDropZones.type,parentSchema:schema11.properties.safety.properties.noDropZones,data:data66};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -3585,8 +3574,12 @@ vErrors.push(err209);
 }
 errors++;
 }
-if(data78.when === undefined){
-const err210 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
+}
+if(data60.checklist !== undefined){
+let data77 = data60.checklist;
+if(Array.isArray(data77)){
+if(data77.length > 200){
+const err210 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/maxItems",keyword:"maxItems",params:{limit: 200},message:"must NOT have more than 200 items",schema:200,parentSchema:schema11.properties.safety.properties.checklist,data:data77};
 if(vErrors === null){
 vErrors = [err210];
 }
@@ -3595,9 +3588,16 @@ vErrors.push(err210);
 }
 errors++;
 }
-for(const key16 in data78){
-if(!(((((key16 === "who") || (key16 === "when")) || (key16 === "reason")) || (key16 === "planHash")) || (key16 === "covers"))){
-const err211 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
+const len10 = data77.length;
+for(let i10=0; i10<len10; i10++){
+if(!(validate15(data77[i10], {instancePath:instancePath+"/safety/checklist/" + i10,parentData:data77,parentDataProperty:i10,rootData}))){
+vErrors = vErrors === null ? validate15.errors : vErrors.concat(validate15.errors);
+errors = vErrors.length;
+}
+}
+}
+else {
+const err211 = {instancePath:instancePath+"/safety/checklist",schemaPath:"#/properties/safety/properties/checklist/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.checklist.type,parentSchema:schema11.properties.safety.properties.checklist,data:data77};
 if(vErrors === null){
 vErrors = [err211];
 }
@@ -3607,11 +3607,11 @@ vErrors.push(err211);
 errors++;
 }
 }
-if(data78.who !== undefined){
-let data79 = data78.who;
-if(typeof data79 === "string"){
-if(func3(data79) > 100){
-const err212 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
+if(data60.signoff !== undefined){
+let data79 = data60.signoff;
+if(data79 && typeof data79 == "object" && !Array.isArray(data79)){
+if(data79.who === undefined){
+const err212 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "who"},message:"must have required property '"+"who"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data79};
 if(vErrors === null){
 vErrors = [err212];
 }
@@ -3620,8 +3620,8 @@ vErrors.push(err212);
 }
 errors++;
 }
-if(func3(data79) < 1){
-const err213 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
+if(data79.when === undefined){
+const err213 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/required",keyword:"required",params:{missingProperty: "when"},message:"must have required property '"+"when"+"'",schema:schema11.properties.safety.properties.signoff.required,parentSchema:schema11.properties.safety.properties.signoff,data:data79};
 if(vErrors === null){
 vErrors = [err213];
 }
@@ -3630,9 +3630,9 @@ vErrors.push(err213);
 }
 errors++;
 }
-}
-else {
-const err214 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data79};
+for(const key16 in data79){
+if(!(((((key16 === "who") || (key16 === "when")) || (key16 === "reason")) || (key16 === "planHash")) || (key16 === "covers"))){
+const err214 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.safety.properties.signoff,data:data79};
 if(vErrors === null){
 vErrors = [err214];
 }
@@ -3642,11 +3642,11 @@ vErrors.push(err214);
 errors++;
 }
 }
-if(data78.when !== undefined){
-let data80 = data78.when;
+if(data79.who !== undefined){
+let data80 = data79.who;
 if(typeof data80 === "string"){
-if(func3(data80) > 40){
-const err215 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data80};
+if(func3(data80) > 100){
+const err215 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/maxLength",keyword:"maxLength",params:{limit: 100},message:"must NOT have more than 100 characters",schema:100,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data80};
 if(vErrors === null){
 vErrors = [err215];
 }
@@ -3655,9 +3655,8 @@ vErrors.push(err215);
 }
 errors++;
 }
-}
-else {
-const err216 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data80};
+if(func3(data80) < 1){
+const err216 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data80};
 if(vErrors === null){
 vErrors = [err216];
 }
@@ -3667,11 +3666,8 @@ vErrors.push(err216);
 errors++;
 }
 }
-if(data78.reason !== undefined){
-let data81 = data78.reason;
-if(typeof data81 === "string"){
-if(func3(data81) > 2000){
-const err217 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data81};
+else {
+const err217 = {instancePath:instancePath+"/safety/signoff/who",schemaPath:"#/properties/safety/properties/signoff/properties/who/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.who.type,parentSchema:schema11.properties.safety.properties.signoff.properties.who,data:data80};
 if(vErrors === null){
 vErrors = [err217];
 }
@@ -3681,8 +3677,11 @@ vErrors.push(err217);
 errors++;
 }
 }
-else {
-const err218 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data81};
+if(data79.when !== undefined){
+let data81 = data79.when;
+if(typeof data81 === "string"){
+if(func3(data81) > 40){
+const err218 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/maxLength",keyword:"maxLength",params:{limit: 40},message:"must NOT have more than 40 characters",schema:40,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data81};
 if(vErrors === null){
 vErrors = [err218];
 }
@@ -3692,11 +3691,8 @@ vErrors.push(err218);
 errors++;
 }
 }
-if(data78.planHash !== undefined){
-let data82 = data78.planHash;
-if(typeof data82 === "string"){
-if(func3(data82) > 64){
-const err219 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data82};
+else {
+const err219 = {instancePath:instancePath+"/safety/signoff/when",schemaPath:"#/properties/safety/properties/signoff/properties/when/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.when.type,parentSchema:schema11.properties.safety.properties.signoff.properties.when,data:data81};
 if(vErrors === null){
 vErrors = [err219];
 }
@@ -3706,8 +3702,11 @@ vErrors.push(err219);
 errors++;
 }
 }
-else {
-const err220 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data82};
+if(data79.reason !== undefined){
+let data82 = data79.reason;
+if(typeof data82 === "string"){
+if(func3(data82) > 2000){
+const err220 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/maxLength",keyword:"maxLength",params:{limit: 2000},message:"must NOT have more than 2000 characters",schema:2000,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data82};
 if(vErrors === null){
 vErrors = [err220];
 }
@@ -3717,11 +3716,8 @@ vErrors.push(err220);
 errors++;
 }
 }
-if(data78.covers !== undefined){
-let data83 = data78.covers;
-if(Array.isArray(data83)){
-if(data83.length > 50){
-const err221 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data83};
+else {
+const err221 = {instancePath:instancePath+"/safety/signoff/reason",schemaPath:"#/properties/safety/properties/signoff/properties/reason/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.reason.type,parentSchema:schema11.properties.safety.properties.signoff.properties.reason,data:data82};
 if(vErrors === null){
 vErrors = [err221];
 }
@@ -3730,12 +3726,12 @@ vErrors.push(err221);
 }
 errors++;
 }
-const len11 = data83.length;
-for(let i11=0; i11<len11; i11++){
-let data84 = data83[i11];
-if(typeof data84 === "string"){
-if(func3(data84) > 64){
-const err222 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data84};
+}
+if(data79.planHash !== undefined){
+let data83 = data79.planHash;
+if(typeof data83 === "string"){
+if(func3(data83) > 64){
+const err222 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data83};
 if(vErrors === null){
 vErrors = [err222];
 }
@@ -3746,7 +3742,7 @@ errors++;
 }
 }
 else {
-const err223 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data84};
+const err223 = {instancePath:instancePath+"/safety/signoff/planHash",schemaPath:"#/properties/safety/properties/signoff/properties/planHash/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.planHash.type,parentSchema:schema11.properties.safety.properties.signoff.properties.planHash,data:data83};
 if(vErrors === null){
 vErrors = [err223];
 }
@@ -3756,9 +3752,11 @@ vErrors.push(err223);
 errors++;
 }
 }
-}
-else {
-const err224 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data83};
+if(data79.covers !== undefined){
+let data84 = data79.covers;
+if(Array.isArray(data84)){
+if(data84.length > 50){
+const err224 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data84};
 if(vErrors === null){
 vErrors = [err224];
 }
@@ -3767,10 +3765,12 @@ vErrors.push(err224);
 }
 errors++;
 }
-}
-}
-else {
-const err225 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data78};
+const len11 = data84.length;
+for(let i11=0; i11<len11; i11++){
+let data85 = data84[i11];
+if(typeof data85 === "string"){
+if(func3(data85) > 64){
+const err225 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data85};
 if(vErrors === null){
 vErrors = [err225];
 }
@@ -3780,9 +3780,8 @@ vErrors.push(err225);
 errors++;
 }
 }
-}
 else {
-const err226 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data60};
+const err226 = {instancePath:instancePath+"/safety/signoff/covers/" + i11,schemaPath:"#/properties/safety/properties/signoff/properties/covers/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.safety.properties.signoff.properties.covers.items.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers.items,data:data85};
 if(vErrors === null){
 vErrors = [err226];
 }
@@ -3794,12 +3793,48 @@ errors++;
 }
 }
 else {
-const err227 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+const err227 = {instancePath:instancePath+"/safety/signoff/covers",schemaPath:"#/properties/safety/properties/signoff/properties/covers/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.safety.properties.signoff.properties.covers.type,parentSchema:schema11.properties.safety.properties.signoff.properties.covers,data:data84};
 if(vErrors === null){
 vErrors = [err227];
 }
 else {
 vErrors.push(err227);
+}
+errors++;
+}
+}
+}
+else {
+const err228 = {instancePath:instancePath+"/safety/signoff",schemaPath:"#/properties/safety/properties/signoff/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.properties.signoff.type,parentSchema:schema11.properties.safety.properties.signoff,data:data79};
+if(vErrors === null){
+vErrors = [err228];
+}
+else {
+vErrors.push(err228);
+}
+errors++;
+}
+}
+}
+else {
+const err229 = {instancePath:instancePath+"/safety",schemaPath:"#/properties/safety/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.safety.type,parentSchema:schema11.properties.safety,data:data60};
+if(vErrors === null){
+vErrors = [err229];
+}
+else {
+vErrors.push(err229);
+}
+errors++;
+}
+}
+}
+else {
+const err230 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err230];
+}
+else {
+vErrors.push(err230);
 }
 errors++;
 }

@@ -87,6 +87,7 @@ export interface SafetySection {
   noDropBuffer_m?: number;
   hazardBuffer_m?: number;
   thrustMargin_pct?: number;
+  terrainClearance_m?: number;
   noDropZones?: NoDropZone[];
   checklist?: ChecklistItem[];
   signoff?: Signoff;
@@ -103,12 +104,12 @@ export interface Signoff {
   covers?: string[];
 }
 
-export interface PlanFile {
 /** The elevation model a plan names: a .tif/.tiff/.asc path relative to the plan file's folder. */
 export interface PlanTerrainFile {
   file: string;
 }
 
+export interface PlanFile {
   format: 'seedfall-plan';
   version: 1;
   name?: string;
@@ -131,8 +132,8 @@ export interface PlanTerrainFile {
   monteCarlo?: { samples?: number; seed?: number };
   requiredPHit?: number;
   safety?: SafetySection;
-}
   terrain?: PlanTerrainFile;
+}
 
 /** A plan with every default applied; what the core computes on. */
 export interface Plan {
@@ -157,9 +158,9 @@ export interface Plan {
   requiredPHit: number;
   /** As in the file; defaults are applied by the safety checks (DEFAULT_SAFETY_SETTINGS). */
   safety?: SafetySection;
-}
   /** As in the file (absent when the file has none). */
   terrain?: PlanTerrainFile;
+}
 
 export interface ResolvedVariant extends Variant {
   name: string;

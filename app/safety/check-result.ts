@@ -24,15 +24,21 @@ export interface SafetySettings {
   hazardBuffer_m: number;
   /** Share of each fixed-heading variant's control time kept in reserve, %. */
   thrustMargin_pct: number;
+  /** Least height of the carrier above the terrain along its track or at hover points, m. */
+  terrainClearance_m: number;
 }
 
-/** Defaults: 120 m ceiling (common practice; 14 CFR 107.51(b) is 400 ft AGL), 10 m, 20 m, 20 %. */
+/**
+ * Defaults: 120 m ceiling (common practice; 14 CFR 107.51(b) is 400 ft AGL), 10 m, 20 m, 20 %,
+ * 30 m above the terrain (common practice).
+ */
 export const DEFAULT_SAFETY_SETTINGS: Readonly<SafetySettings> = Object.freeze({
   ceiling_m: 120,
   noDropZones: [],
   noDropBuffer_m: 10,
   hazardBuffer_m: 20,
   thrustMargin_pct: 20,
+  terrainClearance_m: 30,
 });
 
 export type CheckStatus = 'pass' | 'fail' | 'warn' | 'n/a';

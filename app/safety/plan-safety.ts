@@ -27,6 +27,7 @@ export function safetySettingsOf(plan: Plan): SafetySettings {
     noDropBuffer_m: s.noDropBuffer_m ?? DEFAULT_SAFETY_SETTINGS.noDropBuffer_m,
     hazardBuffer_m: s.hazardBuffer_m ?? DEFAULT_SAFETY_SETTINGS.hazardBuffer_m,
     thrustMargin_pct: s.thrustMargin_pct ?? DEFAULT_SAFETY_SETTINGS.thrustMargin_pct,
+    terrainClearance_m: s.terrainClearance_m ?? DEFAULT_SAFETY_SETTINGS.terrainClearance_m,
     noDropZones: (s.noDropZones ?? []).map((z) => ({
       type: 'Feature' as const,
       properties: { name: z.properties?.name ?? '' },

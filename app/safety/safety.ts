@@ -13,6 +13,7 @@ import {
 } from './check-result';
 import { ceilingCheck, noDropCheck, windCheck, windCoverageCheck } from './checks-area';
 import { daylightCheck, magneticCheck } from './checks-sky';
+import { terrainClearanceCheck } from './checks-terrain';
 import { batteryCheck, energyCheck, pHitCheck } from './checks-vehicle';
 import { hazardArea } from './hazard-area';
 export {
@@ -61,6 +62,7 @@ export function safetyChecks(
       windCheck(plan, result),
       windCoverageCheck(plan, result),
       ceilingCheck(plan, result, settings),
+      terrainClearanceCheck(result, settings),
       noDropCheck(result, settings),
       hazard,
       energyCheck(plan, result),

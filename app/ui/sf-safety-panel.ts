@@ -26,7 +26,8 @@ function safetySettings(s: PlanStore) {
   return html`${n('safety.ceiling_m', 'Release ceiling above ground', 'height', d.ceiling_m)}
   ${n('safety.noDropBuffer_m', 'Clearance from no-drop zones', 'distance', d.noDropBuffer_m)}
   ${n('safety.hazardBuffer_m', 'Margin around the hazard area', 'distance', d.hazardBuffer_m)}
-  ${n('safety.thrustMargin_pct', 'Control time kept in reserve', 'percent', d.thrustMargin_pct)}`;
+  ${n('safety.thrustMargin_pct', 'Control time kept in reserve', 'percent', d.thrustMargin_pct)}
+  ${n('safety.terrainClearance_m', 'Carrier above the terrain, at least', 'height', d.terrainClearance_m)}`;
 }
 
 /**

@@ -80,6 +80,7 @@ describe('safety checks', () => {
       'wind-limit',
       'wind-coverage',
       'ceiling',
+      'terrain-clearance',
       'no-drop-zones',
       'hazard-area',
       'impact-energy',
