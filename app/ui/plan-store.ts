@@ -8,6 +8,7 @@ import { getAt, setAt } from './paths';
 import { PlanHistory } from './plan-history';
 import { PlanningRun } from './planning-run';
 import { browserStorage, SafeStorage, storageWhy } from './safe-storage';
+import { TerrainLoader } from './terrain-loader';
 import {
   checkSettings,
   DAMAGED_KEY,
@@ -76,6 +77,9 @@ export class PlanStore extends EventTarget {
   dem: Dem | null = null;
   /** The elevation model's file and state; a failed read keeps the previous `dem`. */
   terrainStatus: TerrainStatus = { name: '', state: 'none' };
+
+  /** Opens, keeps and re-reads the elevation model file (started with the planning worker). */
+  readonly terrain = new TerrainLoader(this);
 
   private history: PlanHistory;
   private readonly run = new PlanningRun(this, () => this.emit());
@@ -356,6 +360,7 @@ export class PlanStore extends EventTarget {
 
   /** Starts the planning worker made by make(); a worker that cannot be made is reported. */
   startWorker(make: () => Worker): void {
+    this.terrain.start();
     if (this.run.start(make)) this.changed(0);
   }
 

@@ -5,6 +5,7 @@ import { StoreElement } from './store-element';
 import './sf-coord-field';
 import { numberField, type FieldKind } from './sf-number-field';
 import './sf-text-field';
+import './terrain-section';
 
 const REF: [string, string][] = [
   ['AGL', 'above plan ground (AGL)'],
@@ -80,6 +81,8 @@ export class SfPlanPanel extends StoreElement {
         ></sf-text-field>
         ${n('groundElevation_m', 'Ground elevation of the area (MSL)', 'height')}
       </section>
+      <h3>Terrain</h3>
+      <sf-terrain-section .store=${s}></sf-terrain-section>
       <h3>Carrier</h3>
       <section>
         ${n('carrier.groundSpeed_mps', 'Ground speed (0 = hover)', 'speed')}

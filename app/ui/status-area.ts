@@ -107,6 +107,13 @@ export function renderStatus(s: PlanStore): TemplateResult[] {
       >`,
     );
   }
+  if (s.terrainStatus.state === 'loading') {
+    parts.push(
+      html`<span data-testid="terrain-reading"
+        >Reading elevation model ${s.terrainStatus.name}…</span
+      >`,
+    );
+  }
   if (!s.valid) {
     const n = s.issues.length + s.texts.size;
     parts.push(

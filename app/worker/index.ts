@@ -4,3 +4,4 @@
 export type { ImportReply, ImportRequest } from './import-worker';
 export type { WorkerReply, WorkerRequest } from './protocol';
 export type { SweepReply, SweepRequest } from './sweep-worker';
+export type { DemReply, DemRequest } from './dem-worker';

@@ -1,0 +1,105 @@
+/// <reference lib="webworker" />
+// Reads the window of an elevation model file (GeoTIFF or ESRI ASCII grid) about the plan area
+// off the main thread, so a 4000 × 4000 model never holds up the page; the grid's heights are
+// transferred, not copied, to the page.
+import {
+  blobSource,
+  type DemGrid,
+  type DemRead,
+  type LatLonBox,
+  MAX_ASCII_GRID_CHARS,
+  readAsciiGrid,
+  readGeoTiffDem,
+} from '../formats';
+
+/** Page → worker: read `file` about `box`, or about `fallback` when `box` cannot be read. */
+export interface DemRequest {
+  id: number;
+  file: Blob;
+  /** the file's name (messages name it; its ending picks the format) */
+  name: string;
+  /** the area wanted (the plan area grown, so small edits need no new read) */
+  box: LatLonBox;
+  /** the area needed (the plan area itself), read when `box` passes the cell limit or the file's edge */
+  fallback: LatLonBox;
+  /** an ASCII grid's CRS: EPSG:4326 (default) or a WGS 84 / UTM zone */
+  epsg?: number;
+}
+
+/** Worker → page. */
+export type DemReply =
+  | {
+      id: number;
+      kind: 'dem';
+      grid: DemGrid;
+      /** the box the grid was read for (it covers it) */
+      box: LatLonBox;
+      cellsRead: number;
+      bytesRead: number;
+      fileCols: number;
+      fileRows: number;
+    }
+  | { id: number; kind: 'error'; message: string };
+
+/** The reader for a file name: by its ending, or a message naming what is read. */
+function demFormat(name: string): 'geotiff' | 'ascii' | null {
+  const n = name.toLowerCase();
+  if (n.endsWith('.tif') || n.endsWith('.tiff')) return 'geotiff';
+  if (n.endsWith('.asc')) return 'ascii';
+  return null;
+}
+
+async function read(
+  req: DemRequest,
+  box: LatLonBox,
+  text: () => Promise<string>,
+): Promise<DemRead> {
+  return demFormat(req.name) === 'ascii'
+    ? readAsciiGrid(req.name, await text(), { box, epsg: req.epsg })
+    : readGeoTiffDem(req.name, blobSource(req.file), { box });
+}
+
+self.onmessage = async (ev: MessageEvent<DemRequest>) => {
+  const req = ev.data;
+  const scope = self as unknown as DedicatedWorkerGlobalScope;
+  try {
+    if (!demFormat(req.name)) {
+      throw new Error(`${req.name}: not an elevation model file; open a .tif, .tiff or .asc file`);
+    }
+    if (demFormat(req.name) === 'ascii' && req.file.size > MAX_ASCII_GRID_CHARS) {
+      throw new Error(
+        `${req.name}: ${req.file.size} bytes is more than the ${MAX_ASCII_GRID_CHARS} an ASCII grid may have; convert it to a GeoTIFF`,
+      );
+    }
+    let cached: Promise<string> | undefined;
+    const text = () => (cached ??= req.file.text());
+    let box = req.box;
+    let r: DemRead;
+    try {
+      r = await read(req, box, text);
+    } catch {
+      // The grown area may pass the cell limit or the file's edge: the plan area itself may not.
+      box = req.fallback;
+      r = await read(req, box, text);
+    }
+    const grid = r.dem.grid;
+    scope.postMessage(
+      {
+        id: req.id,
+        kind: 'dem',
+        grid,
+        box,
+        cellsRead: r.cellsRead,
+        bytesRead: r.bytesRead,
+        fileCols: r.fileCols,
+        fileRows: r.fileRows,
+      } satisfies DemReply,
+      [grid.values.buffer],
+    );
+  } catch (e) {
+    const why = e instanceof Error ? e.message : String(e);
+    // Every message names the file (the readers' DemError does; an out-of-memory does not).
+    const message = why.startsWith(`${req.name}: `) ? why : `${req.name}: ${why}`;
+    scope.postMessage({ id: req.id, kind: 'error', message } satisfies DemReply);
+  }
+};
