@@ -31,5 +31,6 @@ export {
 } from './plan-layers';
 export { releaseMarker, siteIcon, siteMarker, trackHandleMarker, trackLine } from './plan-marks';
 export { buildSafetyLayers, drawingOutline } from './safety-layers';
+export { TerrainLayer, type TerrainUnits } from './terrain-layer';
 export { escapeHtml, lazyTip, tipNode } from './tooltip';
 export { buildWindowLayers, type WindowView } from './window-layers';

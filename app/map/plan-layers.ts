@@ -1,5 +1,6 @@
 /**
- * Planning results as Leaflet layers: reach areas, nominal landings, 50 % and 95 % landing
+ * Planning results as Leaflet layers: reach areas (circles, or polygons where each ray meets the
+ * ground over an elevation model), marks where the ground hides a site, nominal landings, 50 % and 95 % landing
  * ellipses and hover release zones (release windows: window-layers.ts), and the extra shapes of
  * the sites the crew points at or selects. Every shape carries a class `sf-<kind>` (so a person,
  * or a test, can count them; the canvas renderer of big plans draws no elements) and a tooltip
@@ -10,6 +11,8 @@ import L from 'leaflet';
 import { fallTurbulenceText } from '../brief';
 import {
   type GeoEllipse,
+  type GeoPolygon,
+  type HiddenBy,
   includedText,
   type PlanResult,
   pHitText,
@@ -58,6 +61,8 @@ export const DEFAULT_VISIBILITY: LayerVisibility = {
 /** Number formatting supplied by the UI (user's units). */
 export interface LayerFormat {
   length: (m: number) => string;
+  /** Heights (m) in the user's unit (default: `length`). */
+  height?: (m: number) => string;
   /** m/s in the user's unit (default "x.x m/s"). */
   speed?: (mps: number) => string;
 }
@@ -102,6 +107,8 @@ function shape(kind: ShapeKind, site: SiteResult, v: VariantResult, ctx: Ctx): L
   const { fmt, included, renderer } = ctx;
   const cls = (k: string): string => (ctx.extra ? `sf-${k} ${ctx.extra}` : `sf-${k}`);
   if (kind === 'reach') {
+    const ground = v.reachPolygon ?? v.terrain?.reachPolygon;
+    if (ground && ground.coordinates[0]?.length >= 4) return reachPolygonLayer(ground, who, v, ctx);
     if (!(v.reachRadius_m > 0)) return null;
     return L.polygon(circleRing(v.nominalLanding, v.reachRadius_m, 96), {
       color: c,
@@ -180,6 +187,52 @@ function shape(kind: ShapeKind, site: SiteResult, v: VariantResult, ctx: Ctx): L
   return null;
 }
 
+/** The steering reach where each ray meets the ground (planned over an elevation model). */
+function reachPolygonLayer(poly: GeoPolygon, who: string, v: VariantResult, ctx: Ctx): L.Layer {
+  const cls = ctx.extra ? `sf-reach sf-reach-ground ${ctx.extra}` : 'sf-reach sf-reach-ground';
+  return L.polygon(
+    poly.coordinates[0].map(([lon, lat]): L.LatLngTuple => [lat, lon]),
+    {
+      color: ctx.colour(v.variant),
+      weight: 1,
+      fillOpacity: 0.03,
+      className: cls,
+      renderer: ctx.renderer,
+    },
+  ).bindTooltip(
+    lazyTip(
+      `Reach area over the ground · ${who}`,
+      'where the steered descent can meet the ground, ray by ray',
+      `site ${v.reachable ? 'reachable' : 'NOT reachable'} (miss ${ctx.fmt.length(v.nominalMiss_m)})`,
+    ),
+    { sticky: true },
+  );
+}
+
+/** "Hidden: ground 35 m above the site, 120 m before it" (heights and distances in the user's units). */
+export function hiddenText(h: HiddenBy, fmt: LayerFormat): string {
+  const height = fmt.height ?? fmt.length;
+  return `Hidden: ground ${height(h.aboveSite_m)} above the site, ${fmt.length(h.fromSite_m)} before it`;
+}
+
+/** A site hidden by the ground: a mark where the descent aimed at it meets the ground first. */
+function hiddenMark(site: SiteResult, v: VariantResult, h: HiddenBy, ctx: Ctx): L.Layer {
+  return L.circleMarker([h.lat, h.lon], {
+    radius: 5,
+    color: '#7c2d12',
+    weight: 2,
+    fillColor: '#fde7d4',
+    fillOpacity: 1,
+    className: 'sf-hidden',
+    renderer: ctx.renderer,
+  }).bindTooltip(
+    lazyTip(
+      hiddenText(h, ctx.fmt),
+      `${site.id} · ${v.variant}: the descent aimed at the site meets this ground first`,
+    ),
+  );
+}
+
 // Drawn in this order, one kind at a time, so that across all sites the wide, faint shapes lie
 // beneath the small ones and every shape's tooltip stays within reach of the pointer.
 const DRAW_ORDER: readonly ShapeKind[] = ['reach', 'ellipse95', 'zone', 'ellipse50', 'landing'];
@@ -207,6 +260,13 @@ export function buildResultLayers(
     if (!vis.kinds[kind]) continue;
     for (const site of result.sites) {
       for (const v of shownResults(site, vis)) shape(kind, site, v, ctx)?.addTo(group);
+    }
+  }
+  // Hidden sites are always marked: the site cannot be reached as planned.
+  for (const site of result.sites) {
+    for (const v of shownResults(site, vis)) {
+      const h = v.terrain?.hiddenBy;
+      if (h) hiddenMark(site, v, h, ctx).addTo(group);
     }
   }
   return group;

@@ -1,4 +1,7 @@
-/** The map's toolbar: add-sites and draw-zone buttons, switches for each layer kind and variant. */
+/**
+ * The map's toolbar: add-sites and draw-zone buttons, switches for the hazard area, the terrain
+ * (with an elevation model), each layer kind and each variant.
+ */
 import { css, html, type TemplateResult } from 'lit';
 import { styleMap } from 'lit/directives/style-map.js';
 import { type LayerVisibility, SHAPE_KINDS, type ShapeKind } from '../map';
@@ -20,11 +23,14 @@ export interface LayerBarView {
   adding: boolean;
   drawing: ZoneDrawing;
   showHazard: boolean;
+  /** The terrain switch, or null when no elevation model is loaded (no switch shown). */
+  terrain: boolean | null;
   vis: LayerVisibility;
   variants: readonly Partial<Variant>[];
   toggleAdding(): void;
   toggleDrawing(): void;
   setHazard(on: boolean): void;
+  setTerrain(on: boolean): void;
   /** Replaces the visibility by `change` of the current one. */
   changeVis(change: (vis: LayerVisibility) => LayerVisibility): void;
 }
@@ -90,6 +96,18 @@ export function layerBar(v: LayerBarView): TemplateResult {
           @change=${(e: Event) => v.setHazard(checked(e))}
         />Hazard area</label
       >
+      ${
+        v.terrain === null
+          ? ''
+          : html`<label title="Hillshade and contour lines of the elevation model"
+              ><input
+                type="checkbox"
+                data-kind="terrain"
+                .checked=${v.terrain}
+                @change=${(e: Event) => v.setTerrain(checked(e))}
+              />Terrain</label
+            >`
+      }
       ${SHAPE_KINDS.map(
         (k) =>
           html`<label

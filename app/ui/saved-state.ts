@@ -44,6 +44,7 @@ export const MAP_LAYER_KEYS = [
   'window',
   'zone',
   'chosenOnly',
+  'terrain',
 ] as const;
 export type MapLayerKey = (typeof MAP_LAYER_KEYS)[number];
 

@@ -14,10 +14,11 @@ import {
   type LayerFormat,
   type LayerVisibility,
   SHAPE_KINDS,
+  TerrainLayer,
 } from '../map';
 import type { Site, Variant } from '../plan';
 import { layerBar, layerBarStyles } from './map-layer-bar';
-import { finite, planLatLon } from './map-position';
+import { CursorReadout, finite, planLatLon } from './map-position';
 import { MarkerDrag } from './marker-drag';
 import { planMarkStyles } from './plan-mark-styles';
 import type { PlanStore } from './plan-store';
@@ -26,7 +27,7 @@ import { nextSiteId } from './sf-sites-panel';
 import { sharedStyles, VARIANT_COLOURS } from './shared-styles';
 import { SiteMarkers } from './site-markers';
 import { StoreController } from './store-controller';
-import { formatQuantity, formatSpeed } from './units';
+import { formatQuantity, formatSpeed, fromDisplay, quantityUnit } from './units';
 import { ZoneDrawing } from './zone-drawing';
 import type { Settings } from './saved-state';
 
@@ -83,6 +84,16 @@ export class SfMap extends LitElement {
       #map.add-mode {
         cursor: crosshair;
       }
+      .sf-cursor {
+        background: rgba(255, 255, 255, 0.85);
+        padding: 1px 6px;
+        font:
+          11px/1.4 system-ui,
+          sans-serif;
+        font-variant-numeric: tabular-nums;
+        color: #1f2328;
+        white-space: nowrap;
+      }
       .leaflet-tooltip {
         font:
           12px/1.35 system-ui,
@@ -129,6 +140,9 @@ export class SfMap extends LitElement {
   private safetyLayer?: L.LayerGroup;
   private drawnSafety: unknown = null;
   private drawnZones = '';
+  /** Hillshade and contours of the elevation model (store.dem). */
+  private readonly terrain = new TerrainLayer();
+  private readonly cursor = new CursorReadout(() => this.store);
 
   constructor() {
     super();
@@ -177,10 +191,15 @@ export class SfMap extends LitElement {
     return this.store?.settings.mapLayers.hazard ?? true;
   }
 
+  /** The terrain layer's switch (on unless switched off; shown only with an elevation model). */
+  private get showTerrain(): boolean {
+    return this.store?.settings.mapLayers.terrain ?? true;
+  }
+
   /** Keeps the switches in settings (stored for the next visit). */
-  private setLayers(vis: LayerVisibility, hazard: boolean): void {
+  private setLayers(vis: LayerVisibility, hazard: boolean, terrain = this.showTerrain): void {
     this.variantVis = vis.variants;
-    const mapLayers: Settings['mapLayers'] = { hazard, chosenOnly: vis.chosenOnly };
+    const mapLayers: Settings['mapLayers'] = { hazard, chosenOnly: vis.chosenOnly, terrain };
     for (const k of SHAPE_KINDS) mapLayers[k] = vis.kinds[k];
     this.store?.setSettings({ mapLayers });
   }
@@ -200,6 +219,7 @@ export class SfMap extends LitElement {
     // Lanes of release windows are screen pixels apart.
     map.on('zoomend', () => this.syncWindows());
     map.on('click', (e: L.LeafletMouseEvent) => this.onMapClick(e));
+    this.cursor.addTo(map);
     new ResizeObserver(() => map.invalidateSize()).observe(el);
     this.sync();
   }
@@ -240,8 +260,25 @@ export class SfMap extends LitElement {
       this.track.sync(map);
       this.sites.sync();
     }
+    this.syncTerrain();
     this.syncResults();
     this.syncSafety();
+  }
+
+  /** The elevation model's hillshade and contours, in the display unit, when switched on. */
+  private syncTerrain(): void {
+    const s = this.store!;
+    const map = this.map!;
+    const units = s.settings.units;
+    this.terrain.setUnits({
+      metresPerUnit: fromDisplay(1, 'height', units),
+      unit: quantityUnit('height', units),
+    });
+    this.terrain.setDem(s.dem);
+    const on = s.dem !== null && this.showTerrain;
+    if (on && !map.hasLayer(this.terrain)) this.terrain.addTo(map);
+    if (!on && map.hasLayer(this.terrain)) this.terrain.remove();
+    this.cursor.show();
   }
 
   private syncTiles(): void {
@@ -300,6 +337,7 @@ export class SfMap extends LitElement {
     const u = this.store!.settings.units;
     return {
       length: (m) => formatQuantity(m, 'distance', u),
+      height: (m) => formatQuantity(m, 'height', u),
       speed: (v) => formatSpeed(v, u.speed),
     };
   }
@@ -396,6 +434,7 @@ export class SfMap extends LitElement {
         adding: this.addMode,
         drawing: this.drawing,
         showHazard: this.showHazard,
+        terrain: this.store?.dem ? this.showTerrain : null,
         vis: this.vis,
         variants: this.store?.rows<Variant>('variants') ?? [],
         toggleAdding: () => {
@@ -410,6 +449,7 @@ export class SfMap extends LitElement {
           }
         },
         setHazard: (on) => this.setLayers(this.vis, on),
+        setTerrain: (on) => this.setLayers(this.vis, this.showHazard, on),
         changeVis: (change) => this.setLayers(change(this.vis), this.showHazard),
       })}
       <div
