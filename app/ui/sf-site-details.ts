@@ -8,7 +8,8 @@
 import { css, html, nothing, type PropertyValues } from 'lit';
 import { customElement, query, state } from 'lit/decorators.js';
 import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
-import { fallProfileSvg, scatterSvg } from '../brief';
+import { fallProfileSvg, groundProfileSvg, scatterSvg } from '../brief';
+import { distance_m } from '../model';
 import type { Plan } from '../plan';
 import {
   pHitParts,
@@ -281,7 +282,7 @@ export class SfSiteDetails extends StoreElement {
       ${unreachable ? html`<p class="alert" role="alert" data-testid="unreachable">No variant can reach this site.</p>` : nothing}
       ${this.whyLine(site)}
       <div class="scroll">${this.comparison(site, chosenId, touch, moving, u)}</div>
-      ${this.plots(plan, site, shown, u)}
+      ${this.plots(plan, site, shown, u)} ${this.terrain(site, shown, u)}
     </section>`;
   }
 
@@ -383,6 +384,84 @@ export class SfSiteDetails extends StoreElement {
         ${row('cost', 'Cost', (v) => String(cost.get(v.variant) ?? '–'))}
       </tbody>
     </table>`;
+  }
+
+  /** Over an elevation model: the site's ground, the shown variant's fall over the ground, hidden ground. */
+  private terrain(site: SiteResult, shown: string, u: UnitPrefs) {
+    const v = site.byVariant.find((x) => x.variant === shown);
+    const t = v?.terrain;
+    const g = site.ground;
+    if (!t && !g) return nothing;
+    const h = (m: number) => formatQuantity(m, 'height', u);
+    const unit = { label: u.length, perMetre: toDisplayLength(1, u.length) };
+    let source: unknown = nothing;
+    if (g) {
+      const said = g.terrain_m;
+      source =
+        g.source === 'terrain'
+          ? 'elevation from the terrain model'
+          : g.source === 'typed'
+            ? said === null
+              ? 'typed; the terrain model has no height here'
+              : Math.abs(g.elevation_m - said) > 5
+                ? `typed; the model says ${h(said)}`
+                : 'typed; the terrain model agrees within 5 m'
+            : "the plan's ground elevation (neither typed nor in the terrain model)";
+    }
+    const hid = t?.hiddenBy;
+    return html`<div data-testid="site-terrain">
+      <h3>Over the terrain</h3>
+      ${
+        g
+          ? html`<p data-testid="site-ground">
+              Site elevation ${h(g.elevation_m)} MSL: ${source}.
+            </p>`
+          : nothing
+      }
+      ${
+        t
+          ? html`<p data-testid="landing-ground">
+              Ground at the nominal landing of ${shown}:
+              ${
+                t.landingGround_m === null
+                  ? 'unknown — the nominal descent met no ground the model knows'
+                  : `${h(t.landingGround_m)} MSL`
+              }.${
+                t.offTerrain > 0
+                  ? ` ${(t.offTerrain * 100).toFixed(1)} % of the landings met no known ground and count as misses.`
+                  : ''
+              }
+            </p>`
+          : nothing
+      }
+      ${
+        hid
+          ? html`<p class="alert" role="alert" data-testid="hidden-ground">
+              Hidden ground: the descent aimed at this site meets ground ${h(hid.aboveSite_m)}
+              higher than the site, ${formatQuantity(hid.fromSite_m, 'distance', u)} from it, before
+              reaching it (${hid.lat.toFixed(5)}, ${hid.lon.toFixed(5)}; ground ${h(hid.ground_m)}
+              MSL).
+            </p>`
+          : nothing
+      }
+      ${
+        t && v
+          ? html`<div class="plots" data-testid="ground-profile">
+              ${unsafeSVG(
+                groundProfileSvg(t.fallProfile, {
+                  title: `${site.id} · ${shown} over the ground`,
+                  unit,
+                  width_px: 480,
+                  height_px: 220,
+                  site: g
+                    ? { dist_m: distance_m(v.release, site), elevation_m: g.elevation_m }
+                    : undefined,
+                }),
+              )}
+            </div>`
+          : nothing
+      }
+    </div>`;
   }
 
   private plots(plan: Plan, site: SiteResult, shown: string, u: UnitPrefs) {

@@ -3,6 +3,7 @@ import { html, type TemplateResult } from 'lit';
 import { downloadDamaged } from './downloads';
 import type { PlanStore } from './plan-store';
 import { DAMAGED_KEY } from './saved-state';
+import { baseName } from './terrain-loader';
 
 /** Warnings shown in full; the rest fold away under "N more" (a plan may give hundreds). */
 const WARNINGS_SHOWN = 4;
@@ -111,6 +112,15 @@ export function renderStatus(s: PlanStore): TemplateResult[] {
     parts.push(
       html`<span data-testid="terrain-reading"
         >Reading elevation model ${s.terrainStatus.name}…</span
+      >`,
+    );
+  }
+  const named = s.plan?.terrain?.file;
+  if (named && s.terrainStatus.state !== 'loading' && s.dem?.name !== baseName(named)) {
+    parts.push(
+      html`<span class="notice-error" data-testid="terrain-missing"
+        >The plan names the elevation model ${named}, which is not open here: planned over flat
+        ground. Open it under Release &amp; plan → Terrain.</span
       >`,
     );
   }

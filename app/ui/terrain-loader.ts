@@ -37,6 +37,9 @@ interface Source {
   epsg?: number;
 }
 
+/** A name the plan file's terrain.file accepts (plan.schema.json: .tif/.tiff/.asc, no control characters). */
+const PLAN_FILE_NAME = /^[^\p{Cc}]{0,995}\.(?:tiff?|asc)$/iu;
+
 /** Quiet time after an edit before the plan area is checked against the window read (ms). */
 const REREAD_DELAY_MS = 500;
 
@@ -119,6 +122,7 @@ export class TerrainLoader {
     this.info = null;
     this.triedArea = '';
     this.store.setTerrain(null, { name: '', state: 'none' });
+    if (this.store.get('terrain') !== undefined) this.store.edit('terrain', undefined);
     if (!hasTerrainStorage()) return;
     try {
       await forgetTerrain();
@@ -248,6 +252,10 @@ export class TerrainLoader {
     };
     if (why === 'open') s.notice = { kind: 'info', text: `Elevation model ${src.name} read.` };
     s.setTerrain(dem, { name: src.name, state: 'ready' });
+    // The plan names its model (plan file field terrain.file), so a saved plan says what it was flown over.
+    if (why === 'open' && s.get('terrain.file') !== src.name && PLAN_FILE_NAME.test(src.name)) {
+      s.edit('terrain', { file: src.name });
+    }
     return true;
   }
 
@@ -302,6 +310,6 @@ export class TerrainLoader {
 }
 
 /** The last part of a path ('dem/valley.tif' → 'valley.tif'). */
-function baseName(path: string): string {
+export function baseName(path: string): string {
   return path.split(/[\\/]/).pop() ?? path;
 }
