@@ -16,6 +16,7 @@ import { esc, overviewSvg, PRINT_COLOURS, windPlotSvg } from './brief-svg';
 import { CAUTION_TEXT } from './caution';
 import { hazardSection, zonesSection } from './brief-areas';
 import { energySection } from './brief-energy';
+import { terrainSection } from './brief-terrain';
 import { timelineSection } from './timeline-section';
 import { hodographSvg, sweepSvg } from './wind-plots';
 import {
@@ -72,6 +73,8 @@ export interface BriefOptions {
   timeline?: TimelineEntry[];
   /** Why the plan's forecasts have no timeline in this brief (printed instead of it). */
   timelineOmitted?: string;
+  /** How the elevation model was read (window, bytes), printed beside its name. */
+  terrainNote?: string;
 }
 
 const f = (v: number | null | undefined, d = 1): string =>
@@ -338,6 +341,10 @@ tr { break-inside: avoid; }
 .corners { columns: 4; column-gap: 4mm; margin: 1mm 0; padding-left: 8mm; font-family: 'DejaVu Sans Mono', monospace; font-size: 7.8pt; }
 .corners li { break-inside: avoid; white-space: nowrap; }
 .ring { margin: 2mm 0 0; font-weight: 700; }
+.tgrid { display: grid; grid-template-columns: 1fr 1fr 1fr; gap: 2mm 4mm; align-items: start; }
+.tprof { break-inside: avoid; }
+.tprof .figure svg { width: 100%; }
+.tprof p { margin: 0.5mm 0 1mm; }
 .printbar { position: sticky; top: 0; background: #1f3a34; color: #fff; padding: 3mm; display: flex; gap: 4mm; align-items: center; }
 .printbar button { font: inherit; font-weight: 700; padding: 1.5mm 5mm; }
 @media print { .printbar { display: none; } }
@@ -419,6 +426,7 @@ ${opts.printBar ? `<div class="printbar"><button type="button" data-action="prin
 ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 </section>
 ${energySection(plan, result)}
+${terrainSection(plan, result, { note: opts.terrainNote, order: scheduleOrder(result) })}
 ${timelineSection(plan, opts.timeline, { omitted: opts.timelineOmitted })}
 <section class="winds"><div class="keep"><h2>Winds</h2></div><div class="windgrid">
 <div><table><thead><tr><th>Altitude m</th><th>From</th><th>m/s</th><th>kt</th></tr></thead><tbody>${windRows(plan)}</tbody></table>

@@ -1,3 +1,4 @@
+import { terrainReportLines } from './brief-terrain';
 import { CAUTION_TEXT } from './caution';
 import type { Plan } from '../plan';
 import { includedText, type PlanResult, pHitText } from '../planner';
@@ -91,6 +92,7 @@ export function formatPlanText(plan: Plan, r: PlanResult): string {
   ];
   const foot = [
     ...why,
+    ...terrainReportLines(r),
     '',
     '! = below the required P(hit)',
     '± = Monte Carlo standard error of P(hit), √(p(1−p)/n) over the samples',

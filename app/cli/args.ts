@@ -19,6 +19,8 @@ export interface Args {
   bom?: boolean;
   /** Timeline step, s (--step). */
   step_s?: number;
+  /** Elevation model to plan over (--terrain), .tif/.tiff or .asc; overrides the plan's terrain.file. */
+  terrain?: string;
 }
 
 /** Where the CLI writes: the process's stdout/stderr, or a test's buffers. */
@@ -29,16 +31,20 @@ export interface CliIO {
 
 export const USAGE = `usage:
   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
+                             [--terrain <dem.tif|dem.asc>]
   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
-                             [--sweep SITE[:VARIANT]]
+                             [--sweep SITE[:VARIANT]] [--terrain <dem.tif|dem.asc>]
   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
+                             [--terrain <dem.tif|dem.asc>]
   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
+--terrain: a GeoTIFF or ESRI ASCII grid of ground heights MSL (m); overrides the plan's
+  terrain.file (which is relative to the plan file). Only the window the plan can reach is read.
 `;
 
 const OPTIONS: Record<Command, string[]> = {
-  plan: ['--format', '--samples', '--seed'],
-  brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep'],
-  export: ['--format', '--out', '--samples', '--seed', '--bom'],
+  plan: ['--format', '--samples', '--seed', '--terrain'],
+  brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep', '--terrain'],
+  export: ['--format', '--out', '--samples', '--seed', '--bom', '--terrain'],
   timeline: ['--step', '--format', '--samples', '--seed'],
 };
 
@@ -142,6 +148,12 @@ export function parseArgs(argv: string[], io: CliIO): Args {
       args.step_s = s;
     } else if (a === '--sweep') {
       args.sweep = value();
+    } else if (a === '--terrain') {
+      const t = value();
+      if (!/\.(tiff?|asc)$/i.test(t)) {
+        fail(`--terrain must name a .tif, .tiff or .asc file (got "${oneLine(t)}")`, 1);
+      }
+      args.terrain = t;
     } else if (a === '--bom') {
       args.bom = true;
     } else if (a === '--out') {

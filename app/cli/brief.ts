@@ -21,6 +21,7 @@ export async function briefCommand(
   io: CliIO,
   plan: Plan,
   result: PlanResult,
+  terrainNote?: string,
 ): Promise<void> {
   let sweep: { title: string; points: SweepPoint[] } | undefined;
   if (args.sweep) {
@@ -66,6 +67,7 @@ export async function briefCommand(
     timelineOmitted,
     paper: args.paper,
     safety: briefSafety(planSafety(plan, result), result),
+    terrainNote,
   });
   if (args.out) write(args.out, html);
   if (args.pdf) {

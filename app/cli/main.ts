@@ -1,8 +1,8 @@
 /**
  * Headless Seedfall: plan file in, results out.
- *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N]
- *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter]
- *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
+ *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N] [--terrain F]
+ *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter] [--terrain F]
+ *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom] [--terrain F]
  *   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
  * Exit codes: 0 done, 1 usage or file error, 2 invalid plan, 3 internal error (one line, no trace).
  *
@@ -12,6 +12,7 @@
 import { writeSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { DemError } from '../formats';
 import { planDrop, type PlanResult } from '../planner';
 import { workIssue } from '../plan';
 import { CliExit, fail, oneLine, parseArgs, type CliIO } from './args';
@@ -19,6 +20,7 @@ import { briefCommand } from './brief';
 import { exportCommand } from './export';
 import { planCommand } from './plan';
 import { readPlan, sameFile } from './plan-file';
+import { loadTerrain } from './terrain';
 import { timelineCommand } from './timeline';
 
 async function main(argv: string[], io: CliIO): Promise<void> {
@@ -41,13 +43,28 @@ async function main(argv: string[], io: CliIO): Promise<void> {
     if (work) fail(`--samples: ${oneLine(work.message)}`, 2);
   }
   // The timeline runs its own planDrop per time; the plan time's result alone is not needed.
-  if (args.command === 'timeline') return timelineCommand(args, io, plan, warnings);
-  const result: PlanResult = planDrop(plan);
+  if (args.command === 'timeline') {
+    if (plan.terrain) {
+      io.err(
+        `seedfall: note: the timeline is flown over flat ground; terrain.file ${oneLine(plan.terrain.file)} is not read\n`,
+      );
+    }
+    return timelineCommand(args, io, plan, warnings);
+  }
+  // Read before planning: a bad elevation model ends the command before anything is written.
+  const terrain = await loadTerrain(args, plan);
+  let result: PlanResult;
+  try {
+    result = planDrop(plan, terrain ? { terrain: terrain.dem } : {});
+  } catch (e) {
+    if (e instanceof DemError) fail(oneLine(e.message), 1);
+    throw e;
+  }
   result.warnings.unshift(...warnings);
 
   if (args.command === 'plan') planCommand(args, io, plan, result);
   else if (args.command === 'export') exportCommand(args, io, plan, result);
-  else await briefCommand(args, io, plan, result);
+  else await briefCommand(args, io, plan, result, terrain?.note);
 }
 
 /** First line of an unexpected error, for the one-line "internal error" report. */

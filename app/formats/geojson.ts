@@ -1,7 +1,7 @@
 // GeoJSON (RFC 7946): the plan's results written as a FeatureCollection, and sites read from
 // features (also KML placemarks, through togeojson).
 import type { Plan } from '../plan';
-import type { PlanResult } from '../planner';
+import type { GeoPolygon, PlanResult } from '../planner';
 import { makeSite } from './csv';
 import {
   ellipsePositions,
@@ -106,7 +106,24 @@ export function toGeoJSON(
         nominalMiss_m: round(r.nominalMiss_m, 2),
       },
     );
-    if (r.reachRadius_m > 0) {
+    // Over an elevation model each variant's reach is the polygon cast on the ground
+    // (docs/model.md §18); on flat ground the chosen variant's reach is a circle.
+    if (result.terrain) {
+      for (const v of r.byVariant) {
+        const ring = reachRing(v.reachPolygon);
+        if (!ring) continue;
+        add(
+          { type: 'Polygon', coordinates: orientPolygon([ring]) },
+          {
+            kind: 'reach',
+            site: r.id,
+            variant: v.variant,
+            chosen: v.variant === r.variant,
+            ground: 'terrain',
+          },
+        );
+      }
+    } else if (r.reachRadius_m > 0) {
       add(
         {
           type: 'Polygon',
@@ -183,6 +200,25 @@ export function toGeoJSON(
     add(geometry, { ...extra, kind: 'hazard' });
   }
   return { type: 'FeatureCollection', features };
+}
+
+/** The outer ring of a planner's reach polygon, closed (RFC 7946 §3.1.6), or null when unusable. */
+function reachRing(p: GeoPolygon | null | undefined): Position[] | null {
+  const ring = p?.type === 'Polygon' ? p.coordinates?.[0] : undefined;
+  if (!Array.isArray(ring)) return null;
+  const pts = ring.filter(
+    (q): q is Position =>
+      Array.isArray(q) &&
+      Number.isFinite(q[0]) &&
+      Number.isFinite(q[1]) &&
+      Math.abs(q[0]) <= 180 &&
+      Math.abs(q[1]) <= 90,
+  );
+  if (pts.length !== ring.length) return null;
+  const [a, z] = [pts[0], pts[pts.length - 1]];
+  const closed = pts.length > 0 && a[0] === z[0] && a[1] === z[1] ? pts : [...pts, a];
+  // A linear ring has at least four positions, the first and last equal (RFC 7946 §3.1.6).
+  return closed.length >= 4 ? closed.map((q): Position => [q[0], q[1]]) : null;
 }
 
 export type Json = Record<string, unknown>;

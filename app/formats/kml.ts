@@ -130,7 +130,7 @@ export function toKML(plan: Plan, result: PlanResult, opts: GeoJSONOptions = {})
           .map(([k, v]) => `${k} ${String(v)}`)
           .join(', ');
         return placemark(
-          `${String(p.site)} ${KIND_TITLE[kind] ?? kind}`,
+          `${String(p.site)} ${kind === 'reach' && p.ground === 'terrain' ? `${String(p.variant)} ` : ''}${KIND_TITLE[kind] ?? kind}`,
           text,
           `sf-${kind}`,
           p,
