@@ -1344,10 +1344,123 @@ function surfaceCases(): HostileCase[] {
   ];
 }
 
+/**
+ * terrain.file: names the schema refuses (exit 2), and files that cannot be an elevation model
+ * (exit 1, one line). The two model files are cases of their own too (not a plan either): a
+ * plan case in cases/plan/ names them as ../terrain/….
+ */
+function terrainCases(): HostileCase[] {
+  let x = 88675123;
+  const junk = new Uint8Array(3000).map(
+    () => ((x ^= x << 13), (x ^= x >>> 17), (x ^= x << 5), x & 0xff),
+  );
+  // A little-endian TIFF header that points its first directory past the end of the file.
+  const cut = new Uint8Array([0x49, 0x49, 0x2a, 0x00, 0xff, 0xff, 0x00, 0x00, 0x01, 0x00]);
+  const files: HostileCase[] = [
+    ['junk-dem', junk, 'tif', 'random bytes named .tif'],
+    ['cut-dem', cut, 'tiff', 'a TIFF header whose first directory lies past the end'],
+    [
+      'header-dem',
+      'ncols 3\nnrows two\ncellsize 1\n1 2 3\n',
+      'asc',
+      'an ASCII grid with nrows "two"',
+    ],
+  ].map(([id, content, ext, what]) => ({
+    id: String(id),
+    file: `terrain/${String(id)}.${String(ext)}`,
+    category: 'file' as const,
+    target: 'cli' as const,
+    runs: ['plan-json'] as CliRun[],
+    probes: `${String(what)}, given as the plan file`,
+    source: 'common practice',
+    content: content as string | Uint8Array,
+  }));
+  const base = basePlan();
+  const named = (id: string, file: unknown, probes: string, source: string, runs?: CliRun[]) => {
+    const p = clone(base);
+    p.terrain = { file };
+    return planCase(`terrain-${id}`, p, {
+      category: 'file',
+      probes,
+      source,
+      path: 'terrain.file',
+      ...(runs ? { runs } : {}),
+      ...(typeof file === 'string' && /[<>"&]/.test(file) ? { payload: file } : {}),
+    });
+  };
+  return [
+    ...files,
+    named('junk', '../terrain/junk-dem.tif', 'terrain.file names random bytes', 'common practice', [
+      'plan-json',
+      'brief',
+      'geojson',
+    ]),
+    named(
+      'cut',
+      '../terrain/cut-dem.tiff',
+      'terrain.file names a cut TIFF',
+      'TIFF 6.0 §2 (IFD offset)',
+    ),
+    named(
+      'header',
+      '../terrain/header-dem.asc',
+      'terrain.file names a grid with a bad header',
+      'ESRI ASCII grid header // common practice',
+    ),
+    named(
+      'missing',
+      'no-such-dem.tif',
+      'terrain.file names a file that does not exist',
+      'common practice',
+    ),
+    named(
+      'folder',
+      '../terrain',
+      'terrain.file names a folder (no extension)',
+      'plan.schema.json terrain.file pattern',
+    ),
+    named(
+      'traversal',
+      '../../../../../../../../../../etc/passwd.asc',
+      'terrain.file climbs out of the plan folder to a file that is not there',
+      'OWASP Path Traversal',
+    ),
+    named(
+      'payload',
+      '<img src=x onerror=alert(1)>.tif',
+      'terrain.file is markup',
+      'OWASP XSS Filter Evasion Cheat Sheet',
+      ['plan-json', 'brief'],
+    ),
+    named(
+      'ansi',
+      '\u001b[31mred.tif',
+      'terrain.file holds a terminal escape',
+      'ECMA-48 control sequences // common practice',
+    ),
+    named('nul', 'a\u0000.asc', 'terrain.file holds NUL', 'common practice (control characters)'),
+    named(
+      'png',
+      'dem.png',
+      'terrain.file is not a .tif, .tiff or .asc',
+      'plan.schema.json terrain.file pattern',
+    ),
+    named(
+      'len-1001',
+      `${'d'.repeat(997)}.tif`,
+      'terrain.file of 1001 characters',
+      'plan.schema.json terrain.file maxLength',
+    ),
+    named('empty', '', 'terrain.file empty', 'plan.schema.json minLength'),
+    named('number', 5, 'terrain.file a number', 'common practice (wrong type)'),
+  ];
+}
+
 /** Every small case (committed under tests/hostile/cases/). */
 export function smallCases(): HostileCase[] {
   return [
     ...fileCases(),
+    ...terrainCases(),
     ...fieldCases(),
     ...missingCases(),
     ...shapeCases(),
