@@ -12,6 +12,8 @@
  * Then a plan at the format's limit of 1,000 sites (tests/support/make-field.ts): planning, the
  * safety analysis, each export and the brief, as the CLI runs them (plan + safety + output), each
  * under 10 s (issue #9), and as ratios to the planning time.
+ * Over terrain (issue #13): the demo plan re-planned over a synthesised 2000 × 2000-cell
+ * elevation model within 2× of the same plan on flat ground, side by side.
  */
 import { readFileSync } from 'node:fs';
 import { briefHtml } from '../app/brief/brief-html';
@@ -25,6 +27,8 @@ import {
 } from '../app/model/flight';
 import { naiveFlight } from '../app/model/naive-integrator';
 import { planDrop } from '../app/planner/planner';
+import { terrainArea } from '../app/planner/terrain-area';
+import { Dem } from '../app/formats/dem';
 import { planSafety } from '../app/safety/plan-safety';
 import { Rng } from '../app/model/rng';
 import { toGeoJSON, toGPX, toKML, toScheduleCSV, toSitesCSV } from '../app/formats';
@@ -197,6 +201,67 @@ line(
   `${tDemo.toFixed(1)} ms  still air ${tStill.toFixed(1)} ms  ratio ${(tDemo / tStill).toFixed(2)}`,
   tDemo / tStill <= 1.4,
 );
+
+// ---- The demo plan over a 2000 × 2000-cell elevation model (issue #13) ----
+// Smooth hills (±12 m about the plan ground, wavelengths 300–900 m) on a WGS 84 grid covering
+// terrainArea(plan); re-planning over it against the same plan on flat ground, side by side,
+// best of the runs. Target: ≤ 2× the flat time.
+{
+  const plan = checked.plan;
+  const area = terrainArea(plan);
+  const cols = 2000;
+  const rows = 2000;
+  const dx = (area.east - area.west) / (cols - 2);
+  const dy = (area.north - area.south) / (rows - 2);
+  const x0 = area.west - dx;
+  const y0 = area.north + dy;
+  const mLat = 111_320;
+  const mLon = 111_320 * Math.cos(plan.release.lat * (Math.PI / 180));
+  const values = new Float32Array(cols * rows);
+  for (let r = 0; r < rows; r++) {
+    const y = (y0 - (r + 0.5) * dy - plan.release.lat) * mLat;
+    for (let c = 0; c < cols; c++) {
+      const x = (x0 + (c + 0.5) * dx - plan.release.lon) * mLon;
+      values[r * cols + c] =
+        plan.groundElevation_m +
+        6 * Math.sin(x / 140) * Math.cos(y / 190) +
+        4 * Math.sin((x + y) / 310) +
+        2 * Math.cos((x - 2 * y) / 95);
+    }
+  }
+  const dem = new Dem({
+    file: 'bench-hills',
+    epsg: 4326,
+    cols,
+    rows,
+    x0,
+    y0,
+    dx,
+    dy,
+    values,
+    nodata: null,
+  });
+  for (let i = 0; i < 2; i++) {
+    planDrop(plan);
+    planDrop(plan, { terrain: dem });
+  }
+  let tFlat = Infinity;
+  let tHills = Infinity;
+  const hillRuns = 9;
+  for (let i = 0; i < hillRuns; i++) {
+    let t0 = performance.now();
+    planDrop(plan);
+    tFlat = Math.min(tFlat, performance.now() - t0);
+    t0 = performance.now();
+    planDrop(plan, { terrain: dem });
+    tHills = Math.min(tHills, performance.now() - t0);
+  }
+  line(
+    `demo plan (${sites} sites) over a ${cols} x ${rows} DEM, re-plan, best of ${hillRuns} (ratio ≤ 2)`,
+    `${tHills.toFixed(1)} ms  flat ground ${tFlat.toFixed(1)} ms  ratio ${(tHills / tFlat).toFixed(2)}`,
+    tHills / tFlat <= 2,
+  );
+}
 
 // ---- A plan at the format's limit: 1,000 sites over the demo area ----
 {
