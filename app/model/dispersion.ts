@@ -85,7 +85,10 @@ export function median(a: Float64Array): number {
 
 /**
  * Statistics of n landing points (xs, ys) shifted by `shift`, about `site` with hit radius
- * tol_m: mean, covariance, 50/95/99 % ellipses, CEP (median miss) and P(hit).
+ * tol_m: mean, covariance, 50/95/99 % ellipses, CEP (median miss) and P(hit). A NaN landing
+ * (a descent that met no known ground) is a miss at infinite distance: it counts in P(hit) and
+ * the CEP, and is left out of the mean and covariance (which are the site's and zero when no
+ * landing is known).
  */
 export function summarize(
   xs: Float64Array,
@@ -97,12 +100,15 @@ export function summarize(
   const n = xs.length;
   let mx = 0;
   let my = 0;
+  let known = 0;
   for (let i = 0; i < n; i++) {
+    if (Number.isNaN(xs[i]) || Number.isNaN(ys[i])) continue;
     mx += xs[i];
     my += ys[i];
+    known++;
   }
-  mx = mx / n + shift.x;
-  my = my / n + shift.y;
+  mx = known > 0 ? mx / known + shift.x : site.x;
+  my = known > 0 ? my / known + shift.y : site.y;
   let sxx = 0;
   let sxy = 0;
   let syy = 0;
@@ -112,6 +118,10 @@ export function summarize(
   for (let i = 0; i < n; i++) {
     const x = xs[i] + shift.x;
     const y = ys[i] + shift.y;
+    if (Number.isNaN(x) || Number.isNaN(y)) {
+      miss[i] = Infinity;
+      continue;
+    }
     const dx = x - mx;
     const dy = y - my;
     sxx += dx * dx;
@@ -123,7 +133,7 @@ export function summarize(
     if (d2 <= tol2) hits++;
     miss[i] = Math.sqrt(d2);
   }
-  const dof = n > 1 ? n - 1 : 1;
+  const dof = known > 1 ? known - 1 : 1;
   const cov: [number, number, number] = [sxx / dof, sxy / dof, syy / dof];
   const cep = median(miss);
   const mean = { x: mx, y: my };

@@ -2,9 +2,13 @@ import { G0 } from './constants';
 import type { FallTable } from './fall-table';
 import type { Guidance, Uncertainty } from './types';
 import type { Rng } from './rng';
+import { CROSS_GROUND, firstCrossing, type PathAt, type TerrainGround } from './terrain';
 import type { FallTurbulence } from './turbulence';
 
 const DEG = Math.PI / 180;
+
+/** Altitude tolerance of a Monte Carlo sample's ground crossing, m (the nominal flight uses 1 mm). */
+const SAMPLE_TOL_M = 0.005;
 
 /** East/north vector in the planner's local frame, m or m/s. */
 export interface Vec {
@@ -28,6 +32,126 @@ export interface FlightSetup {
   windTop: Vec;
   /** Gusts and vertical air of this fall (`fallTurbulence`); absent = still air. */
   turbulence?: FallTurbulence;
+  /** Ground to land on (docs/model.md §18); absent = level ground at the table's bottom. */
+  terrain?: FlightTerrain;
+}
+
+/** The ground a fall ends on, and the fall continued below the table's bottom. */
+export interface FlightTerrain {
+  ground: TerrainGround;
+  /** The nominal fall from the table's bottom down to `bottom_m`; null when no ground is lower. */
+  below: FallTable | null;
+  /** Lowest altitude a descent is followed to, m MSL. */
+  bottom_m: number;
+}
+
+/**
+ * Cumulative nominal time and drift by altitude on an even grid (for the terrain search): from
+ * the table's top to its bottom in n1 steps, then through `below` in n2 steps. The values at the
+ * table's bottom are the table's own totals, so a descent met there lands where the level-ground
+ * flight does.
+ */
+export class AltitudePath {
+  readonly top_m: number;
+  readonly mid_m: number;
+  readonly low_m: number;
+  private readonly h1: number;
+  private readonly n1: number;
+  private readonly h2: number;
+  private readonly n2: number;
+  /** time, east and north drift at the grid nodes, from the top down */
+  readonly t: Float64Array;
+  readonly e: Float64Array;
+  readonly n: Float64Array;
+
+  constructor(table: FallTable, below: FallTable | null) {
+    this.top_m = table.top_m;
+    this.mid_m = table.bottom_m;
+    this.low_m = below ? below.bottom_m : table.bottom_m;
+    this.n1 = Math.max(1, Math.ceil((this.top_m - this.mid_m) / 0.5));
+    this.h1 = (this.top_m - this.mid_m) / this.n1;
+    this.n2 = below ? Math.max(1, Math.ceil((this.mid_m - this.low_m) / 0.5)) : 0;
+    this.h2 = this.n2 > 0 ? (this.mid_m - this.low_m) / this.n2 : 1;
+    const m = this.n1 + this.n2 + 1;
+    this.t = new Float64Array(m);
+    this.e = new Float64Array(m);
+    this.n = new Float64Array(m);
+    const fill = (tab: FallTable, i0: number, count: number, h: number, base: number[]) => {
+      // Walk the table's nodes alongside the even grid (both descend).
+      let j = 0;
+      const zs = tab.z;
+      const last = zs.length - 1;
+      for (let i = 0; i <= count; i++) {
+        const z = tab.top_m - i * h;
+        let t: number;
+        let e: number;
+        let nn: number;
+        if (i === count) {
+          [t, e, nn] = [tab.t[last], tab.dEast[last], tab.dNorth[last]];
+        } else {
+          while (j < last - 1 && zs[j + 1] >= z) j++;
+          const f = zs[j] === zs[j + 1] ? 0 : (zs[j] - z) / (zs[j] - zs[j + 1]);
+          t = tab.t[j] + f * (tab.t[j + 1] - tab.t[j]);
+          e = tab.dEast[j] + f * (tab.dEast[j + 1] - tab.dEast[j]);
+          nn = tab.dNorth[j] + f * (tab.dNorth[j + 1] - tab.dNorth[j]);
+        }
+        this.t[i0 + i] = base[0] + t;
+        this.e[i0 + i] = base[1] + e;
+        this.n[i0 + i] = base[2] + nn;
+      }
+    };
+    fill(table, 0, this.n1, this.h1, [0, 0, 0]);
+    if (below) {
+      const k = this.n1;
+      fill(below, k, this.n2, this.h2, [this.t[k], this.e[k], this.n[k]]);
+    }
+  }
+
+  /** Fractional grid index of altitude z (clamped to the grid). */
+  index(z: number): number {
+    if (z >= this.mid_m) return Math.max(0, (this.top_m - z) / this.h1);
+    return Math.min(this.n1 + this.n2, this.n1 + (this.mid_m - z) / this.h2);
+  }
+}
+
+// One altitude path per fall table (probes reuse it).
+const pathCache = new WeakMap<FallTable, AltitudePath>();
+
+/** The AltitudePath of a setup with terrain (cached per fall table). */
+export function altitudePath(s: FlightSetup): AltitudePath {
+  let p = pathCache.get(s.table);
+  if (!p) pathCache.set(s.table, (p = new AltitudePath(s.table, s.terrain?.below ?? null)));
+  return p;
+}
+
+/** Linear interpolation of a grid array at a fractional index. */
+function lerpAt(a: Float64Array, f: number): number {
+  const i = Math.min(Math.floor(f), a.length - 2);
+  if (i < 0) return a[0];
+  return a[i] + (f - i) * (a[i + 1] - a[i]);
+}
+
+/**
+ * The nominal descent (descent factor 1, no error) from `release` as a PathAt: forward throw,
+ * drift, and a steering displacement `steer(z)` (m, by altitude; default none).
+ */
+export function nominalPath(s: FlightSetup, release: Vec, steer?: (z_m: number) => Vec): PathAt {
+  const path = altitudePath(s);
+  const th = forwardThrow(s);
+  const bx = release.x + th.x;
+  const by = release.y + th.y;
+  return (z, out) => {
+    const f = path.index(z);
+    const d = steer ? steer(z) : { x: 0, y: 0 };
+    out[0] = bx + lerpAt(path.e, f) + d.x;
+    out[1] = by + lerpAt(path.n, f) + d.y;
+  };
+}
+
+/** Nominal time (s) from release to altitude z along a setup's AltitudePath. */
+export function pathTimeAt(s: FlightSetup, z_m: number): number {
+  const path = altitudePath(s);
+  return lerpAt(path.t, path.index(z_m));
 }
 
 /** Open-loop programme of a fixed-heading vehicle. */
@@ -174,8 +298,20 @@ export interface SampleRequest {
  * the value at release; forecast error and gust are independent, so their moments add); homing
  * reacts to both, so they are drawn band by band as AR(1) series. Vertical air, constant through
  * a fall, changes the net descent speed and so every time and drift (factor 1/f_eff).
+ *
+ * Over terrain (`s.terrain`) each sample's descent is followed by altitude to where it meets the
+ * ground (firstCrossing, docs/model.md §18): open-loop samples by their drift, with their wind
+ * error spread over the fall in proportion to time (exact at the table's bottom) and their
+ * programme's steering by altitude; homing samples along the line through their band ends; below
+ * the table's bottom both continue through `terrain.below` with their last error. A sample that
+ * meets no known ground lands at NaN (a miss). Returns the number of such samples.
  */
-export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array, ys: Float64Array) {
+export function flySamples(
+  s: FlightSetup,
+  req: SampleRequest,
+  xs: Float64Array,
+  ys: Float64Array,
+): number {
   const { rng, uncertainty: u, release, trackUnit, groundSpeed_mps: v } = req;
   const tab = s.table;
   const wf = windFunctional(tab, Math.max(1e-6, u.windCorrelation_m));
@@ -215,6 +351,61 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
   const cot = s.cotGamma;
   const budget0 = s.controlTime_s;
 
+  // Terrain: one path closure per kind over per-sample state (no allocation per sample).
+  const ter = s.terrain;
+  const path = ter ? altitudePath(s) : null;
+  const tRef = tab.fallTime_s;
+  const entryEnd = tab.entryEnd_m;
+  const cross = new Float64Array(4);
+  // Per-sample state in a typed array (closure slots written per sample would box doubles):
+  // 0,1 position after the throw; 2,3 wind-error displacement at the table's bottom; 4 1/f;
+  // 5 programme's steered drop; 6,7 its heading unit; 8,9 homing's last band error.
+  const ss = new Float64Array(10);
+  const openPath: PathAt = (z, out) => {
+    const p = path as AltitudePath;
+    const fi = p.index(z);
+    const r = lerpAt(p.t, fi) / tRef;
+    let x = ss[0] + (lerpAt(p.e, fi) + ss[2] * r) * ss[4];
+    let y = ss[1] + (lerpAt(p.n, fi) + ss[3] * r) * ss[4];
+    const drop = ss[5];
+    if (drop > 0) {
+      const d = cot * Math.min(drop, Math.max(0, entryEnd - z));
+      x += d * ss[6];
+      y += d * ss[7];
+    }
+    out[0] = x;
+    out[1] = y;
+  };
+  // Homing: band-end positions (index b = top of band b; k = the table's bottom).
+  const hx = new Float64Array(k + 1);
+  const hy = new Float64Array(k + 1);
+  const zb = new Float64Array(k + 1);
+  zb[0] = tab.top_m;
+  for (let b = 0; b < k; b++) zb[b + 1] = zb[b] - bandDz[b];
+  zb[k] = tab.bottom_m;
+  const homingPath: PathAt = (z, out) => {
+    if (z <= zb[k]) {
+      const p = path as AltitudePath;
+      const fi = p.index(z);
+      const m = p.index(zb[k]);
+      const dt = lerpAt(p.t, fi) - lerpAt(p.t, m);
+      out[0] = hx[k] + (lerpAt(p.e, fi) - lerpAt(p.e, m) + ss[8] * dt) * ss[4];
+      out[1] = hy[k] + (lerpAt(p.n, fi) - lerpAt(p.n, m) + ss[9] * dt) * ss[4];
+      return;
+    }
+    let lo = 0;
+    let hi = k;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (zb[mid] >= z) lo = mid;
+      else hi = mid;
+    }
+    const f = zb[lo] === zb[hi] ? 0 : (zb[lo] - z) / (zb[lo] - zb[hi]);
+    out[0] = hx[lo] + f * (hx[hi] - hx[lo]);
+    out[1] = hy[lo] + f * (hy[hi] - hy[lo]);
+  };
+  let off = 0;
+
   for (let i = 0; i < req.n; i++) {
     const f = Math.max(0.2, 1 + sf * rng.normal());
     const dtRel = st * rng.normal();
@@ -234,6 +425,16 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
       const bx = cB1 * n1 + cB2 * n2;
       const ay = cA * n3;
       const by = cB1 * n3 + cB2 * n4;
+      if (ter) {
+        ss[0] = px + (airX - bx) * tau;
+        ss[1] = py + (airY - by) * tau;
+        ss[2] = ax;
+        ss[3] = ay;
+        ss[4] = invF;
+        ss[5] = fixed && prog.thrust_s > 0 ? tab.steeredDrop(prog.thrust_s, fE) : 0;
+        ss[6] = Math.sin(hdg + dh);
+        ss[7] = Math.cos(hdg + dh);
+      }
       px += (airX - bx) * tau + (drift.east_m + ax) * invF;
       py += (airY - by) * tau + (drift.north_m + ay) * invF;
       if (fixed && prog.thrust_s > 0) {
@@ -255,6 +456,8 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
         if (b === 0) {
           px += (airX - wx) * tau;
           py += (airY - wy) * tau;
+          hx[0] = px;
+          hy[0] = py;
         }
         const dt = bandDt[b];
         if (budget > 0 && bandControl[b] === 1) {
@@ -277,9 +480,34 @@ export function flySamples(s: FlightSetup, req: SampleRequest, xs: Float64Array,
         }
         px += (bandEast[b] + wx * dt) * invF;
         py += (bandNorth[b] + wy * dt) * invF;
+        hx[b + 1] = px;
+        hy[b + 1] = py;
+      }
+      ss[8] = wx;
+      ss[9] = wy;
+      ss[4] = invF;
+    }
+    if (ter) {
+      const kind = firstCrossing(
+        ter.ground,
+        homing ? homingPath : openPath,
+        tab.top_m,
+        ter.bottom_m,
+        cross,
+        5,
+        SAMPLE_TOL_M,
+      );
+      if (kind === CROSS_GROUND) {
+        px = cross[0];
+        py = cross[1];
+      } else {
+        px = NaN;
+        py = NaN;
+        off++;
       }
     }
     xs[i] = px;
     ys[i] = py;
   }
+  return off;
 }

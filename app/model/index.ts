@@ -24,11 +24,16 @@ export {
 } from './dispersion';
 export { FallTable, type FallTableInput } from './fall-table';
 export {
+  AltitudePath,
+  altitudePath,
   fixedHeadingProgramme,
   type FlightSetup,
+  type FlightTerrain,
   flySamples,
   forwardThrow,
+  nominalPath,
   passiveOffset,
+  pathTimeAt,
   type Programme,
   reachRadius,
   type SampleRequest,
@@ -74,10 +79,15 @@ export {
   type TerrainClass,
 } from './surface-wind';
 export {
+  CROSS_GROUND,
+  CROSS_NO_DATA,
+  CROSS_NONE,
+  CROSS_START_BELOW,
   type Crossing,
   type CrossingOptions,
   type DescentPath,
   type ElevationModel,
+  firstCrossing,
   flatGround,
   glideRays,
   type GridMap,
@@ -88,6 +98,7 @@ export {
   linePath,
   type LocalBox,
   MIN_REACH_RAYS,
+  type PathAt,
   type PathPoint,
   type ReachPolygon,
   reachPolygon,

@@ -300,20 +300,21 @@ export interface GridMap {
   row: readonly number[];
 }
 
-/** Cells per side of the blocks whose maxima bound a box's heights. */
-const BLOCK = 8;
-
 /**
  * A grid of heights read in a local frame through a quadratic index map (GridGround.fit builds
- * it from any CRS transform): bilinear heights between cell centres, as Dem.sampleCrs, and block
- * maxima for maxIn. NaN or `nodata` cells are unknown ground.
+ * it from any CRS transform): bilinear heights between cell centres, as Dem.sampleCrs, and a
+ * pyramid of maxima for maxIn. Level 1 holds, per 2 × 2 patches of the bilinear surface (the
+ * squares between four cell centres), the largest of their corner heights — a bilinear patch
+ * never exceeds its corners — and each further level the largest of 2 × 2 entries below it.
+ * NaN or `nodata` cells are unknown ground (+Infinity in the pyramid).
  */
 export class GridGround implements TerrainGround {
   readonly maxHeight_m: number;
   readonly minHeight_m: number;
-  private readonly blockMax: Float32Array;
-  private readonly bCols: number;
-  private readonly bRows: number;
+  /** pyramid levels 1, 2, …: maxima over 2^ℓ × 2^ℓ patches; sizes in lvCols/lvRows */
+  private readonly levels: Float32Array[] = [];
+  private readonly lvCols: number[] = [];
+  private readonly lvRows: number[] = [];
 
   constructor(
     private readonly values: Float32Array,
@@ -328,27 +329,60 @@ export class GridGround implements TerrainGround {
     }
     const nd = nodata === null ? null : Math.fround(nodata);
     this.nodata = nd;
-    this.bCols = Math.ceil(cols / BLOCK);
-    this.bRows = Math.ceil(rows / BLOCK);
-    this.blockMax = new Float32Array(this.bCols * this.bRows).fill(-Infinity);
     let lo = Infinity;
     let hi = -Infinity;
-    for (let r = 0; r < rows; r++) {
-      for (let c = 0; c < cols; c++) {
-        const v = values[r * cols + c];
-        const known = !Number.isNaN(v) && v !== nd;
-        const bi = Math.floor(r / BLOCK) * this.bCols + Math.floor(c / BLOCK);
-        if (!known) {
-          this.blockMax[bi] = Infinity;
-          continue;
-        }
-        if (v < lo) lo = v;
-        if (v > hi) hi = v;
-        if (v > this.blockMax[bi]) this.blockMax[bi] = v;
-      }
+    for (let k = 0; k < values.length; k++) {
+      const v = values[k];
+      if (v !== v || v === nd) continue;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
     }
     this.minHeight_m = lo;
     this.maxHeight_m = hi;
+    // Level 1: patches p (between centres p and p+1) grouped in pairs: values 2i … 2i+2.
+    const pc = cols - 1;
+    const pr = rows - 1;
+    let w = Math.ceil(pc / 2);
+    let h = Math.ceil(pr / 2);
+    let lv = new Float32Array(w * h);
+    for (let j = 0; j < h; j++) {
+      for (let i = 0; i < w; i++) {
+        let m = -Infinity;
+        for (let r = 2 * j; r <= Math.min(2 * j + 2, rows - 1); r++) {
+          for (let c = 2 * i; c <= Math.min(2 * i + 2, cols - 1); c++) {
+            const v = values[r * cols + c];
+            const u = v !== v || v === nd ? Infinity : v;
+            if (u > m) m = u;
+          }
+        }
+        lv[j * w + i] = m;
+      }
+    }
+    this.levels.push(lv);
+    this.lvCols.push(w);
+    this.lvRows.push(h);
+    while (w > 1 || h > 1) {
+      const w2 = Math.ceil(w / 2);
+      const h2 = Math.ceil(h / 2);
+      const up = new Float32Array(w2 * h2);
+      for (let j = 0; j < h2; j++) {
+        for (let i = 0; i < w2; i++) {
+          let m = lv[2 * j * w + 2 * i];
+          if (2 * i + 1 < w) m = Math.max(m, lv[2 * j * w + 2 * i + 1]);
+          if (2 * j + 1 < h) {
+            m = Math.max(m, lv[(2 * j + 1) * w + 2 * i]);
+            if (2 * i + 1 < w) m = Math.max(m, lv[(2 * j + 1) * w + 2 * i + 1]);
+          }
+          up[j * w2 + i] = m;
+        }
+      }
+      this.levels.push(up);
+      this.lvCols.push(w2);
+      this.lvRows.push(h2);
+      lv = up;
+      w = w2;
+      h = h2;
+    }
   }
 
   private colOf(x: number, y: number): number {
@@ -378,56 +412,72 @@ export class GridGround implements TerrainGround {
     const v11 = v[k + cols + 1];
     const nd = this.nodata;
     // A corner with zero weight may be unknown: a sample on a known cell's edge stands.
-    const bad = (val: number, w: number) => w !== 0 && (Number.isNaN(val) || val === nd);
-    if (
-      bad(v00, (1 - fx) * (1 - fy)) ||
-      bad(v10, fx * (1 - fy)) ||
-      bad(v01, (1 - fx) * fy) ||
-      bad(v11, fx * fy)
-    ) {
-      return null;
-    }
     let s = 0;
-    if (fx < 1 && fy < 1) s += (1 - fx) * (1 - fy) * v00;
-    if (fx > 0 && fy < 1) s += fx * (1 - fy) * v10;
-    if (fx < 1 && fy > 0) s += (1 - fx) * fy * v01;
-    if (fx > 0 && fy > 0) s += fx * fy * v11;
+    if (fx < 1 && fy < 1) {
+      if (v00 !== v00 || v00 === nd) return null;
+      s += (1 - fx) * (1 - fy) * v00;
+    }
+    if (fx > 0 && fy < 1) {
+      if (v10 !== v10 || v10 === nd) return null;
+      s += fx * (1 - fy) * v10;
+    }
+    if (fx < 1 && fy > 0) {
+      if (v01 !== v01 || v01 === nd) return null;
+      s += (1 - fx) * fy * v01;
+    }
+    if (fx > 0 && fy > 0) {
+      if (v11 !== v11 || v11 === nd) return null;
+      s += fx * fy * v11;
+    }
     return s;
   }
 
   maxIn(box: LocalBox): number {
-    let cMin = Infinity;
-    let cMax = -Infinity;
-    let rMin = Infinity;
-    let rMax = -Infinity;
-    for (const x of [box.xMin, (box.xMin + box.xMax) / 2, box.xMax]) {
-      for (const y of [box.yMin, (box.yMin + box.yMax) / 2, box.yMax]) {
-        const c = this.colOf(x, y);
-        const r = this.rowOf(x, y);
-        if (c < cMin) cMin = c;
-        if (c > cMax) cMax = c;
-        if (r < rMin) rMin = r;
-        if (r > rMax) rMax = r;
-      }
-    }
-    // One cell of slack covers the map's curvature over the box and the bilinear neighbours.
-    if (!(
-      cMin - 1 >= 0 &&
-      rMin - 1 >= 0 &&
-      cMax + 1 <= this.cols - 1 &&
-      rMax + 1 <= this.rows - 1
-    )) {
+    // Index range of the box: the map at the box's centre ± its Jacobian times the half-sizes,
+    // plus the quadratic terms' largest contribution over the box.
+    const a = this.map.col;
+    const b = this.map.row;
+    const x = (box.xMin + box.xMax) / 2;
+    const y = (box.yMin + box.yMax) / 2;
+    const hx = (box.xMax - box.xMin) / 2;
+    const hy = (box.yMax - box.yMin) / 2;
+    const c0 = a[0] + a[1] * x + a[2] * y + a[3] * x * x + a[4] * x * y + a[5] * y * y;
+    const r0 = b[0] + b[1] * x + b[2] * y + b[3] * x * x + b[4] * x * y + b[5] * y * y;
+    const q = hx * hx + hx * hy + hy * hy;
+    const dc =
+      Math.abs(a[1] + 2 * a[3] * x + a[4] * y) * hx +
+      Math.abs(a[2] + a[4] * x + 2 * a[5] * y) * hy +
+      Math.max(Math.abs(a[3]), Math.abs(a[4]), Math.abs(a[5])) * q;
+    const dr =
+      Math.abs(b[1] + 2 * b[3] * x + b[4] * y) * hx +
+      Math.abs(b[2] + b[4] * x + 2 * b[5] * y) * hy +
+      Math.max(Math.abs(b[3]), Math.abs(b[4]), Math.abs(b[5])) * q;
+    const cMin = c0 - dc;
+    const cMax = c0 + dc;
+    const rMin = r0 - dr;
+    const rMax = r0 + dr;
+    if (!(cMin >= 0 && rMin >= 0 && cMax <= this.cols - 1 && rMax <= this.rows - 1)) {
       return Infinity;
     }
-    const bc0 = Math.floor((cMin - 1) / BLOCK);
-    const bc1 = Math.floor((cMax + 2) / BLOCK);
-    const br0 = Math.floor((rMin - 1) / BLOCK);
-    const br1 = Math.floor((rMax + 2) / BLOCK);
-    if ((bc1 - bc0 + 1) * (br1 - br0 + 1) > 4096) return this.maxHeight_m;
+    // Patches touched (patch p spans centres p … p+1).
+    const i0 = Math.min(Math.floor(cMin), this.cols - 2);
+    const i1 = Math.min(Math.floor(cMax), this.cols - 2);
+    const j0 = Math.min(Math.floor(rMin), this.rows - 2);
+    const j1 = Math.min(Math.floor(rMax), this.rows - 2);
+    // The finest level at which the box spans at most 3 × 3 entries.
+    let l = 0;
+    while (
+      l < this.levels.length - 1 &&
+      ((i1 >> (l + 1)) - (i0 >> (l + 1)) > 2 || (j1 >> (l + 1)) - (j0 >> (l + 1)) > 2)
+    )
+      l++;
+    const lv = this.levels[l];
+    const w = this.lvCols[l];
+    const sh = l + 1;
     let m = -Infinity;
-    for (let br = br0; br <= Math.min(br1, this.bRows - 1); br++) {
-      for (let bc = bc0; bc <= Math.min(bc1, this.bCols - 1); bc++) {
-        const v = this.blockMax[br * this.bCols + bc];
+    for (let j = j0 >> sh; j <= j1 >> sh; j++) {
+      for (let i = i0 >> sh; i <= i1 >> sh; i++) {
+        const v = lv[j * w + i];
         if (v > m) m = v;
       }
     }
@@ -553,4 +603,170 @@ export function sampledGround(
     row: [box.yMax / cell_m, 0, -1 / cell_m, 0, 0, 0],
   };
   return new GridGround(values, cols, rows, null, map, cell_m);
+}
+
+function crossDone(out: Float64Array, x: number, y: number, z: number, kind: number): number {
+  out[0] = x;
+  out[1] = y;
+  out[2] = z;
+  out[3] = kind;
+  return kind;
+}
+
+/** Where firstCrossing ended (written to out[3]). */
+export const CROSS_GROUND = 0;
+export const CROSS_NO_DATA = 1;
+export const CROSS_NONE = 2;
+export const CROSS_START_BELOW = 3;
+
+/** A descent by altitude for firstCrossing: writes x (out[0]) and y (out[1]), local m, at altitude z (m MSL). */
+export type PathAt = (z_m: number, out: Float64Array) => void;
+
+const WALK_LIMIT = 100_000;
+// The first step that held in the last walk (a speed hint only: any step is checked).
+const walkHint = new Float64Array(1);
+// One scratch box for every walk (the walk is synchronous and does not nest).
+const WALK_BOX: LocalBox = { xMin: 0, yMin: 0, xMax: 0, yMax: 0 };
+
+/**
+ * The first point where a descent meets a TerrainGround, for the Monte Carlo loop: no
+ * allocation per call. Writes x, y, z and the kind (CROSS_*) into out[0..3]. From `top_m` (or
+ * the ground's highest height, if lower) it walks down in altitude steps that double while the
+ * swept box of the step lies above every height inside it (`maxIn`), and halve near the ground
+ * to at most `maxStepZ_m` of altitude and one cell sideways; then it closes the bracket by
+ * Illinois regula falsi to `tol_m` (docs/model.md §18).
+ */
+export function firstCrossing(
+  ground: TerrainGround,
+  at: PathAt,
+  top_m: number,
+  bottom_m: number,
+  out: Float64Array,
+  maxStepZ_m = 5,
+  tol_m = 0.001,
+): number {
+  const cell = ground.cell_m;
+  // Above the highest ground nothing is met: start there (or at the top, checked for ground).
+  let zHi = top_m;
+  let gHi = NaN;
+  if (ground.maxHeight_m < top_m) zHi = Math.max(bottom_m, ground.maxHeight_m);
+  at(zHi, out);
+  let xHi = out[0];
+  let yHi = out[1];
+  if (!Number.isFinite(xHi + yHi)) return crossDone(out, xHi, yHi, zHi, CROSS_NO_DATA);
+  if (zHi === top_m) {
+    const h = ground.height(xHi, yHi);
+    if (h === null) return crossDone(out, xHi, yHi, zHi, CROSS_NO_DATA);
+    gHi = zHi - h;
+    if (gHi <= 0) return crossDone(out, xHi, yHi, zHi, CROSS_START_BELOW);
+  }
+  // Neighbouring calls fly similar descents: start with the step that first held last time.
+  let dz = walkHint[0] > 0 ? walkHint[0] : Math.max(maxStepZ_m, 8 * cell);
+  let first = true;
+  const box = WALK_BOX;
+  for (let k = 0; k < WALK_LIMIT; k++) {
+    if (zHi <= bottom_m) return crossDone(out, xHi, yHi, zHi, CROSS_NONE);
+    const step = Math.min(dz, zHi - bottom_m);
+    const zLo = zHi - step;
+    at(zLo, out);
+    const xLo = out[0];
+    const yLo = out[1];
+    if (!Number.isFinite(xLo + yLo)) return crossDone(out, xLo, yLo, zLo, CROSS_NO_DATA);
+    const moved = Math.hypot(xLo - xHi, yLo - yHi);
+    // The path between the ends may bow out of their box: a quarter of the move plus a cell.
+    const pad = moved / 4 + cell;
+    box.xMin = Math.min(xHi, xLo) - pad;
+    box.xMax = Math.max(xHi, xLo) + pad;
+    box.yMin = Math.min(yHi, yLo) - pad;
+    box.yMax = Math.max(yHi, yLo) + pad;
+    if (zLo > ground.maxIn(box)) {
+      // The whole step is above the ground there: take it, and try a longer one next.
+      zHi = zLo;
+      xHi = xLo;
+      yHi = yLo;
+      gHi = NaN;
+      if (first) {
+        walkHint[0] = step;
+        first = false;
+      }
+      dz = step * 2;
+      continue;
+    }
+    if (step > maxStepZ_m || moved > 2 * cell) {
+      if (step > 1e-6) {
+        dz = step / 2;
+        continue;
+      }
+    }
+    const hLo = ground.height(xLo, yLo);
+    if (hLo === null) return crossDone(out, xLo, yLo, zLo, CROSS_NO_DATA);
+    const gLo = zLo - hLo;
+    if (Number.isNaN(gHi)) {
+      const hh = ground.height(xHi, yHi);
+      if (hh === null) return crossDone(out, xHi, yHi, zHi, CROSS_NO_DATA);
+      gHi = zHi - hh;
+    }
+    if (first) {
+      walkHint[0] = step;
+      first = false;
+    }
+    if (gLo <= 0) return refineCrossing(ground, at, zHi, gHi, zLo, gLo, xLo, yLo, out, tol_m);
+    zHi = zLo;
+    xHi = xLo;
+    yHi = yLo;
+    gHi = gLo;
+  }
+  return crossDone(out, xHi, yHi, zHi, CROSS_NONE);
+}
+
+function refineCrossing(
+  ground: TerrainGround,
+  at: PathAt,
+  zHi: number,
+  gHi: number,
+  zLo: number,
+  gLo: number,
+  xLo: number,
+  yLo: number,
+  out: Float64Array,
+  tol: number,
+): number {
+  let side = 0;
+  for (let k = 0; k < 200; k++) {
+    if (gLo === 0 || zHi - zLo <= tol) break;
+    const z0 = zLo + ((zHi - zLo) * -gLo) / (gHi - gLo);
+    const z = z0 > zLo && z0 < zHi ? z0 : (zHi + zLo) / 2;
+    at(z, out);
+    const h = ground.height(out[0], out[1]);
+    if (h === null) {
+      out[2] = z;
+      out[3] = CROSS_NO_DATA;
+      return CROSS_NO_DATA;
+    }
+    const g = z - h;
+    if (Math.abs(g) <= tol / 10) {
+      out[2] = z;
+      out[3] = CROSS_GROUND;
+      return CROSS_GROUND;
+    }
+    if (g > 0) {
+      zHi = z;
+      gHi = g;
+      if (side === 1) gLo /= 2;
+      side = 1;
+    } else {
+      zLo = z;
+      gLo = g;
+      xLo = out[0];
+      yLo = out[1];
+      if (side === -1) gHi /= 2;
+      side = -1;
+    }
+  }
+  // The end below the ground is the conservative landing.
+  out[0] = xLo;
+  out[1] = yLo;
+  out[2] = zLo;
+  out[3] = CROSS_GROUND;
+  return CROSS_GROUND;
 }

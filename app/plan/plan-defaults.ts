@@ -51,6 +51,7 @@ function resolveSite(s: Site, groundElevation_m: number): ResolvedSite {
     name: s.name ?? s.id,
     elevation_m: s.elevation_m ?? groundElevation_m,
     tolerance_m: s.tolerance_m ?? DEFAULTS.site.tolerance_m,
+    ...(s.elevation_m === undefined ? { elevationDefaulted: true as const } : {}),
   };
 }
 

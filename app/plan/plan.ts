@@ -173,4 +173,6 @@ export interface ResolvedSite extends Site {
   name: string;
   elevation_m: number;
   tolerance_m: number;
+  /** Present (true) when the file gave no elevation and it is the plan's ground: a terrain model then sets it. */
+  elevationDefaulted?: true;
 }

@@ -13,6 +13,7 @@ import {
   LocalFrame,
   magneticDeclination,
   magneticHeading,
+  nominalPath,
   passiveOffset,
   type Programme,
   reachRadius,
@@ -35,7 +36,29 @@ import {
 } from '../plan';
 import { errorSources } from './error-sources';
 import { recommend } from './recommend';
-import type { GeoEllipse, PlanOptions, PlanResult, SiteResult, VariantResult } from './results';
+import type {
+  GeoEllipse,
+  PlanOptions,
+  PlanResult,
+  SiteGround,
+  SiteResult,
+  VariantResult,
+} from './results';
+import {
+  aimedPath,
+  crossing,
+  ELEVATION_NOTICE_M,
+  fallProfile,
+  fallTimeTo,
+  flightTerrain,
+  geoPolygon,
+  hiddenBy,
+  inRing,
+  type PlanGround,
+  planGround,
+  planTerrain,
+  reachRing,
+} from './terrain-flight';
 import { windCoverageWarnings } from './wind-coverage';
 
 const DEG = Math.PI / 180;
@@ -55,17 +78,22 @@ interface Context {
   probeN: number;
   /** Density from the plan's sounding, when it has one. */
   density?: (z_m: number) => number;
+  /** The elevation model and its ground, when planned over one. */
+  ground?: PlanGround;
 }
 
 function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetup {
-  const table = new FallTable({
-    top_m: ctx.top_m,
-    bottom_m: s.elevation_m,
+  const air = {
     descentRateSL_mps: v.descentRate_mps * massFactor(v),
-    entryLoss_m: v.entryLoss_m,
     isaOffset_K: ctx.plan.atmosphere.isaOffset_K,
     density: ctx.density,
     wind: ctx.wind,
+  };
+  const table = new FallTable({
+    ...air,
+    top_m: ctx.top_m,
+    bottom_m: s.elevation_m,
+    entryLoss_m: v.entryLoss_m,
   });
   const w = ctx.wind.at(ctx.top_m);
   const u = ctx.plan.uncertainty;
@@ -85,6 +113,7 @@ function setupFor(ctx: Context, v: ResolvedVariant, s: ResolvedSite): FlightSetu
     throwTime_s: v.throwTime_s,
     carrier: { x: ctx.unit.x * ctx.speed, y: ctx.unit.y * ctx.speed },
     windTop: { x: w.east_mps, y: w.north_mps },
+    ...(ctx.ground ? { terrain: flightTerrain(ctx.ground, table, air) } : {}),
   };
 }
 
@@ -115,7 +144,7 @@ function fly(
 ) {
   const xs = new Float64Array(n);
   const ys = new Float64Array(n);
-  flySamples(
+  const off = flySamples(
     su,
     {
       n,
@@ -130,7 +159,7 @@ function fly(
     xs,
     ys,
   );
-  return { xs, ys };
+  return { xs, ys, off };
 }
 
 function hitShare(xs: Float64Array, ys: Float64Array, site: Vec, tol: number): number {
@@ -179,7 +208,7 @@ function evaluate(
       ? fixedHeadingProgramme(su, { x: site.x - r.x - off.x, y: site.y - r.y - off.y })
       : undefined;
   const prog = programmeAt(rel);
-  const { xs, ys } = fly(ctx, su, rel, site, n, seed, prog);
+  let { xs, ys, off: offCount } = fly(ctx, su, rel, site, n, seed, prog);
 
   let shift: Vec = { x: 0, y: 0 };
   let releaseWindow: VariantResult['releaseWindow'] = null;
@@ -238,10 +267,48 @@ function evaluate(
     }
   }
 
+  if (ctx.ground && (shift.x !== 0 || shift.y !== 0)) {
+    // Over terrain a moved release meets other ground: fly the main stream again from there.
+    ({ xs, ys, off: offCount } = fly(ctx, su, add(rel, shift), site, n, seed, prog));
+    rel = add(rel, shift);
+    shift = { x: 0, y: 0 };
+  }
   const stats: Dispersion = summarize(xs, ys, site, tol, shift);
   keep?.({ xs, ys, shift, site, stats, table: su.table });
   rel = add(rel, shift);
-  const nominal = add(rel, off);
+  const flatNominal = add(rel, off);
+  let nominal = flatNominal;
+  let fallTime_s = su.table.fallTime_s;
+  let terrainPart: Pick<VariantResult, 'landingGround_m' | 'reachPolygon' | 'terrain'> = {};
+  let ring: Vec[] | null = null;
+  let hidden = false;
+  if (ctx.ground) {
+    // The uncontrolled descent over the ground; the descent aimed at the site for the profile
+    // and hidden ground (docs/model.md §18).
+    const open = crossing(su, nominalPath(su, rel));
+    if (open) {
+      nominal = { x: open.x, y: open.y };
+      fallTime_s = fallTimeTo(su, open.z);
+    }
+    ring = reachRing(su, rel);
+    const aimed = aimedPath(su, rel, site, flatNominal, prog);
+    const aimedHit = crossing(su, aimed);
+    const siteGround = ctx.ground.ground.height(site.x, site.y) ?? s.elevation_m;
+    const hiddenAt = hiddenBy(frame, aimedHit, site, siteGround, tol);
+    hidden = hiddenAt !== undefined;
+    const reachPolygon = ring ? geoPolygon(frame, ring) : null;
+    terrainPart = {
+      landingGround_m: open ? open.z : null,
+      reachPolygon,
+      terrain: {
+        landingGround_m: open ? open.z : null,
+        reachPolygon,
+        fallProfile: fallProfile(su, aimed, aimedHit ? aimedHit.z : su.terrain!.bottom_m),
+        ...(hiddenAt ? { hiddenBy: hiddenAt } : {}),
+        offTerrain: offCount / n,
+      },
+    };
+  }
   const miss = Math.hypot(site.x - nominal.x, site.y - nominal.y);
 
   if (!moving) {
@@ -269,11 +336,17 @@ function evaluate(
     variant: v.id,
     guidance: v.guidance,
     release: { ...frame.toLatLon(rel.x, rel.y), time_s: moving ? sStar : 0 },
-    fallTime_s: su.table.fallTime_s,
+    fallTime_s,
     nominalLanding: frame.toLatLon(nominal.x, nominal.y),
     nominalMiss_m: miss,
     reachRadius_m: reach,
-    reachable: v.guidance === 'passive' ? miss <= tol : miss <= reach + tol,
+    reachable: hidden
+      ? false
+      : v.guidance === 'passive'
+        ? miss <= tol
+        : ring
+          ? inRing(ring, site, tol)
+          : miss <= reach + tol,
     ellipse50: geoEllipse(frame, stats.ellipse50),
     ellipse95: geoEllipse(frame, stats.ellipse95),
     ellipse99: geoEllipse(frame, stats.ellipse99),
@@ -293,7 +366,7 @@ function evaluate(
       ctx.declination === null ? null : magneticHeading(prog.headingTrue_deg, ctx.declination);
     result.thrustTime_s = prog.thrust_s;
   }
-  return result;
+  return { ...result, ...terrainPart };
 }
 
 /**
@@ -304,13 +377,57 @@ export function reportedStream(
   plan: Plan,
   siteId: string,
   variantId: string,
+  opts: Pick<PlanOptions, 'terrain'> = {},
 ): (Reported & { result: VariantResult }) | null {
-  const s = plan.sites.find((x) => x.id === siteId);
+  const s0 = plan.sites.find((x) => x.id === siteId);
   const v = plan.variants.find((x) => x.id === variantId);
-  if (!s || !v) return null;
+  if (!s0 || !v) return null;
   let kept: Reported | undefined;
-  const result = evaluate(context(plan, {}, []), v, s, (r) => (kept = r));
+  const warnings: string[] = [];
+  const ctx = context(plan, opts, warnings);
+  const s = groundedSite(ctx, s0, warnings).site;
+  const result = evaluate(ctx, v, s, (r) => (kept = r));
   return kept ? { ...kept, result } : null;
+}
+
+const r1 = (v: number): string => (Math.round(v * 10) / 10).toString();
+
+/**
+ * A site's elevation over terrain: typed wins (a warning when the model differs by more than
+ * ELEVATION_NOTICE_M); otherwise the model's height at the site; the plan's ground, with a
+ * warning, where the model has none.
+ */
+function groundedSite(
+  ctx: Context,
+  s: ResolvedSite,
+  warnings: string[],
+): { site: ResolvedSite; ground?: SiteGround } {
+  if (!ctx.ground) return { site: s };
+  const model = ctx.ground.model;
+  const h = model.sample(s);
+  if (!s.elevationDefaulted) {
+    if (h !== null && Math.abs(h - s.elevation_m) > ELEVATION_NOTICE_M) {
+      warnings.push(
+        `site ${s.id}: its typed elevation ${r1(s.elevation_m)} m differs from ${model.name}'s ` +
+          `${r1(h)} m by ${r1(Math.abs(h - s.elevation_m))} m; the typed one is used`,
+      );
+    }
+    return { site: s, ground: { elevation_m: s.elevation_m, source: 'typed', terrain_m: h } };
+  }
+  if (h === null) {
+    warnings.push(
+      `site ${s.id}: ${model.name} has no height at the site; its elevation is the plan's ground, ` +
+        `${r1(s.elevation_m)} m`,
+    );
+    return {
+      site: s,
+      ground: { elevation_m: s.elevation_m, source: 'plan-ground', terrain_m: null },
+    };
+  }
+  return {
+    site: { ...s, elevation_m: h },
+    ground: { elevation_m: h, source: 'terrain', terrain_m: h },
+  };
 }
 
 function context(plan: Plan, opts: PlanOptions, warnings: string[]): Context {
@@ -327,9 +444,10 @@ function context(plan: Plan, opts: PlanOptions, warnings: string[]): Context {
     warnings.push(`time: ${(e as Error).message}; magnetic headings are not given`);
   }
   warnings.push(...windCoverageWarnings(plan, top_m));
+  const frame = new LocalFrame(plan.release);
   return {
     plan,
-    frame: new LocalFrame(plan.release),
+    frame,
     wind: planWindProfile(plan),
     top_m,
     unit: { x: Math.sin(trackRad), y: Math.cos(trackRad) },
@@ -338,6 +456,7 @@ function context(plan: Plan, opts: PlanOptions, warnings: string[]): Context {
     declinationModel,
     probeN: Math.max(1, Math.min(plan.monteCarlo.samples, opts.probeSamples ?? 128)),
     density: soundingDensity(plan),
+    ...(opts.terrain ? { ground: planGround(plan, frame, opts.terrain) } : {}),
   };
 }
 
@@ -345,7 +464,8 @@ function context(plan: Plan, opts: PlanOptions, warnings: string[]): Context {
 export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   const warnings: string[] = [];
   const ctx = context(plan, opts, warnings);
-  const sites = plan.sites.map((s, si): SiteResult => {
+  const sites = plan.sites.map((s0, si): SiteResult => {
+    const { site: s, ground } = groundedSite(ctx, s0, warnings);
     const all = plan.variants.map((v) => evaluate(ctx, v, s));
     opts.onProgress?.(si + 1, plan.sites.length);
     const rec = recommend(all, plan.variants, plan.requiredPHit);
@@ -371,8 +491,10 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
         cost: plan.variants.find((v) => v.id === r.variant)?.cost ?? 0,
       })),
       byVariant: all,
+      ...(ground ? { ground } : {}),
     };
   });
+  if (ctx.ground) warnings.push(...terrainWarnings(ctx.ground.model.name, sites));
   return {
     name: plan.name,
     time: plan.time,
@@ -384,5 +506,32 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
     sites,
     errorSources: errorSources(plan),
     warnings,
+    ...(ctx.ground
+      ? { terrain: planTerrain(ctx.ground, ctx.frame, ctx.unit, ctx.speed, sites) }
+      : {}),
   };
+}
+
+/** Hidden sites and descents that left the model, in words. */
+function terrainWarnings(name: string, sites: SiteResult[]): string[] {
+  const out: string[] = [];
+  for (const s of sites) {
+    for (const r of s.byVariant) {
+      const t = r.terrain;
+      if (!t) continue;
+      if (t.hiddenBy) {
+        out.push(
+          `site ${s.id}, ${r.variant}: hidden by higher ground — the descent aimed at it meets ` +
+            `the ground ${r1(t.hiddenBy.aboveSite_m)} m above the site, ${r1(t.hiddenBy.fromSite_m)} m from it`,
+        );
+      }
+      if (t.offTerrain > 0) {
+        out.push(
+          `site ${s.id}, ${r.variant}: ${r1(t.offTerrain * 100)} % of the descents met no known ` +
+            `ground in ${name} (nodata or outside it); they count as misses`,
+        );
+      }
+    }
+  }
+  return out;
 }

@@ -122,8 +122,11 @@ export interface VariantResult {
 export interface SiteGround {
   /** the elevation the site's falls aim at, m MSL */
   elevation_m: number;
-  /** `typed` in the plan (it wins) or read from the elevation model */
-  source: 'typed' | 'terrain';
+  /**
+   * `typed` in the plan (it wins), read from the elevation model (`terrain`), or the plan's
+   * ground (`plan-ground`) when neither gives one (a warning says so)
+   */
+  source: 'typed' | 'terrain' | 'plan-ground';
   /** the model's height at the site, m MSL; null where it has none */
   terrain_m: number | null;
 }
