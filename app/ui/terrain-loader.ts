@@ -33,8 +33,6 @@ export interface TerrainInfo {
 interface Source {
   name: string;
   file: Blob;
-  /** an ASCII grid's CRS (EPSG); undefined: WGS 84 degrees */
-  epsg?: number;
 }
 
 /** A name the plan file's terrain.file accepts (plan.schema.json: .tif/.tiff/.asc, no control characters). */
@@ -61,16 +59,23 @@ export function boxInside(a: LatLonBox, b: LatLonBox): boolean {
 }
 
 /** EPSG code of the WGS 84 / UTM zone holding a point (an ASCII grid "in the plan's zone"). */
-export function utmEpsg(p: { lat: number; lon: number }): number {
-  // The model's door gives the zone only inside its UTM text ("32T 512345 5228765").
-  const zone = Number(/^\d+/.exec(formatUTM(p))?.[0]);
-  return (p.lat >= 0 ? 32600 : 32700) + zone;
+export function utmEpsg(p: { lat: number; lon: number }): number | undefined {
+  try {
+    // The model's door gives the zone only inside its UTM text ("32T 512345 5228765").
+    const zone = Number(/^\d+/.exec(formatUTM(p))?.[0]);
+    return Number.isInteger(zone) ? (p.lat >= 0 ? 32600 : 32700) + zone : undefined;
+  } catch {
+    return undefined; // outside the UTM's latitudes
+  }
 }
 
 /** One loader per store (store.terrain). */
 export class TerrainLoader {
   /** What the read of the model in use took; null with no model. */
   info: TerrainInfo | null = null;
+  /** Reads sent to the worker, and checks of the plan area after edits, so far (for tests). */
+  reads = 0;
+  areaChecks = 0;
   /** The file of the model in use (read again when the plan area leaves its window). */
   private kept: Source | null = null;
   private readBox: LatLonBox | null = null;
@@ -98,15 +103,15 @@ export class TerrainLoader {
   }
 
   /** Opens a file picked by the person: read, used, and kept for the next visit. */
-  async open(file: Blob, name: string, opts: { epsg?: number } = {}): Promise<void> {
-    const ok = await this.read({ name, file, epsg: opts.epsg }, 'open');
+  async open(file: Blob, name: string): Promise<void> {
+    const ok = await this.read({ name, file }, 'open');
     if (!ok) return;
     if (!hasTerrainStorage()) {
       this.storageFailed(name, new Error('this browser has no IndexedDB'));
       return;
     }
     try {
-      await storeTerrain({ name, file, epsg: opts.epsg, savedAt: new Date().toISOString() });
+      await storeTerrain({ name, file, savedAt: new Date().toISOString() });
     } catch (e) {
       this.storageFailed(name, e);
     }
@@ -148,7 +153,7 @@ export class TerrainLoader {
       return;
     }
     if (!t || this.kept || this.lastId > 0) return; // nothing kept, or a file was opened meanwhile
-    this.kept = { name: t.name, file: t.file, epsg: t.epsg };
+    this.kept = { name: t.name, file: t.file };
     const named = this.store.plan?.terrain?.file;
     if (named && baseName(named) !== t.name) {
       this.store.notice = {
@@ -169,6 +174,7 @@ export class TerrainLoader {
 
   /** Reads the kept file again when the plan area has left the window read. */
   private checkArea(): void {
+    this.areaChecks++;
     const plan = this.store.plan;
     if (!this.kept || !plan) return;
     let area: LatLonBox;
@@ -215,6 +221,7 @@ export class TerrainLoader {
     s.setTerrain(s.dem, { name: src.name, state: 'loading' });
     let reply: DemReply;
     const id = ++this.lastId;
+    this.reads++;
     try {
       reply = await this.ask({
         id,
@@ -222,7 +229,7 @@ export class TerrainLoader {
         name: src.name,
         box: grownBox(area),
         fallback: area,
-        epsg: src.epsg,
+        utmEpsg: utmEpsg(plan.release),
       });
     } catch (e) {
       if (id === this.lastId) this.fail(src, `${src.name}: ${errorText(e)}`, why);

@@ -1,12 +1,12 @@
 /** The Terrain section of the plan panel: open an elevation model, what was read, remove it. */
 import { css, html, nothing } from 'lit';
-import { customElement, state } from 'lit/decorators.js';
+import { customElement } from 'lit/decorators.js';
 import { boxText } from '../formats';
 import { terrainArea } from '../planner';
 import { takePickedFile } from './picked-file';
 import { sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
-import { boxInside, utmEpsg } from './terrain-loader';
+import { boxInside } from './terrain-loader';
 import { formatQuantity } from './units';
 
 /** "12.3 MB", "456 kB", "789 bytes" (decimal units). */
@@ -60,26 +60,11 @@ export class SfTerrainSection extends StoreElement {
     `,
   ];
 
-  /** An ASCII grid's coordinates: WGS 84 degrees, or the release point's UTM zone. */
-  @state() private ascCrs: 'degrees' | 'utm' = 'degrees';
-
-  private utmZoneEpsg(): number | undefined {
-    const r = this.store?.plan?.release;
-    if (!r) return undefined;
-    try {
-      const e = utmEpsg(r);
-      return Number.isInteger(e) ? e : undefined;
-    } catch {
-      return undefined; // outside the UTM's latitudes
-    }
-  }
-
   private onPick(e: Event): void {
     const s = this.store;
     const file = takePickedFile(e);
     if (!s || !file) return;
-    const epsg = this.ascCrs === 'utm' ? this.utmZoneEpsg() : undefined;
-    void s.terrain.open(file, file.name, { epsg });
+    void s.terrain.open(file, file.name);
   }
 
   private renderModel() {
@@ -130,7 +115,6 @@ export class SfTerrainSection extends StoreElement {
     const s = this.store;
     if (!s) return html``;
     const st = s.terrainStatus;
-    const zone = this.utmZoneEpsg();
     return html`
       <label
         >Elevation model file (.tif, .tiff GeoTIFF or .asc ASCII grid; heights in metres above sea
@@ -139,28 +123,8 @@ export class SfTerrainSection extends StoreElement {
           type="file"
           accept=".tif,.tiff,.asc"
           data-testid="terrain-file"
-          ?disabled=${st.state === 'loading'}
           @change=${(e: Event) => this.onPick(e)}
       /></label>
-      <label
-        >Coordinates of an .asc grid
-        <select
-          data-testid="terrain-asc-crs"
-          @change=${(e: Event) =>
-            (this.ascCrs = (e.target as HTMLSelectElement).value === 'utm' ? 'utm' : 'degrees')}
-        >
-          <option value="degrees" ?selected=${this.ascCrs === 'degrees'}>
-            WGS 84 degrees (EPSG:4326)
-          </option>
-          ${
-            zone
-              ? html`<option value="utm" ?selected=${this.ascCrs === 'utm'}>
-                  metres in the release point's UTM zone (EPSG:${zone})
-                </option>`
-              : nothing
-          }
-        </select></label
-      >
       ${
         st.state === 'loading'
           ? html`<p role="status" data-testid="terrain-loading">
@@ -181,8 +145,9 @@ export class SfTerrainSection extends StoreElement {
             </p>`
       }
       <p class="hint">
-        Only the part of the file around the plan area is read. The file is kept in this browser for
-        the next visit and for use offline.
+        Only the part of the file around the plan area is read. An .asc grid is read in WGS 84
+        degrees, or in the release point's UTM zone when its corner cannot be degrees. The file is
+        kept in this browser for the next visit and for use offline.
       </p>
     `;
   }

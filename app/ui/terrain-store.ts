@@ -16,8 +16,6 @@ export interface StoredTerrain {
   /** the file's name (messages name it; its ending picks the reader) */
   name: string;
   file: Blob;
-  /** an ASCII grid's CRS as chosen when it was opened (EPSG code); absent for WGS 84 degrees */
-  epsg?: number;
   /** when it was stored (ISO 8601) */
   savedAt: string;
 }
@@ -86,7 +84,6 @@ export async function loadTerrain(): Promise<StoredTerrain | null> {
   return {
     name: r.name,
     file: r.file,
-    epsg: typeof r.epsg === 'number' ? r.epsg : undefined,
     savedAt: typeof r.savedAt === 'string' ? r.savedAt : '',
   };
 }

@@ -22,8 +22,11 @@ export interface DemRequest {
   box: LatLonBox;
   /** the area needed (the plan area itself), read when `box` passes the cell limit or the file's edge */
   fallback: LatLonBox;
-  /** an ASCII grid's CRS: EPSG:4326 (default) or a WGS 84 / UTM zone */
-  epsg?: number;
+  /**
+   * EPSG code of the plan's WGS 84 / UTM zone: an ASCII grid (which carries no CRS) whose
+   * lower-left corner cannot be degrees is read in it, as the command line does
+   */
+  utmEpsg?: number;
 }
 
 /** Worker → page. */
@@ -49,14 +52,29 @@ function demFormat(name: string): 'geotiff' | 'ascii' | null {
   return null;
 }
 
+/** An ASCII grid's corner cannot be degrees (|x| > 360 or |y| > 90): it is in metres. */
+function ascInMetres(head: string): boolean {
+  const x = Number(/^\s*xll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
+  const y = Number(/^\s*yll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
+  return Math.abs(x) > 360 || Math.abs(y) > 90;
+}
+
 async function read(
   req: DemRequest,
   box: LatLonBox,
   text: () => Promise<string>,
 ): Promise<DemRead> {
-  return demFormat(req.name) === 'ascii'
-    ? readAsciiGrid(req.name, await text(), { box, epsg: req.epsg })
-    : readGeoTiffDem(req.name, blobSource(req.file), { box });
+  if (demFormat(req.name) !== 'ascii') {
+    return readGeoTiffDem(req.name, blobSource(req.file), { box });
+  }
+  const t = await text();
+  if (!ascInMetres(t.slice(0, 4096))) return readAsciiGrid(req.name, t, { box });
+  if (req.utmEpsg === undefined) {
+    throw new Error(
+      `${req.name}: its corner is in metres, and the release point has no UTM zone to read it in`,
+    );
+  }
+  return readAsciiGrid(req.name, t, { box, epsg: req.utmEpsg });
 }
 
 self.onmessage = async (ev: MessageEvent<DemRequest>) => {
