@@ -4,7 +4,13 @@
  * which the clock-time release windows meeting requiredPHit are read.
  */
 import type { Plan } from '../plan';
-import { windFromComponents, type WindLayer, WindProfile, type WindProfileOptions } from '../model';
+import {
+  type ElevationModel,
+  windFromComponents,
+  type WindLayer,
+  WindProfile,
+  type WindProfileOptions,
+} from '../model';
 import { planDrop } from './planner';
 
 export interface TimedProfile {
@@ -103,6 +109,8 @@ export interface TimelineOptions {
   end?: string;
   /** Upper bound on the number of evaluations (default 500). */
   maxSteps?: number;
+  /** The elevation model the plan is flown over (as planDrop's `terrain`). */
+  terrain?: ElevationModel;
 }
 
 export interface TimelineEntry {
@@ -149,7 +157,7 @@ export function pHitTimeline(
         winds: { ...plan.winds, layers: series.profileAt(t) },
         monteCarlo: { ...plan.monteCarlo, samples },
       },
-      { probeSamples },
+      { probeSamples, terrain: opts.terrain },
     );
     out.push({
       time,

@@ -3,6 +3,7 @@
  * (`winds.forecasts`), each read in the plan's altitude reference. The app's worker, the CLI and
  * the brief all call planTimeline, so the same plan gives the same timeline everywhere.
  */
+import type { ElevationModel } from '../model';
 import { type Plan, planWindOptions } from '../plan';
 import {
   ForecastSeries,
@@ -58,9 +59,10 @@ export function timelineFlights(plan: Plan, step_s: number, samples?: number): n
 /** pHitTimeline over the plan's own forecast series, at most TIMELINE_MAX_STEPS times. */
 export function planTimeline(
   plan: Plan,
-  opts: { step_s: number; samples?: number },
+  opts: { step_s: number; samples?: number; terrain?: ElevationModel },
 ): TimelineEntry[] {
   const o: TimelineOptions = {
+    terrain: opts.terrain,
     step_s: opts.step_s,
     samples: timelineSamples(plan, opts.samples),
     maxSteps: TIMELINE_MAX_STEPS,

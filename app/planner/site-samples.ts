@@ -1,6 +1,7 @@
 // One site × variant's Monte Carlo landings and fall profile, as planDrop reported them, for the
 // site details view: the same seed, the same release (with the moving carrier's best-time shift)
 // and the same main stream, so the points give exactly the P(hit) and CEP the results show.
+import type { ElevationModel } from '../model';
 import type { Plan } from '../plan';
 import { reportedStream } from './planner';
 import type { VariantResult } from './results';
@@ -26,7 +27,10 @@ export interface FallProfile {
 export interface SiteSamples {
   siteId: string;
   variantId: string;
-  /** Every reported landing (monteCarlo.samples of them), metres east and north of the site. */
+  /**
+   * Every reported landing (monteCarlo.samples of them), metres east and north of the site; NaN
+   * for a descent that met no known ground over an elevation model.
+   */
   east_m: Float64Array;
   north_m: Float64Array;
   tolerance_m: number;
@@ -40,6 +44,8 @@ export interface SiteSamples {
 export interface SiteSamplesOptions {
   /** Most fall profile nodes kept (evenly spaced, first and last always kept); default 200. */
   maxProfilePoints?: number;
+  /** The elevation model the plan is flown over (as planDrop's `terrain`). */
+  terrain?: ElevationModel;
 }
 
 /** Indices 0 … n−1 thinned evenly to at most `max` (first and last kept). */
@@ -59,7 +65,7 @@ export function siteSamples(
   variantId: string,
   opts: SiteSamplesOptions = {},
 ): SiteSamples | null {
-  const r = reportedStream(plan, siteId, variantId);
+  const r = reportedStream(plan, siteId, variantId, { terrain: opts.terrain });
   if (!r) return null;
   const n = r.xs.length;
   const east = new Float64Array(n);

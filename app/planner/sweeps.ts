@@ -1,4 +1,5 @@
 // P(hit) and CEP of one site over release altitude: the planner run at each height.
+import type { ElevationModel } from '../model';
 import type { Plan } from '../plan';
 import { planDrop } from './planner';
 
@@ -24,7 +25,7 @@ export function altitudeSweep(
   siteId: string,
   variantId: string,
   altitudesAGL_m: number[],
-  opts: { samples?: number } = {},
+  opts: { samples?: number; terrain?: ElevationModel } = {},
 ): SweepPoint[] {
   const site = plan.sites.find((s) => s.id === siteId);
   const variant = plan.variants.find((v) => v.id === variantId);
@@ -40,7 +41,7 @@ export function altitudeSweep(
       variants: [variant],
       monteCarlo: { ...plan.monteCarlo, samples },
     };
-    const s = planDrop(one, { probeSamples: 64 }).sites[0];
+    const s = planDrop(one, { probeSamples: 64, terrain: opts.terrain }).sites[0];
     return { altitude_m, pHit: s.pHit, pHitSE: s.pHitSE, cep_m: s.cep_m, reachable: s.reachable };
   });
 }
