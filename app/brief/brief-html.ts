@@ -425,8 +425,7 @@ ${opts.printBar ? `<div class="printbar"><button type="button" data-action="prin
 <p class="small" data-testid="included">${esc(includedText(result.errorSources))} P(hit) ± its Monte Carlo standard error.</p>
 ${result.warnings.map((w) => `<p class="bad">${esc(w)}</p>`).join('')}
 </section>
-${energySection(plan, result)}
-${terrainSection(plan, result, { note: opts.terrainNote, order: scheduleOrder(result) })}
+${energySection(plan, result)}${terrainSection(plan, result, { note: opts.terrainNote, order: scheduleOrder(result) })}
 ${timelineSection(plan, opts.timeline, { omitted: opts.timelineOmitted })}
 <section class="winds"><div class="keep"><h2>Winds</h2></div><div class="windgrid">
 <div><table><thead><tr><th>Altitude m</th><th>From</th><th>m/s</th><th>kt</th></tr></thead><tbody>${windRows(plan)}</tbody></table>

@@ -50,7 +50,7 @@ function siteFigure(s: SiteResult): string {
       : `site ${f(ground.elevation_m, 1)} m MSL, from the elevation model`;
   const landing = t ? t.landingGround_m : v.landingGround_m;
   const lines = [
-    `${esc(source)}; landing ground ${landing === null || landing === undefined ? 'unknown (no model height there)' : `${f(landing, 1)} m MSL`}.`,
+    `${esc(source)}; ground at the uncontrolled landing ${landing === null || landing === undefined ? 'unknown (no model height there)' : `${f(landing, 1)} m MSL`}.`,
   ];
   if (t && t.offTerrain > 0) {
     lines.push(
@@ -89,7 +89,7 @@ export function terrainSection(
     : '';
   return `<section class="terrain"><div class="keep"><h2>Fall profile over the ground</h2>
 <p>Elevation model: <b>${esc(model.name)}</b>${opts.note ? ` (${esc(opts.note)})` : ''}. Each descent ends where it meets this ground; wind layers given AGL stay referred to the plan ground (${f(plan.groundElevation_m)} m MSL).${esc(carrier)}</p>
-<p class="small">Each drawing: the nominal descent of the site’s variant from the release (left) to the ground, altitude MSL against distance from the release; the ground under it filled (gaps: no height in the model); the site ▼ and its level (dashed).</p></div>
+<p class="small">Each drawing: the nominal descent of the site’s variant aimed at the site, from the release (left) to the ground, altitude MSL against distance from the release, to where it meets the ground; the ground under it filled (gaps: no height in the model); the site ▼ and its level (dashed). The uncontrolled landing is where the vehicle lands unsteered (JSON landingGround_m).</p></div>
 <div class="tgrid">${shown.map(siteFigure).join('\n')}</div>
 ${leftText}
 </section>`;
@@ -99,7 +99,9 @@ ${leftText}
 export function terrainReportLines(result: PlanResult): string[] {
   const model = result.terrain;
   if (!model) return [];
-  const rows = [['site', 'variant', 'site ground m', 'from', 'landing ground m', 'off model']];
+  const rows = [
+    ['site', 'variant', 'site ground m', 'from', 'uncontrolled landing ground m', 'off model'],
+  ];
   const notes: string[] = [];
   for (const s of result.sites) {
     const v = chosen(s);

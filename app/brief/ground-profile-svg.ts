@@ -150,8 +150,8 @@ export function groundProfileSvg(
   const exag = ((bottom - top) / (y1 - y0) / ((right - left) / (xMax - xMin))).toPrecision(2);
   const landing =
     last.ground_m === null
-      ? 'landing over no known ground'
-      : `landing ground ${num(Math.round(last.ground_m * k))} ${u} MSL`;
+      ? 'ends over no known ground'
+      : `meets the ground at ${num(Math.round(last.ground_m * k))} ${u} MSL`;
   return `<svg class="gprof" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="Descent over the ground">
 <style>.gprof{font:10px 'DejaVu Sans',system-ui,sans-serif;background:#fff}.gprof .grid{stroke:#e3e7e5}.gprof .axis,.gprof .tick{stroke:#555}.gprof .ground{fill:#d6cbb5;stroke:#7a6a4f;stroke-width:1}.gprof .ground-pt{stroke:#7a6a4f;stroke-width:2}.gprof .path{fill:none;stroke:#0f766e;stroke-width:2}.gprof .landing{fill:#fff;stroke:#0f766e;stroke-width:2}.gprof .site{fill:#be123c}.gprof .site-level{stroke:#be123c;stroke-dasharray:4 3}.gprof .cap{font-weight:bold}</style>
 ${out.join('')}

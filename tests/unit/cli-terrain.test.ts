@@ -223,7 +223,7 @@ describe('planning over an inclined plane from the command line', () => {
     const r = await cli('data/demo-plan.json', '--terrain', ascPath, '--samples', SAMPLES);
     expect(r.code).toBe(0);
     expect(r.out).toContain(`Terrain: ${ascPath}`);
-    expect(r.out).toMatch(/site\s+variant\s+site ground m\s+from\s+landing ground m/);
+    expect(r.out).toMatch(/site\s+variant\s+site ground m\s+from\s+uncontrolled landing ground m/);
     for (const s of plan.sites)
       expect(r.out).toMatch(new RegExp(`^${s.id}\\s+\\S+\\s+[\\d.]+\\s+typed`, 'm'));
   });

@@ -81,7 +81,7 @@ describe('the ground profile drawing', () => {
     expect(Math.max(...alt)).toBeGreaterThanOrEqual(1000);
     const site = asList(svg.line).find((l) => l.class === 'site-level')!;
     expectClose(Number(site.y1), Y(196), 0.15, 'site level');
-    expect(text).toContain('landing ground 200 m MSL, 500 m from release');
+    expect(text).toContain('meets the ground at 200 m MSL, 500 m from release');
   });
 
   it('labels the axes in the display unit (feet: 0.3048 m exactly, by definition)', () => {
@@ -93,7 +93,7 @@ describe('the ground profile drawing', () => {
     const Y = axisMap(asList(s.line), 'alt');
     const landing = asList(s.circle).find((c) => c.class === 'landing')!;
     expectClose(Number(landing.cy), Y(200 / 0.3048), 0.15, 'landing at 656 ft');
-    expect(t).toContain(`landing ground ${Math.round(200 / 0.3048)} ft MSL`);
+    expect(t).toContain(`meets the ground at ${Math.round(200 / 0.3048)} ft MSL`);
   });
 
   it('leaves a gap in the ground where the model has no height', () => {
@@ -106,7 +106,7 @@ describe('the ground profile drawing', () => {
     expect(t).toContain('gaps: no ground known');
     const none = groundProfileSvg(slope().map((p) => ({ ...p, ground_m: null })));
     expect(asList((parser.parse(none).svg as Node).polygon).length).toBe(0);
-    expect(none).toContain('landing over no known ground');
+    expect(none).toContain('ends over no known ground');
   });
 
   it('escapes a hostile title and unit label, and copes with nothing to draw', () => {
