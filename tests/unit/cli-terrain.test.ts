@@ -177,6 +177,51 @@ describe('reading the elevation model for a plan', () => {
   });
 });
 
+describe('an ASCII grid in metres', () => {
+  it('is read in the plan’s UTM zone (EPSG:32634 at the demo release), heights where GDAL puts them', async () => {
+    // gdaltransform (Debian gdal-bin) projects the area's corners and the release point.
+    const box = terrainArea(plan);
+    const utm = (pts: [number, number][]): number[][] =>
+      execFileSync('gdaltransform', ['-s_srs', 'EPSG:4326', '-t_srs', 'EPSG:32634', '-output_xy'], {
+        input: pts.map((p) => p.join(' ')).join('\n') + '\n',
+        encoding: 'utf8',
+      })
+        .trim()
+        .split('\n')
+        .map((l) => l.trim().split(/\s+/).map(Number));
+    const corners = utm([
+      [box.west, box.south],
+      [box.west, box.north],
+      [box.east, box.south],
+      [box.east, box.north],
+    ]);
+    const cell = 30;
+    const e0 = Math.floor(Math.min(...corners.map((c) => c[0])) / cell) * cell - 3 * cell;
+    const n0 = Math.floor(Math.min(...corners.map((c) => c[1])) / cell) * cell - 3 * cell;
+    const cols = Math.ceil((Math.max(...corners.map((c) => c[0])) - e0) / cell) + 3;
+    const rows = Math.ceil((Math.max(...corners.map((c) => c[1])) - n0) / cell) + 3;
+    const lines = [
+      `ncols ${cols}`,
+      `nrows ${rows}`,
+      `xllcorner ${e0}`,
+      `yllcorner ${n0}`,
+      `cellsize ${cell}`,
+    ];
+    // A plane in metres: 100 m at the grid's west edge, rising 1 m per 100 m east.
+    for (let r = 0; r < rows; r++) {
+      const row: string[] = [];
+      for (let c = 0; c < cols; c++) row.push((100 + 0.01 * (c + 0.5) * cell).toFixed(3));
+      lines.push(row.join(' '));
+    }
+    const path = join(dir, 'utm.asc');
+    writeFileSync(path, lines.join('\n'));
+    const t = (await loadTerrain(args(path), plan))!;
+    expect(t.note).toContain('EPSG:32634');
+    const [[e]] = utm([[plan.release.lon, plan.release.lat]]);
+    expect(Math.abs(t.dem.sample(plan.release)! - (100 + 0.01 * (e - e0)))).toBeLessThan(1e-3);
+  });
+});
+
 describe('planning over an inclined plane from the command line', () => {
   let fromAsc: PlanResult;
   let fromTif: PlanResult;
@@ -226,6 +271,39 @@ describe('planning over an inclined plane from the command line', () => {
     expect(r.out).toMatch(/site\s+variant\s+site ground m\s+from\s+uncontrolled landing ground m/);
     for (const s of plan.sites)
       expect(r.out).toMatch(new RegExp(`^${s.id}\\s+\\S+\\s+[\\d.]+\\s+typed`, 'm'));
+  });
+});
+
+describe('the brief and the timeline with an elevation model', () => {
+  it('the brief names the model and how much of it was read, and draws a profile per site', async () => {
+    const out = join(dir, 'brief.html');
+    const r = await cli(
+      'brief',
+      'data/demo-plan.json',
+      '--terrain',
+      tifPath,
+      '--out',
+      out,
+      '--samples',
+      SAMPLES,
+    );
+    expect(r.code).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expect(html).toContain('<h2>Fall profile over the ground</h2>');
+    expect(html).toMatch(/\d+ × \d+ cells read of \d+ × \d+, [\d.]+ MB of [\d.]+ MB/);
+    expect(html.match(/<svg class="gprof"/g)).toHaveLength(plan.sites.length);
+  });
+
+  it('the timeline flies flat and says so when the plan names a model', async () => {
+    const p = writePlan('plans/timeline.json', {
+      ...structuredClone(demo),
+      terrain: { file: 'no-such.tif' },
+    });
+    const r = await cli('timeline', p, '--samples', '20', '--step', '30m');
+    expect(r.code).toBe(0);
+    expect(r.err).toContain(
+      'seedfall: note: the timeline is flown over flat ground; terrain.file no-such.tif is not read',
+    );
   });
 });
 
