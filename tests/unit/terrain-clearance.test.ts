@@ -2,7 +2,7 @@
 // real planner results of small plans with a hand-made PlanResult.terrain, so every height
 // above the ground is release altitude MSL − ground, worked by hand.
 import { describe, expect, it } from 'vitest';
-import { LocalFrame } from '../../app/model';
+import { type ElevationModel, type LatLon, LocalFrame, sampledGround } from '../../app/model';
 import type { PlanFile } from '../../app/plan/plan';
 import { validatePlan } from '../../app/plan/validate';
 import { planDrop, type CarrierGroundPoint, type PlanResult } from '../../app/planner';
@@ -203,4 +203,27 @@ describe('terrain clearance check', () => {
       ]);
     }
   });
+
+  it('checks the ground the planner found under the hover points of a plan over a slope', () => {
+    // Ground rising 0.1 m per m to the north from 500 m MSL at the release point: the hover
+    // point of s1 (about 200 m north) is over ground near 520 m, s2's (east) near 500 m.
+    const frame = new LocalFrame(RELEASE);
+    const h = (p: LatLon) => 500 + 0.1 * frame.toLocal(p).y;
+    const slope: ElevationModel = {
+      name: 'slope.asc',
+      sample: h,
+      localGround: (f, box) => sampledGround((x, y) => h(f.toLatLon(x, y)), box, 5),
+    };
+    const result = planDrop(hoverPlan, { probeSamples: 64, terrain: slope });
+    const pts = result.terrain?.carrier ?? [];
+    expect(pts.map((p) => p.site)).toEqual(['s1', 's2']);
+    const above = pts.map((p) => 600 - h(p));
+    const c = check(result, { terrainClearance_m: 90 });
+    // 600 − (500 + 0.1·y): s1 about 80 m above its ground (< 90 m: fail), s2 about 100 m.
+    expect(c.status).toBe('fail');
+    expect(c.sites).toEqual(['s1']);
+    expect(c.numbers.worstAboveGround_m).toBeCloseTo(above[0], 1);
+    expect(c.numbers.mostAboveGround_m).toBeCloseTo(above[1], 1);
+    expect(check(result).status).toBe('pass');
+  }, 120_000);
 });
