@@ -2,12 +2,13 @@
  * The ground on the map: a hillshade and contour lines of the elevation model, drawn on one
  * canvas in its own pane beneath the grid and the plan's shapes (terrain-shade.ts computes them).
  *
- * Per model, once: the window is averaged down to at most 1024 cells a side, shaded into an
- * image in the model's own grid, contoured at a 1-2-5 interval of the display unit, and every
- * tile corner and contour vertex is carried to Web Mercator through the model's CRS converter.
- * That work runs in slices of about 10 ms between which the page stays free. Per view: the image
- * is drawn in 32-pixel tiles, each placed by the affine map through its projected corners (the
- * grid's CRS is curved in Mercator, but not within one tile), and the contours as one path.
+ * Per model, once: the window is averaged down to at most 1024 cells a side, shaded in the
+ * model's own grid, contoured at a 1-2-5 interval of the display unit, and every contour vertex
+ * is carried to Web Mercator through the model's CRS converter. That work runs in slices of
+ * about 10 ms between which the page stays free. Per view: the shade is sampled for every screen
+ * pixel, the pixel's grid position interpolated between the exact positions of the corners of
+ * 16-pixel blocks (the grid's CRS is curved in Mercator, but not within one block), so there are
+ * no seams; then the contours as one path.
  */
 import L from 'leaflet';
 import { crsConverter, type Dem } from '../formats';
@@ -23,20 +24,21 @@ import {
   type Steps,
 } from './terrain-shade';
 
-/** Image pixels per side of a tile drawn with one affine transform. */
-const TILE = 32;
+/** Screen pixels per side of a block whose corners are carried exactly into the grid. */
+const BLOCK = 16;
 /** Longest slice of work between two returns to the page, ms. */
 const SLICE_MS = 10;
 /** Earth radius of the spherical Mercator Leaflet uses (EPSG:3857), m. */
 const R = 6378137;
 const MAX_LAT = 85.0511287798;
 
-// Our colours: shadows a dark green-grey, lit slopes a warm white, flat ground left clear so the
-// map's plain background shows; contours a muted brown, index contours darker and wider.
-const SHADOW = [38, 52, 47];
-const SHADOW_ALPHA = 0.5;
-const LIGHT = [255, 253, 246];
-const LIGHT_ALPHA = 0.55;
+// Our colours: shadows a cool slate, lit slopes a warm cream (white would not show on the map's
+// pale background), flat ground left clear so the background shows; contours a muted brown,
+// index contours darker and wider.
+const SHADOW = [44, 60, 72];
+const SHADOW_ALPHA = 0.45;
+const LIGHT = [255, 226, 160];
+const LIGHT_ALPHA = 0.45;
 const CONTOUR = 'rgba(140, 104, 72, 0.55)';
 const INDEX_CONTOUR = 'rgba(112, 78, 50, 0.8)';
 const LABEL = '#5c4330';
@@ -50,13 +52,12 @@ export interface TerrainUnits {
 
 /** What one model gives the map, ready to draw. */
 interface Drawn {
-  image: HTMLCanvasElement;
-  cols: number;
-  rows: number;
-  /** Mercator x, y of the image's tile corners, (nx + 1) × (ny + 1), row-major */
-  corners: Float64Array;
-  nx: number;
-  ny: number;
+  /** the downsampled grid the shade and the lines belong to */
+  grid: ShadeGrid;
+  /** hillshade bytes per cell: 0 unknown, 1…255 */
+  shade: Uint8ClampedArray;
+  /** RGBA (as 32-bit words in the platform's byte order) of each shade byte */
+  colour: Uint32Array;
   lines: { line: ContourLine; merc: Float64Array; box: [number, number, number, number] }[];
   interval: number;
 }
@@ -67,30 +68,23 @@ const mercY = (lat: number) => {
   return R * Math.log(Math.tan(Math.PI / 4 + p / 2));
 };
 
-/** Hillshade bytes (0 unknown, 1…255) as RGBA: flat ground clear, shadow and light as tints. */
-function shadeImage(g: ShadeGrid, shade: Uint8ClampedArray): HTMLCanvasElement {
-  const canvas = document.createElement('canvas');
-  canvas.width = g.cols;
-  canvas.height = g.rows;
-  const ctx = canvas.getContext('2d')!;
-  const img = ctx.createImageData(g.cols, g.rows);
+/** The colour of each hillshade byte (0 unknown, 1…255): flat ground clear, shadow and light as tints. */
+function shadeColours(): Uint32Array {
+  const rgba = new Uint8ClampedArray(256 * 4);
   const flat = flatShade(45);
-  const d = img.data;
-  for (let i = 0; i < shade.length; i++) {
-    const s = shade[i];
-    if (s === 0) continue;
-    const k = 4 * i;
+  for (let s = 1; s < 256; s++) {
+    const k = 4 * s;
     const dark = s < flat;
     const c = dark ? SHADOW : LIGHT;
-    d[k] = c[0];
-    d[k + 1] = c[1];
-    d[k + 2] = c[2];
-    d[k + 3] = dark
-      ? (255 * SHADOW_ALPHA * (flat - s)) / (flat - 1)
-      : (255 * LIGHT_ALPHA * (s - flat)) / (255 - flat);
+    rgba[k] = c[0];
+    rgba[k + 1] = c[1];
+    rgba[k + 2] = c[2];
+    // A square-root curve, so the gentle slopes of lowland sites still show.
+    rgba[k + 3] = dark
+      ? 255 * SHADOW_ALPHA * Math.sqrt((flat - s) / (flat - 1))
+      : 255 * LIGHT_ALPHA * Math.sqrt((s - flat) / (255 - flat));
   }
-  ctx.putImageData(img, 0, 0);
-  return canvas;
+  return new Uint32Array(rgba.buffer);
 }
 
 /** All of one model's work, in slices (see the file's comment). */
@@ -101,25 +95,12 @@ function* prepare(dem: Dem, units: TerrainUnits): Steps<Drawn> {
   const { interval, levels } = contourLevels(min, max, units.metresPerUnit);
   const lines = yield* contourSteps(g, levels);
   yield;
-  const image = shadeImage(g, shade);
-  yield;
   const conv = crsConverter(g.epsg, g.file);
   const toMerc = (x: number, y: number, out: Float64Array, i: number) => {
     const p = conv.inverse({ x, y });
     out[i] = mercX(p.x);
     out[i + 1] = mercY(p.y);
   };
-  const nx = Math.ceil(g.cols / TILE);
-  const ny = Math.ceil(g.rows / TILE);
-  const corners = new Float64Array(2 * (nx + 1) * (ny + 1));
-  for (let j = 0; j <= ny; j++) {
-    for (let i = 0; i <= nx; i++) {
-      const px = Math.min(i * TILE, g.cols);
-      const py = Math.min(j * TILE, g.rows);
-      toMerc(g.x0 + px * g.dx, g.y0 - py * g.dy, corners, 2 * (j * (nx + 1) + i));
-    }
-  }
-  yield;
   const out: Drawn['lines'] = [];
   let done = 0;
   for (const line of lines) {
@@ -145,7 +126,42 @@ function* prepare(dem: Dem, units: TerrainUnits): Steps<Drawn> {
       yield;
     }
   }
-  return { image, cols: g.cols, rows: g.rows, corners, nx, ny, lines: out, interval };
+  return { grid: g, shade, colour: shadeColours(), lines: out, interval };
+}
+
+/**
+ * The shade at grid position (c, r) (columns, rows of cell centres): 0 where the nearest cell is
+ * unknown, else bilinear between the known cells of the four about it.
+ */
+function sampleShade(
+  shade: Uint8ClampedArray,
+  cols: number,
+  rows: number,
+  c: number,
+  r: number,
+): number {
+  const nc = Math.min(cols - 1, Math.max(0, Math.round(c)));
+  const nr = Math.min(rows - 1, Math.max(0, Math.round(r)));
+  if (shade[nr * cols + nc] === 0) return 0;
+  const c0 = Math.min(cols - 1, Math.max(0, Math.floor(c)));
+  const r0 = Math.min(rows - 1, Math.max(0, Math.floor(r)));
+  const c1 = Math.min(cols - 1, c0 + 1);
+  const r1 = Math.min(rows - 1, r0 + 1);
+  const fx = Math.min(1, Math.max(0, c - c0));
+  const fy = Math.min(1, Math.max(0, r - r0));
+  let sum = 0;
+  let weight = 0;
+  const add = (i: number, wt: number) => {
+    const v = shade[i];
+    if (v === 0 || wt === 0) return;
+    sum += v * wt;
+    weight += wt;
+  };
+  add(r0 * cols + c0, (1 - fx) * (1 - fy));
+  add(r0 * cols + c1, fx * (1 - fy));
+  add(r1 * cols + c0, (1 - fx) * fy);
+  add(r1 * cols + c1, fx * fy);
+  return weight > 0 ? Math.round(sum / weight) : shade[nr * cols + nc];
 }
 
 /** Hillshade and contours of an elevation model (setDem), in a pane beneath the plan's shapes. */
@@ -278,7 +294,7 @@ export class TerrainLayer extends L.Layer {
     const canvas = this.canvas;
     if (!map || !canvas) return;
     const size = map.getSize();
-    const pad = size.multiplyBy(this.opts.padding ?? 0.25).round();
+    const pad = size.multiplyBy(this.opts.padding ?? 0.15).round();
     const topLeft = map.containerPointToLayerPoint([0, 0]).subtract(pad);
     const w = size.x + 2 * pad.x;
     const h = size.y + 2 * pad.y;
@@ -306,63 +322,98 @@ export class TerrainLayer extends L.Layer {
     const oy = s / 2 - origin.y - topLeft.y;
     const sx = (X: number) => k * X + ox;
     const sy = (Y: number) => -k * Y + oy;
-    this.drawShade(ctx, d, sx, sy, dpr, w, h);
+    this.drawShade(ctx, map, d, topLeft, w, h);
     this.drawContours(ctx, d, sx, sy, dpr, w, h);
   }
 
+  /**
+   * The hillshade at one sample per CSS pixel: each pixel's grid position is interpolated in its
+   * 16-pixel block from the block's corners (carried exactly: screen → WGS 84 → the grid's CRS),
+   * and the shade interpolated bilinearly between the known cells about it.
+   */
   private drawShade(
     ctx: CanvasRenderingContext2D,
+    map: L.Map,
     d: Drawn,
-    sx: (X: number) => number,
-    sy: (Y: number) => number,
-    dpr: number,
+    topLeft: L.Point,
     w: number,
     h: number,
   ): void {
-    const { corners: m, nx, ny } = d;
-    const at = (i: number, j: number) => 2 * (j * (nx + 1) + i);
-    ctx.imageSmoothingEnabled = true;
-    for (let j = 0; j < ny; j++) {
-      for (let i = 0; i < nx; i++) {
-        const a = at(i, j);
-        const b = at(i + 1, j);
-        const c = at(i, j + 1);
-        const e = at(i + 1, j + 1);
-        const x00 = sx(m[a]);
-        const y00 = sy(m[a + 1]);
-        const x10 = sx(m[b]);
-        const y10 = sy(m[b + 1]);
-        const x01 = sx(m[c]);
-        const y01 = sy(m[c + 1]);
-        const x11 = sx(m[e]);
-        const y11 = sy(m[e + 1]);
+    const g = d.grid;
+    const conv = crsConverter(g.epsg, g.file);
+    const nbx = Math.ceil(w / BLOCK);
+    const nby = Math.ceil(h / BLOCK);
+    // Grid position (column, row of cell centres) of every block corner.
+    const gc = new Float64Array((nbx + 1) * (nby + 1));
+    const gr = new Float64Array((nbx + 1) * (nby + 1));
+    for (let j = 0; j <= nby; j++) {
+      for (let i = 0; i <= nbx; i++) {
+        const ll = map.layerPointToLatLng(topLeft.add([i * BLOCK, j * BLOCK]));
+        const q = conv.forward({ x: ll.lng, y: ll.lat });
+        gc[j * (nbx + 1) + i] = (q.x - g.x0) / g.dx - 0.5;
+        gr[j * (nbx + 1) + i] = (g.y0 - q.y) / g.dy - 0.5;
+      }
+    }
+    const img = new ImageData(w, h);
+    const out = new Uint32Array(img.data.buffer);
+    const { cols, rows } = g;
+    const shade = d.shade;
+    const colour = d.colour;
+    let any = false;
+    for (let j = 0; j < nby; j++) {
+      for (let i = 0; i < nbx; i++) {
+        const k00 = j * (nbx + 1) + i;
+        const k10 = k00 + 1;
+        const k01 = k00 + nbx + 1;
+        const k11 = k01 + 1;
+        const c00 = gc[k00];
+        const c10 = gc[k10];
+        const c01 = gc[k01];
+        const c11 = gc[k11];
+        const r00 = gr[k00];
+        const r10 = gr[k10];
+        const r01 = gr[k01];
+        const r11 = gr[k11];
+        // A block wholly beside the grid draws nothing.
         if (
-          Math.max(x00, x10, x01, x11) < 0 ||
-          Math.min(x00, x10, x01, x11) > w ||
-          Math.max(y00, y10, y01, y11) < 0 ||
-          Math.min(y00, y10, y01, y11) > h
+          Math.max(c00, c10, c01, c11) < -0.5 ||
+          Math.min(c00, c10, c01, c11) > cols - 0.5 ||
+          Math.max(r00, r10, r01, r11) < -0.5 ||
+          Math.min(r00, r10, r01, r11) > rows - 0.5
         ) {
           continue;
         }
-        const px = i * TILE;
-        const py = j * TILE;
-        const tw = Math.min(TILE, d.cols - px);
-        const th = Math.min(TILE, d.rows - py);
-        // One more source pixel where the image goes on, so neighbouring tiles overlap (no seams).
-        const ew = px + tw < d.cols ? 1 : 0;
-        const eh = py + th < d.rows ? 1 : 0;
-        ctx.setTransform(
-          (dpr * (x10 - x00)) / tw,
-          (dpr * (y10 - y00)) / tw,
-          (dpr * (x01 - x00)) / th,
-          (dpr * (y01 - y00)) / th,
-          dpr * x00,
-          dpr * y00,
-        );
-        ctx.drawImage(d.image, px, py, tw + ew, th + eh, 0, 0, tw + ew, th + eh);
+        const x1 = Math.min(w, (i + 1) * BLOCK);
+        const y1 = Math.min(h, (j + 1) * BLOCK);
+        for (let y = j * BLOCK; y < y1; y++) {
+          const v = (y - j * BLOCK) / BLOCK;
+          const cl = c00 + (c01 - c00) * v;
+          const cr = c10 + (c11 - c10) * v;
+          const rl = r00 + (r01 - r00) * v;
+          const rr = r10 + (r11 - r10) * v;
+          for (let x = i * BLOCK; x < x1; x++) {
+            const u = (x - i * BLOCK) / BLOCK;
+            const c = cl + (cr - cl) * u;
+            const r = rl + (rr - rl) * u;
+            if (!(c >= -0.5 && r >= -0.5 && c <= cols - 0.5 && r <= rows - 0.5)) continue;
+            const s = sampleShade(shade, cols, rows, c, r);
+            if (s > 0) {
+              out[y * w + x] = colour[s];
+              any = true;
+            }
+          }
+        }
       }
     }
+    if (!any) return;
+    // Drawn through a canvas of CSS pixels, scaled to the device's (the shade is smooth).
+    const tmp = document.createElement('canvas');
+    tmp.width = w;
+    tmp.height = h;
+    tmp.getContext('2d')!.putImageData(img, 0, 0);
     ctx.setTransform(1, 0, 0, 1, 0, 0);
+    ctx.imageSmoothingEnabled = true;
+    ctx.drawImage(tmp, 0, 0, ctx.canvas.width, ctx.canvas.height);
   }
 
   private drawContours(

@@ -15,8 +15,8 @@ export type ShadeGrid = Omit<DemGrid, 'nodata'> & { nodata: null };
 /** A computation that yields between bands of rows and returns its result. */
 export type Steps<T> = Generator<void, T, void>;
 
-/** Rows handled between two yields of the generators below (each row is at most ~1000 cells). */
-const ROWS_PER_STEP = 32;
+/** Rows handled between two yields of the generators below (a few ms of work at ~1000 cells a row). */
+const ROWS_PER_STEP = 8;
 
 /** Runs a generator to its end and returns its result. */
 export function run<T>(steps: Steps<T>): T {
