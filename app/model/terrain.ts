@@ -623,6 +623,8 @@ export const CROSS_START_BELOW = 3;
 export type PathAt = (z_m: number, out: Float64Array) => void;
 
 const WALK_LIMIT = 100_000;
+/** Sideways length of a checked step is at most this or two cells, whichever is longer, m. */
+const FINE_SIDEWAYS_M = 15;
 // The first step that held in the last walk (a speed hint only: any step is checked).
 const walkHint = new Float64Array(1);
 // One scratch box for every walk (the walk is synchronous and does not nest).
@@ -692,7 +694,7 @@ export function firstCrossing(
       dz = step * 2;
       continue;
     }
-    if (step > maxStepZ_m || moved > 2 * cell) {
+    if (step > maxStepZ_m || moved > Math.max(2 * cell, FINE_SIDEWAYS_M)) {
       if (step > 1e-6) {
         dz = step / 2;
         continue;

@@ -208,7 +208,11 @@ function evaluate(
       ? fixedHeadingProgramme(su, { x: site.x - r.x - off.x, y: site.y - r.y - off.y })
       : undefined;
   const prog = programmeAt(rel);
-  let { xs, ys, off: offCount } = fly(ctx, su, rel, site, n, seed, prog);
+  // Over terrain a moving open-loop release flies its main stream only once the best time is
+  // chosen (a moved release meets other ground); everything else flies it from here.
+  const late = ctx.ground !== undefined && moving && v.guidance !== 'homing';
+  const empty = { xs: new Float64Array(0), ys: new Float64Array(0), off: 0 };
+  let { xs, ys, off: offCount } = late ? empty : fly(ctx, su, rel, site, n, seed, prog);
 
   let shift: Vec = { x: 0, y: 0 };
   let releaseWindow: VariantResult['releaseWindow'] = null;
@@ -267,8 +271,7 @@ function evaluate(
     }
   }
 
-  if (ctx.ground && (shift.x !== 0 || shift.y !== 0)) {
-    // Over terrain a moved release meets other ground: fly the main stream again from there.
+  if (late) {
     ({ xs, ys, off: offCount } = fly(ctx, su, add(rel, shift), site, n, seed, prog));
     rel = add(rel, shift);
     shift = { x: 0, y: 0 };
