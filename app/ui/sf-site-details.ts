@@ -10,6 +10,7 @@ import { customElement, query, state } from 'lit/decorators.js';
 import { unsafeSVG } from 'lit/directives/unsafe-svg.js';
 import { fallProfileSvg, groundProfileSvg, scatterSvg } from '../brief';
 import { distance_m } from '../model';
+import type { Dem } from '../formats';
 import type { Plan } from '../plan';
 import {
   pHitParts,
@@ -155,6 +156,7 @@ export class SfSiteDetails extends StoreElement {
   private returnTo: HTMLElement | null = null;
   private focusPending = false;
   private cachePlan: Plan | null = null;
+  private cacheDem: Dem | null = null;
   private cache = new Map<string, SiteSamples | string>();
 
   private readonly onSelect = (e: Event): void => {
@@ -219,16 +221,24 @@ export class SfSiteDetails extends StoreElement {
   }
 
   /** The re-flown landings of site × variant for the shown result (cached), or why not. */
-  private samples(plan: Plan, siteId: string, variantId: string): SiteSamples | string {
-    if (this.cachePlan !== plan) {
+  private samples(
+    plan: Plan,
+    siteId: string,
+    variantId: string,
+    dem: Dem | null,
+  ): SiteSamples | string {
+    if (this.cachePlan !== plan || this.cacheDem !== dem) {
       this.cachePlan = plan;
+      this.cacheDem = dem;
       this.cache.clear();
     }
     const key = `${siteId}\u0000${variantId}`;
     let got = this.cache.get(key);
     if (got === undefined) {
       try {
-        got = siteSamples(plan, siteId, variantId) ?? 'this site or variant is not in the plan';
+        got =
+          siteSamples(plan, siteId, variantId, { terrain: dem ?? undefined }) ??
+          'this site or variant is not in the plan';
       } catch (e) {
         got = e instanceof Error ? e.message : String(e);
       }
@@ -465,7 +475,9 @@ export class SfSiteDetails extends StoreElement {
   }
 
   private plots(plan: Plan, site: SiteResult, shown: string, u: UnitPrefs) {
-    const got = this.samples(plan, site.id, shown);
+    // Landings re-flown over the ground the result was planned over (the model in use).
+    const dem = this.store?.result?.terrain ? (this.store.dem ?? null) : null;
+    const got = this.samples(plan, site.id, shown, dem);
     const unit = { label: u.length, perMetre: toDisplayLength(1, u.length) };
     const title = `${site.id} · ${shown}`;
     return html`<p class="pick">

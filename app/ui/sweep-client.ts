@@ -1,5 +1,6 @@
 // The one sweep worker behind <sf-wind-sources>' altitude sweep and forecast timeline.
 import type { ReactiveController } from 'lit';
+import type { Dem } from '../formats';
 import type { SweepReply, SweepRequest } from '../worker';
 import type { WindSourcesHost } from './wind-sources-host';
 import { errorText } from './safe-storage';
@@ -12,6 +13,8 @@ export class SweepClient implements ReactiveController {
   error = '';
   private worker?: Worker;
   private lastId = 0;
+  /** The elevation model the worker holds (it keeps the last one sent); undefined: none sent yet. */
+  private sentDem: Dem | null | undefined;
 
   constructor(private readonly host: WindSourcesHost) {
     host.addController(this);
@@ -20,6 +23,7 @@ export class SweepClient implements ReactiveController {
   hostDisconnected(): void {
     this.worker?.terminate();
     this.worker = undefined;
+    this.sentDem = undefined;
   }
 
   /** Sends one request to the sweep worker; only the latest request's answer is kept. */
@@ -28,6 +32,7 @@ export class SweepClient implements ReactiveController {
     const failed = (why: string): void => {
       this.worker?.terminate();
       this.worker = undefined;
+      this.sentDem = undefined;
       this.sweeping = false;
       this.error = `The computation could not run: ${why}. Try again, or reload the page.`;
       this.host.requestUpdate();
@@ -56,6 +61,10 @@ export class SweepClient implements ReactiveController {
       failed(ev.message || 'its worker could not start (its script did not load)');
     };
     this.worker.onmessageerror = () => failed('its answer could not be read');
-    this.worker.postMessage({ ...req, id });
+    // The grid (up to 64 MB) is copied to the worker once per model, not with every request.
+    const dem = this.host.store?.dem ?? null;
+    const terrain = dem === this.sentDem ? undefined : (dem?.grid ?? null);
+    this.sentDem = dem;
+    this.worker.postMessage({ ...req, id, terrain });
   }
 }

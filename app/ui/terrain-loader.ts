@@ -5,7 +5,8 @@
  */
 import { Dem, type LatLonBox } from '../formats';
 import { formatUTM } from '../model';
-import { terrainArea } from '../planner';
+import type { Plan } from '../plan';
+import { sweepHeightsAGL, terrainArea } from '../planner';
 import type { DemReply, DemRequest } from '../worker';
 import type { PlanStore } from './plan-store';
 import { errorText } from './safe-storage';
@@ -51,6 +52,33 @@ export function grownBox(b: LatLonBox): LatLonBox {
     west: Math.max(-180, b.west - w),
     east: Math.min(180, b.east + w),
   };
+}
+
+/** The smallest box holding a and b. */
+function union(a: LatLonBox, b: LatLonBox): LatLonBox {
+  return {
+    south: Math.min(a.south, b.south),
+    north: Math.max(a.north, b.north),
+    west: Math.min(a.west, b.west),
+    east: Math.max(a.east, b.east),
+  };
+}
+
+/**
+ * The areas to read, most first: the plan area grown (grownBox) with what the altitude sweep's
+ * highest release needs, then the plan area with the sweep's, then the plan area alone.
+ */
+export function areasToRead(plan: Plan, area: LatLonBox = terrainArea(plan)): LatLonBox[] {
+  let sweep = area;
+  try {
+    const r = plan.release;
+    const msl = r.altitude_m + (r.reference === 'AGL' ? plan.groundElevation_m : 0);
+    const top = Math.max(...sweepHeightsAGL(plan, msl));
+    sweep = terrainArea({ ...plan, release: { ...r, altitude_m: top, reference: 'AGL' } });
+  } catch {
+    // the sweep's area is a convenience; the plan's own is what must be read
+  }
+  return [union(grownBox(area), sweep), union(area, sweep), area];
 }
 
 /** True when box a lies inside box b. */
@@ -227,8 +255,7 @@ export class TerrainLoader {
         id,
         file: src.file,
         name: src.name,
-        box: grownBox(area),
-        fallback: area,
+        boxes: areasToRead(plan, area),
         utmEpsg: utmEpsg(plan.release),
       });
     } catch (e) {

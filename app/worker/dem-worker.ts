@@ -12,16 +12,18 @@ import {
   readGeoTiffDem,
 } from '../formats';
 
-/** Page → worker: read `file` about `box`, or about `fallback` when `box` cannot be read. */
+/** Page → worker: read `file` about the first of `boxes` it can hold. */
 export interface DemRequest {
   id: number;
   file: Blob;
   /** the file's name (messages name it; its ending picks the format) */
   name: string;
-  /** the area wanted (the plan area grown, so small edits need no new read) */
-  box: LatLonBox;
-  /** the area needed (the plan area itself), read when `box` passes the cell limit or the file's edge */
-  fallback: LatLonBox;
+  /**
+   * Areas to read, tried in order: the first the file covers within the cell limit is read
+   * (the plan area grown so small edits need no new read, …, the plan area itself last); when
+   * none is, the last one's message is the answer
+   */
+  boxes: LatLonBox[];
   /**
    * EPSG code of the plan's WGS 84 / UTM zone: an ASCII grid (which carries no CRS) whose
    * lower-left corner cannot be degrees is read in it, as the command line does
@@ -91,15 +93,20 @@ self.onmessage = async (ev: MessageEvent<DemRequest>) => {
     }
     let cached: Promise<string> | undefined;
     const text = () => (cached ??= req.file.text());
-    let box = req.box;
-    let r: DemRead;
-    try {
-      r = await read(req, box, text);
-    } catch {
-      // The grown area may pass the cell limit or the file's edge: the plan area itself may not.
-      box = req.fallback;
-      r = await read(req, box, text);
+    if (req.boxes.length === 0) throw new Error('no area to read');
+    let r: DemRead | undefined;
+    let box = req.boxes[0];
+    for (const [i, b] of req.boxes.entries()) {
+      box = b;
+      try {
+        r = await read(req, b, text);
+        break;
+      } catch (e) {
+        // A larger area may pass the cell limit or the file's edge: a smaller one may not.
+        if (i === req.boxes.length - 1) throw e;
+      }
     }
+    if (!r) throw new Error('nothing was read');
     const grid = r.dem.grid;
     scope.postMessage(
       {

@@ -6,7 +6,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import demo from '../../data/demo-plan.json';
 import { type PlanFile, resolvePlan } from '../../app/plan';
-import { terrainArea } from '../../app/planner';
+import { sweepHeightsAGL, terrainArea } from '../../app/planner';
 import { openApp, launch, shot } from './browser';
 
 let browser: Browser;
@@ -39,14 +39,23 @@ const A = 3000; // m per degree of longitude (≈ 4 % rising to the east at 47.5
 const B = 1500; // m per degree of latitude (≈ 1.4 % rising to the north)
 const plane = (lat: number, lon: number): number => Z0 + A * (lon - lon0) + B * (lat - lat0);
 
-/** The area the plan needs (the app reads it) with a margin, so the grid covers it but not twice it. */
+/**
+ * The area the plan needs with what the altitude sweep's highest release (twice the planned
+ * height) needs, and a margin: the grid covers that but not the plan area grown to twice its size,
+ * so the app reads the smaller of the areas it tries.
+ */
 const area = terrainArea(plan);
+const top = Math.max(...sweepHeightsAGL(plan, plan.release.altitude_m + plan.groundElevation_m));
+const sweep = terrainArea({
+  ...plan,
+  release: { ...plan.release, altitude_m: top, reference: 'AGL' },
+});
 const CELL = 0.0005; // degrees
-const MARGIN = 0.005;
-const west = area.west - MARGIN;
-const south = area.south - MARGIN;
-const NCOLS = Math.ceil((area.east + MARGIN - west) / CELL);
-const NROWS = Math.ceil((area.north + MARGIN - south) / CELL);
+const MARGIN = 0.003;
+const west = Math.min(area.west, sweep.west) - MARGIN;
+const south = Math.min(area.south, sweep.south) - MARGIN;
+const NCOLS = Math.ceil((Math.max(area.east, sweep.east) + MARGIN - west) / CELL);
+const NROWS = Math.ceil((Math.max(area.north, sweep.north) + MARGIN - south) / CELL);
 
 function planeAsc(): string {
   const lines = [
@@ -125,8 +134,8 @@ describe('an elevation model in the app (Chromium)', () => {
       .poll(() => section().locator('[data-testid=terrain-name]').count(), { timeout: 60_000 })
       .toBe(1);
     expect(await text('[data-testid=terrain-name]')).toBe('plane.asc');
-    // The grid is too small to hold twice the plan area, so the plan area itself is read: a
-    // window of the file, never more than the file.
+    // The grid is too small to hold twice the plan area, so a smaller area is read: a window of
+    // the file, never more than the file.
     const read = await text('[data-testid=terrain-read]');
     const m = /([\d,]+) × ([\d,]+) = [\d,]+ cells of ([\d,]+) × ([\d,]+)/.exec(read);
     expect(m, read).not.toBeNull();
@@ -146,6 +155,20 @@ describe('an elevation model in the app (Chromium)', () => {
     await shot(page, 'terrain-site-details');
     await details().locator('[data-testid=ground-profile]').scrollIntoViewIfNeeded();
     await shot(page, 'terrain-site-details-profile');
+
+    // The altitude sweep and the timeline run in their own worker over the same model.
+    await tab('winds');
+    await page.getByRole('button', { name: 'Compute' }).click();
+    await expect
+      .poll(
+        async () =>
+          (await page.locator('[data-testid=sweep] svg').count()) +
+          (await page.locator('sf-wind-sources .problems').count()),
+        { timeout: 120_000 },
+      )
+      .toBeGreaterThan(0);
+    await shot(page, 'terrain-sweep');
+    expect(await page.locator('sf-wind-sources .problems').allInnerTexts()).toEqual([]);
 
     // Reload: the model comes back from the browser's storage with the autosaved plan.
     await page.reload();
