@@ -707,6 +707,8 @@ export function firstCrossing(
       const hh = ground.height(xHi, yHi);
       if (hh === null) return crossDone(out, xHi, yHi, zHi, CROSS_NO_DATA);
       gHi = zHi - hh;
+      // Touching at the upper end (level ground at the highest height): that is the crossing.
+      if (gHi <= 0) return crossDone(out, xHi, yHi, zHi, CROSS_GROUND);
     }
     if (first) {
       walkHint[0] = step;

@@ -390,11 +390,7 @@ function comparable(vr: VariantResult) {
 }
 
 describe('a flat elevation model', () => {
-  // Skipped until the planner meets it (measured against b61bcce: moving-carrier release times
-  // shift by up to 6 ms, so s02 plain-drifter's release and landing move 7.9 cm and its CEP
-  // 5.4 cm; every CEP is 1–2 mm larger, one sample of 2,000 changes P(hit)). The 1 mm bound is
-  // the requirement: do not loosen it, fix the planner and remove the skip.
-  it.skip(
+  it(
     'gives the answers of level ground to the millimetre, for every site and variant',
     () => {
       const flat = planDrop(flatPlan);

@@ -591,6 +591,8 @@ describe('resolvePlan', () => {
       name: 's',
       elevation_m: 0,
       tolerance_m: 10,
+      // the file gave no elevation: an elevation model may set it (docs/model.md §18)
+      elevationDefaulted: true,
     });
     expect(p.uncertainty).toEqual({
       windSpeed_mps: 0,
@@ -630,11 +632,31 @@ describe('resolvePlan', () => {
     for (const file of [demo, minimal()]) {
       const first = validatePlan(file, { now: NOW });
       expect(first.ok).toBe(true);
-      const again = validatePlan(JSON.parse(JSON.stringify(first.ok && first.plan)));
-      expect(again.ok && again.plan).toEqual(first.ok && first.plan);
+      const again = validatePlan(asFile(first.ok && first.plan));
+      expect(again.ok && again.plan).toEqual(asTyped(first.ok && first.plan));
     }
   });
+  it('marks only the sites whose elevation the file left out', () => {
+    const file = minimal();
+    file.sites.push({ id: 't', lat: 47.5, lon: 21, elevation_m: 3 });
+    const r = validatePlan(file, { now: NOW });
+    expect(r.ok && r.plan.sites.map((s) => s.elevationDefaulted)).toEqual([true, undefined]);
+  });
 });
+
+/**
+ * A resolved plan written back as a file: JSON, without the resolver's marks of defaulted site
+ * elevations (not file fields). Resolving it again types every elevation.
+ */
+function asFile(plan: unknown): unknown {
+  const copy = JSON.parse(JSON.stringify(plan)) as { sites?: Record<string, unknown>[] };
+  for (const s of copy.sites ?? []) delete s.elevationDefaulted;
+  return copy;
+}
+/** The resolved plan as it resolves again from asFile: every elevation typed. */
+function asTyped(plan: unknown): unknown {
+  return asFile(plan);
+}
 
 /** Every leaf path of a JSON value, as key lists. */
 function leaves(x: unknown, at: (string | number)[] = []): (string | number)[][] {
@@ -754,8 +776,8 @@ describe('properties (fast-check)', () => {
       fc.property(validPlan, (file) => {
         const r = validatePlan(file);
         expect(r.ok ? [] : r.errors).toEqual([]);
-        const again = validatePlan(JSON.parse(JSON.stringify(r.ok && r.plan)));
-        expect(again.ok && again.plan).toEqual(r.ok && r.plan);
+        const again = validatePlan(asFile(r.ok && r.plan));
+        expect(again.ok && again.plan).toEqual(asTyped(r.ok && r.plan));
       }),
     );
   });
