@@ -215,22 +215,41 @@ export function hiddenText(h: HiddenBy, fmt: LayerFormat): string {
   return `Hidden: ground ${height(h.aboveSite_m)} above the site, ${fmt.length(h.fromSite_m)} before it`;
 }
 
-/** A site hidden by the ground: a mark where the descent aimed at it meets the ground first. */
+/**
+ * A site hidden by the ground: a dark square-ish dot where the descent aimed at it meets the
+ * ground first, joined to the site by a thin dotted line (so it is read as the site's, not as
+ * another site).
+ */
 function hiddenMark(site: SiteResult, v: VariantResult, h: HiddenBy, ctx: Ctx): L.Layer {
-  return L.circleMarker([h.lat, h.lon], {
-    radius: 5,
-    color: '#7c2d12',
-    weight: 2,
-    fillColor: '#fde7d4',
-    fillOpacity: 1,
-    className: 'sf-hidden',
-    renderer: ctx.renderer,
-  }).bindTooltip(
-    lazyTip(
-      hiddenText(h, ctx.fmt),
-      `${site.id} · ${v.variant}: the descent aimed at the site meets this ground first`,
-    ),
+  const tip = lazyTip(
+    hiddenText(h, ctx.fmt),
+    `${site.id} · ${v.variant}: the descent aimed at the site meets this ground first`,
   );
+  return L.layerGroup([
+    L.polyline(
+      [
+        [h.lat, h.lon],
+        [site.lat, site.lon],
+      ],
+      {
+        color: '#3b2a20',
+        weight: 1,
+        dashArray: '2 3',
+        interactive: false,
+        className: 'sf-hidden-line',
+        renderer: ctx.renderer,
+      },
+    ),
+    L.circleMarker([h.lat, h.lon], {
+      radius: 4,
+      color: '#fff',
+      weight: 1.5,
+      fillColor: '#3b2a20',
+      fillOpacity: 1,
+      className: 'sf-hidden',
+      renderer: ctx.renderer,
+    }).bindTooltip(tip),
+  ]);
 }
 
 // Drawn in this order, one kind at a time, so that across all sites the wide, faint shapes lie

@@ -13,15 +13,22 @@ let context: BrowserContext | undefined;
 let dir = '';
 
 // An invented landscape around the demo plan (release 47.493 N, 21.079 E, ground 89 m): a hill
-// of 45 m some 450 m south-east of the sites and a gentle ripple, in WGS 84 degrees.
+// of 45 m some 450 m south-east of the sites, a gentle ripple, and a narrow ridge 50 m high
+// across the wind 40 m upwind of site s10 (47.492964 N, 21.084646 E), in WGS 84 degrees.
 const GRID = { west: 21.035, south: 47.46, cell: 0.0002, cols: 450, rows: 330 };
+const UPWIND = (290 * Math.PI) / 180;
 const height = (lat: number, lon: number): number => {
   const dy = (lat - 47.4895) * 111_200;
   const dx = (lon - 21.0845) * 75_200;
+  const sx = (lon - 21.084646) * 75_200;
+  const sy = (lat - 47.492964) * 111_200;
+  const along = sx * Math.sin(UPWIND) + sy * Math.cos(UPWIND);
+  const across = -sx * Math.cos(UPWIND) + sy * Math.sin(UPWIND);
   return (
     89 +
     45 * Math.exp(-(dx * dx + dy * dy) / (2 * 250 * 250)) +
-    3 * Math.sin(dx / 160) * Math.cos(dy / 210)
+    3 * Math.sin(dx / 160) * Math.cos(dy / 210) +
+    50 * Math.exp(-((along - 40) ** 2) / (2 * 12 * 12) - (across * across) / (2 * 120 * 120))
   );
 };
 
@@ -126,6 +133,29 @@ describe('terrain on the map', () => {
       })
       .toBeGreaterThan(0);
     await shot(page, 'terrain-map-reach');
+
+    // The ridge hides s10 from the descent of a steered variant aimed at it: with every variant
+    // shown, a mark stands where that descent meets the ridge, its tooltip saying how.
+    await page.locator('sf-map input[data-kind=chosen-only]').uncheck();
+    const hidden = page.locator('sf-map path.sf-hidden');
+    await expect.poll(() => hidden.count(), { timeout: 60_000, interval: 1000 }).toBeGreaterThan(0);
+    const tip = page.locator('sf-map .leaflet-tooltip');
+    const tips: string[] = [];
+    for (const box of await hidden.evaluateAll((els) =>
+      els.map((e) => {
+        const b = e.getBoundingClientRect();
+        return { x: b.x + b.width / 2, y: b.y + b.height / 2 };
+      }),
+    )) {
+      await page.mouse.move(box.x, box.y);
+      await tip.first().waitFor({ timeout: 10_000 });
+      tips.push(...(await tip.allTextContents()));
+      await page.mouse.move(5, 5);
+    }
+    expect(tips).toContainEqual(
+      expect.stringMatching(/^Hidden: ground \d+ m above the site, [\d.]+ m before its10 · /),
+    );
+    await shot(page, 'terrain-map-hidden');
 
     expect(errors).toEqual([]);
   }, 400_000);
