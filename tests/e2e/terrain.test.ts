@@ -7,7 +7,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vi
 import demo from '../../data/demo-plan.json';
 import { type PlanFile, resolvePlan } from '../../app/plan';
 import { sweepHeightsAGL, terrainArea } from '../../app/planner';
-import { openApp, launch, shot } from './browser';
+import { launch, openApp, shot, watchErrors } from './browser';
 
 let browser: Browser;
 let context: BrowserContext;
@@ -293,6 +293,37 @@ describe('a 4000 × 4000 GeoTIFF in the app (Chromium)', () => {
       .toContain('covers the plan area');
     expect(await section().locator('[data-testid=terrain-error]').count()).toBe(0);
     expect((await counts()).reads).toBe(before.reads + 1);
+    expect(errors).toEqual([]);
+  });
+});
+
+describe('an elevation model when the browser will not keep it (Chromium)', () => {
+  it('is used for this visit and says it could not be kept', async () => {
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    // A browser whose storage is full: every IndexedDB open fails as a quota error would.
+    await context.addInitScript(() => {
+      IDBFactory.prototype.open = () => {
+        throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+      };
+    });
+    page = await context.newPage();
+    errors = watchErrors(page);
+    await page.goto(inject('baseUrl'));
+    await page.locator('[data-testid=planned]').waitFor({ timeout: 60_000 });
+    await tab('plan');
+    await fileInput().setInputFiles(write('plane.asc', planeAsc()));
+    await expect
+      .poll(() => section().locator('[data-testid=terrain-error]').count(), { timeout: 60_000 })
+      .toBe(1);
+    expect(await text('[data-testid=terrain-error]')).toBe(
+      'plane.asc is in use but could not be kept for the next visit or offline use: browser storage is full',
+    );
+    expect(await text('[data-testid=terrain-name]')).toBe('plane.asc');
+    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toContain(
+      'could not be kept',
+    );
+    await section().locator('[data-testid=terrain-error]').scrollIntoViewIfNeeded();
+    await shot(page, 'terrain-not-kept');
     expect(errors).toEqual([]);
   });
 });
