@@ -141,8 +141,20 @@ export class SfTerrainSection extends StoreElement {
         s.dem
           ? this.renderModel()
           : html`<p class="hint" data-testid="terrain-none">
-              No elevation model: every descent ends on flat ground at its site's typed elevation.
-            </p>`
+                No elevation model in use: every descent ends on flat ground at its site's typed
+                elevation.
+              </p>
+              ${
+                s.terrain.fileName
+                  ? html`<p>
+                      Kept in this browser:
+                      <span data-testid="terrain-kept">${s.terrain.fileName}</span>
+                      <button data-testid="terrain-remove" @click=${() => void s.terrain.remove()}>
+                        Remove it
+                      </button>
+                    </p>`
+                  : nothing
+              }`
       }
       <p class="hint">
         Only the part of the file around the plan area is read. An .asc grid is read in WGS 84

@@ -327,3 +327,70 @@ describe('an elevation model when the browser will not keep it (Chromium)', () =
     expect(errors).toEqual([]);
   });
 });
+
+describe('a kept elevation model that no longer reads (Chromium)', () => {
+  it('is reported and kept until removed', async () => {
+    ({ context, page, errors } = await openApp(browser, inject('baseUrl')));
+    // What the app keeps (app/ui/terrain-store.ts), written as a damaged file would be found.
+    const put = (record: unknown) =>
+      page.evaluate(
+        (r) =>
+          new Promise<void>((resolve, reject) => {
+            const req = indexedDB.open('seedfall-terrain', 1);
+            req.onupgradeneeded = () => req.result.createObjectStore('files');
+            req.onerror = () => reject(req.error);
+            req.onsuccess = () => {
+              const db = req.result;
+              const tx = db.transaction('files', 'readwrite');
+              if (r) {
+                const { name, text } = r as { name: string; text: string };
+                tx.objectStore('files').put(
+                  { name, file: new Blob([text]), savedAt: '' },
+                  'current',
+                );
+              }
+              tx.oncomplete = () => {
+                db.close();
+                resolve();
+              };
+              tx.onerror = () => reject(tx.error);
+            };
+          }),
+        record,
+      );
+    const kept = () =>
+      page.evaluate(
+        () =>
+          new Promise<unknown>((resolve, reject) => {
+            const req = indexedDB.open('seedfall-terrain', 1);
+            req.onerror = () => reject(req.error);
+            req.onsuccess = () => {
+              const db = req.result;
+              const get = db.transaction('files').objectStore('files').get('current');
+              get.onsuccess = () => {
+                db.close();
+                resolve((get.result as { name?: string } | undefined)?.name ?? null);
+              };
+            };
+          }),
+      );
+    await put({ name: 'gone.asc', text: 'ncols 3\nnrows 3\ncellsize 0.1\n' });
+    await page.reload();
+    await page.locator('[data-testid=planned]').waitFor({ timeout: 60_000 });
+    await tab('plan');
+    await expect
+      .poll(() => section().locator('[data-testid=terrain-error]').count(), { timeout: 60_000 })
+      .toBe(1);
+    expect(await text('[data-testid=terrain-error]')).toMatch(
+      /^gone\.asc: .*\(the model kept in this browser stays kept; Remove deletes it\)$/,
+    );
+    expect(await text('[data-testid=terrain-kept]')).toBe('gone.asc');
+    expect(await kept()).toBe('gone.asc');
+    await section().locator('[data-testid=terrain-error]').scrollIntoViewIfNeeded();
+    await shot(page, 'terrain-kept-unreadable');
+    await section().locator('[data-testid=terrain-remove]').click();
+    await expect.poll(() => kept(), { timeout: 30_000 }).toBeNull();
+    expect(await section().locator('[data-testid=terrain-kept]').count()).toBe(0);
+    expect(errors).toEqual([]);
+  });
+});
