@@ -79,7 +79,9 @@ export class SfTerrainSection extends StoreElement {
       try {
         covers = boxInside(terrainArea(s.plan), info.box)
           ? 'covers the plan area'
-          : 'read for an earlier plan area; being read again';
+          : s.terrainStatus.state === 'loading'
+            ? 'read for an earlier plan area; being read again'
+            : 'read for an earlier plan area, not the current one';
       } catch {
         covers = '';
       }

@@ -209,6 +209,22 @@ describe('an elevation model in the app (Chromium)', () => {
     await shot(page, 'terrain-wrong-asc');
     // The results stay those planned over the model.
     await expectTerrainInDetails(site.id, site.model_m);
+
+    // A release moved off the model: the planner's message names the file, the results stay.
+    await tab('plan');
+    const lat = page.locator('sf-plan-panel input[data-path="release.lat"]');
+    await lat.fill(String(lat0 + 0.2));
+    await lat.press('Enter');
+    await expect
+      .poll(() => page.locator('footer .notice-error').allInnerTexts(), { timeout: 120_000 })
+      .toContainEqual(expect.stringMatching(/^Planning failed: plane\.asc: the elevation model/));
+    // The file is read again for the new area, and says it does not reach that far.
+    await expect
+      .poll(() => text('[data-testid=terrain-error]').catch(() => ''), { timeout: 60_000 })
+      .toMatch(/^plane\.asc: the elevation model covers only part of the plan area/);
+    expect(await text('[data-testid=terrain-name]')).toBe('plane.asc');
+    await shot(page, 'terrain-off-model');
+    await expectTerrainInDetails(site.id, site.model_m);
     expect(errors).toEqual([]);
   });
 });
