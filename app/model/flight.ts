@@ -2,7 +2,13 @@ import { G0 } from './constants';
 import type { FallTable } from './fall-table';
 import type { Guidance, Uncertainty } from './types';
 import type { Rng } from './rng';
-import { CROSS_GROUND, firstCrossing, type PathAt, type TerrainGround } from './terrain';
+import {
+  CROSS_GROUND,
+  fastCrossing,
+  firstCrossing,
+  type PathAt,
+  type TerrainGround,
+} from './terrain';
 import type { FallTurbulence } from './turbulence';
 
 const DEG = Math.PI / 180;
@@ -105,7 +111,21 @@ export class AltitudePath {
       const k = this.n1;
       fill(below, k, this.n2, this.h2, [this.t[k], this.e[k], this.n[k]]);
     }
+    // Steepest drift and time per metre of altitude between grid nodes (linear between them).
+    let d = 0;
+    let t = 0;
+    for (let i = 1; i < m; i++) {
+      const dz = i <= this.n1 ? this.h1 : this.h2;
+      d = Math.max(d, Math.hypot(this.e[i] - this.e[i - 1], this.n[i] - this.n[i - 1]) / dz);
+      t = Math.max(t, (this.t[i] - this.t[i - 1]) / dz);
+    }
+    this.driftRate = d;
+    this.timeRate = t;
   }
+
+  /** Largest nominal drift (m) and time (s) per metre of altitude along the grid. */
+  readonly driftRate: number;
+  readonly timeRate: number;
 
   /** Fractional grid index of altitude z (clamped to the grid). */
   index(z: number): number {
@@ -383,6 +403,8 @@ export function flySamples(
   zb[0] = tab.top_m;
   for (let b = 0; b < k; b++) zb[b + 1] = zb[b] - bandDz[b];
   zb[k] = tab.bottom_m;
+  const invDz2 = new Float64Array(k);
+  for (let b = 0; b < k; b++) invDz2[b] = 1 / (bandDz[b] * bandDz[b]);
   const homingPath: PathAt = (z, out) => {
     if (z <= zb[k]) {
       const p = path as AltitudePath;
@@ -488,15 +510,40 @@ export function flySamples(
       ss[4] = invF;
     }
     if (ter) {
-      const kind = firstCrossing(
+      const p = path as AltitudePath;
+      const at = homing ? homingPath : openPath;
+      // Sideways metres per metre of altitude this descent can move (fastCrossing's V).
+      let v: number;
+      if (homing) {
+        let v2 = 0;
+        for (let b = 0; b < k; b++) {
+          const ex = hx[b + 1] - hx[b];
+          const ey = hy[b + 1] - hy[b];
+          const q = (ex * ex + ey * ey) * invDz2[b];
+          if (q > v2) v2 = q;
+        }
+        const e = Math.sqrt(ss[8] * ss[8] + ss[9] * ss[9]);
+        v = Math.max(Math.sqrt(v2), (p.driftRate + e * p.timeRate) * ss[4]);
+      } else {
+        const a = Math.sqrt(ss[2] * ss[2] + ss[3] * ss[3]);
+        v = (p.driftRate + (a * p.timeRate) / tRef) * ss[4];
+        if (ss[5] > 0) v += cot;
+      }
+      let kind = fastCrossing(
         ter.ground,
-        homing ? homingPath : openPath,
+        at,
+        tab.bottom_m,
+        px,
+        py,
         tab.top_m,
         ter.bottom_m,
+        v,
         cross,
-        5,
         SAMPLE_TOL_M,
       );
+      if (kind < 0) {
+        kind = firstCrossing(ter.ground, at, tab.top_m, ter.bottom_m, cross, 5, SAMPLE_TOL_M);
+      }
       if (kind === CROSS_GROUND) {
         px = cross[0];
         py = cross[1];

@@ -87,6 +87,7 @@ export {
   type CrossingOptions,
   type DescentPath,
   type ElevationModel,
+  fastCrossing,
   firstCrossing,
   flatGround,
   glideRays,

@@ -277,6 +277,11 @@ export interface TerrainGround extends Ground {
   readonly cell_m: number;
   /** An upper bound of every height inside the box; +Infinity when the box touches unknown ground. */
   maxIn(box: LocalBox): number;
+  /**
+   * An upper bound of the ground's slope (|∇h|, metres per metre) inside the box; +Infinity when
+   * the box touches unknown ground. Optional: without it every descent is walked.
+   */
+  maxSlopeIn?(box: LocalBox): number;
 }
 
 /** An elevation model the planner can fly over (app/formats Dem implements it). */
@@ -313,8 +318,18 @@ export class GridGround implements TerrainGround {
   readonly minHeight_m: number;
   /** pyramid levels 1, 2, …: maxima over 2^ℓ × 2^ℓ patches; sizes in lvCols/lvRows */
   private readonly levels: Float32Array[] = [];
+  /** the same pyramid of the largest height step between neighbouring cell centres */
+  private readonly slopes: Float32Array[] = [];
   private readonly lvCols: number[] = [];
   private readonly lvRows: number[] = [];
+  // The last box's index range (set by spanOf): level, patch columns i0…i1, rows j0…j1.
+  private qL = 0;
+  private qI0 = 0;
+  private qI1 = 0;
+  private qJ0 = 0;
+  private qJ1 = 0;
+  /** |∇col| + |∇row| at the last box's centre, cells per metre */
+  private qJac = 0;
 
   constructor(
     private readonly values: Float32Array,
@@ -345,41 +360,69 @@ export class GridGround implements TerrainGround {
     let w = Math.ceil(pc / 2);
     let h = Math.ceil(pr / 2);
     let lv = new Float32Array(w * h);
+    let sl = new Float32Array(w * h);
+    const at = (r: number, c: number): number => {
+      const v = values[r * cols + c];
+      return v !== v || v === nd ? NaN : v;
+    };
     for (let j = 0; j < h; j++) {
       for (let i = 0; i < w; i++) {
         let m = -Infinity;
-        for (let r = 2 * j; r <= Math.min(2 * j + 2, rows - 1); r++) {
-          for (let c = 2 * i; c <= Math.min(2 * i + 2, cols - 1); c++) {
-            const v = values[r * cols + c];
-            const u = v !== v || v === nd ? Infinity : v;
+        let d = 0;
+        const r1 = Math.min(2 * j + 2, rows - 1);
+        const c1 = Math.min(2 * i + 2, cols - 1);
+        for (let r = 2 * j; r <= r1; r++) {
+          for (let c = 2 * i; c <= c1; c++) {
+            const u = at(r, c);
+            if (u !== u) {
+              m = Infinity;
+              d = Infinity;
+              continue;
+            }
             if (u > m) m = u;
+            if (c < c1) d = Math.max(d, Math.abs(at(r, c + 1) - u));
+            if (r < r1) d = Math.max(d, Math.abs(at(r + 1, c) - u));
           }
         }
         lv[j * w + i] = m;
+        sl[j * w + i] = d !== d ? Infinity : d;
       }
     }
     this.levels.push(lv);
+    this.slopes.push(sl);
     this.lvCols.push(w);
     this.lvRows.push(h);
     while (w > 1 || h > 1) {
       const w2 = Math.ceil(w / 2);
       const h2 = Math.ceil(h / 2);
       const up = new Float32Array(w2 * h2);
+      const upS = new Float32Array(w2 * h2);
       for (let j = 0; j < h2; j++) {
         for (let i = 0; i < w2; i++) {
           let m = lv[2 * j * w + 2 * i];
-          if (2 * i + 1 < w) m = Math.max(m, lv[2 * j * w + 2 * i + 1]);
+          let d = sl[2 * j * w + 2 * i];
+          if (2 * i + 1 < w) {
+            m = Math.max(m, lv[2 * j * w + 2 * i + 1]);
+            d = Math.max(d, sl[2 * j * w + 2 * i + 1]);
+          }
           if (2 * j + 1 < h) {
             m = Math.max(m, lv[(2 * j + 1) * w + 2 * i]);
-            if (2 * i + 1 < w) m = Math.max(m, lv[(2 * j + 1) * w + 2 * i + 1]);
+            d = Math.max(d, sl[(2 * j + 1) * w + 2 * i]);
+            if (2 * i + 1 < w) {
+              m = Math.max(m, lv[(2 * j + 1) * w + 2 * i + 1]);
+              d = Math.max(d, sl[(2 * j + 1) * w + 2 * i + 1]);
+            }
           }
           up[j * w2 + i] = m;
+          upS[j * w2 + i] = d;
         }
       }
       this.levels.push(up);
+      this.slopes.push(upS);
       this.lvCols.push(w2);
       this.lvRows.push(h2);
       lv = up;
+      sl = upS;
       w = w2;
       h = h2;
     }
@@ -432,7 +475,11 @@ export class GridGround implements TerrainGround {
     return s;
   }
 
-  maxIn(box: LocalBox): number {
+  /**
+   * Sets the pyramid level and patch range that cover a box (and the Jacobian norm at its
+   * centre); false when the box is not inside the grid's cell centres.
+   */
+  private spanOf(box: LocalBox): boolean {
     // Index range of the box: the map at the box's centre ± its Jacobian times the half-sizes,
     // plus the quadratic terms' largest contribution over the box.
     const a = this.map.col;
@@ -444,20 +491,20 @@ export class GridGround implements TerrainGround {
     const c0 = a[0] + a[1] * x + a[2] * y + a[3] * x * x + a[4] * x * y + a[5] * y * y;
     const r0 = b[0] + b[1] * x + b[2] * y + b[3] * x * x + b[4] * x * y + b[5] * y * y;
     const q = hx * hx + hx * hy + hy * hy;
-    const dc =
-      Math.abs(a[1] + 2 * a[3] * x + a[4] * y) * hx +
-      Math.abs(a[2] + a[4] * x + 2 * a[5] * y) * hy +
-      Math.max(Math.abs(a[3]), Math.abs(a[4]), Math.abs(a[5])) * q;
-    const dr =
-      Math.abs(b[1] + 2 * b[3] * x + b[4] * y) * hx +
-      Math.abs(b[2] + b[4] * x + 2 * b[5] * y) * hy +
-      Math.max(Math.abs(b[3]), Math.abs(b[4]), Math.abs(b[5])) * q;
+    const cx = a[1] + 2 * a[3] * x + a[4] * y;
+    const cy = a[2] + a[4] * x + 2 * a[5] * y;
+    const rx = b[1] + 2 * b[3] * x + b[4] * y;
+    const ry = b[2] + b[4] * x + 2 * b[5] * y;
+    const qc = Math.max(Math.abs(a[3]), Math.abs(a[4]), Math.abs(a[5]));
+    const qr = Math.max(Math.abs(b[3]), Math.abs(b[4]), Math.abs(b[5]));
+    const dc = Math.abs(cx) * hx + Math.abs(cy) * hy + qc * q;
+    const dr = Math.abs(rx) * hx + Math.abs(ry) * hy + qr * q;
     const cMin = c0 - dc;
     const cMax = c0 + dc;
     const rMin = r0 - dr;
     const rMax = r0 + dr;
     if (!(cMin >= 0 && rMin >= 0 && cMax <= this.cols - 1 && rMax <= this.rows - 1)) {
-      return Infinity;
+      return false;
     }
     // Patches touched (patch p spans centres p … p+1).
     const i0 = Math.min(Math.floor(cMin), this.cols - 2);
@@ -471,17 +518,44 @@ export class GridGround implements TerrainGround {
       ((i1 >> (l + 1)) - (i0 >> (l + 1)) > 2 || (j1 >> (l + 1)) - (j0 >> (l + 1)) > 2)
     )
       l++;
-    const lv = this.levels[l];
+    this.qL = l;
+    this.qI0 = i0;
+    this.qI1 = i1;
+    this.qJ0 = j0;
+    this.qJ1 = j1;
+    // Curvature over the box adds at most 2·q_max·(hx + hy) to each gradient.
+    this.qJac =
+      Math.sqrt(cx * cx + cy * cy) + Math.sqrt(rx * rx + ry * ry) + 2 * (qc + qr) * (hx + hy);
+    return true;
+  }
+
+  /** Largest entry of a pyramid over the last spanOf range. */
+  private spanMax(pyr: Float32Array[]): number {
+    const l = this.qL;
+    const lv = pyr[l];
     const w = this.lvCols[l];
     const sh = l + 1;
     let m = -Infinity;
-    for (let j = j0 >> sh; j <= j1 >> sh; j++) {
-      for (let i = i0 >> sh; i <= i1 >> sh; i++) {
+    for (let j = this.qJ0 >> sh; j <= this.qJ1 >> sh; j++) {
+      for (let i = this.qI0 >> sh; i <= this.qI1 >> sh; i++) {
         const v = lv[j * w + i];
         if (v > m) m = v;
       }
     }
     return m;
+  }
+
+  maxIn(box: LocalBox): number {
+    return this.spanOf(box) ? this.spanMax(this.levels) : Infinity;
+  }
+
+  /**
+   * Slope bound: the largest step between neighbouring centres (m per cell) times
+   * |∇col| + |∇row| (cells per metre). A bilinear patch's gradient is a mix of its edge
+   * differences, so |∇h| ≤ max|Δ| · (|∇col| + |∇row|).
+   */
+  maxSlopeIn(box: LocalBox): number {
+    return this.spanOf(box) ? this.spanMax(this.slopes) * this.qJac : Infinity;
   }
 
   /**
@@ -674,7 +748,9 @@ export function firstCrossing(
     const xLo = out[0];
     const yLo = out[1];
     if (!Number.isFinite(xLo + yLo)) return crossDone(out, xLo, yLo, zLo, CROSS_NO_DATA);
-    const moved = Math.hypot(xLo - xHi, yLo - yHi);
+    const mx = xLo - xHi;
+    const my = yLo - yHi;
+    const moved = Math.sqrt(mx * mx + my * my);
     // The path between the ends may bow out of their box: a quarter of the move plus a cell.
     const pad = moved / 4 + cell;
     box.xMin = Math.min(xHi, xLo) - pad;
@@ -773,4 +849,70 @@ function refineCrossing(
   out[2] = zLo;
   out[3] = CROSS_GROUND;
   return CROSS_GROUND;
+}
+
+const FAST_BOX: LocalBox = { xMin: 0, yMin: 0, xMax: 0, yMax: 0 };
+
+/**
+ * The first crossing of a descent found from a known point of it, for the Monte Carlo loop:
+ * secant iterations on G(z) = z − h(p(z)) from (z0, p(z0)) to |G| ≤ tol, then a certificate
+ * that no crossing lies above: the path stays within V·(z − z*) of p(z*) (V bounds its sideways
+ * metres per metre of altitude), so over the box that reach spans up to the highest ground,
+ * G′(z) = 1 − ∇h · p′(z) ≥ 1 − S·V with S the ground's slope bound there; S·V < 1 makes G grow
+ * strictly above z*, so z* is the first crossing (docs/model.md §18). Writes x, y, z, kind into
+ * out like firstCrossing and returns CROSS_GROUND, or −1 when it cannot certify (the caller then
+ * walks with firstCrossing).
+ */
+export function fastCrossing(
+  ground: TerrainGround,
+  at: PathAt,
+  z0: number,
+  x0: number,
+  y0: number,
+  top_m: number,
+  bottom_m: number,
+  pathSlope: number,
+  out: Float64Array,
+  tol_m: number,
+): number {
+  if (!ground.maxSlopeIn) return -1;
+  const h0 = ground.height(x0, y0);
+  if (h0 === null) return -1;
+  let za = z0;
+  let ga = z0 - h0;
+  let z = z0;
+  let x = x0;
+  let y = y0;
+  if (Math.abs(ga) > tol_m) {
+    let zb = Math.min(top_m, Math.max(bottom_m, z0 - ga));
+    at(zb, out);
+    let hb = ground.height(out[0], out[1]);
+    if (hb === null) return -1;
+    let gb = zb - hb;
+    for (let k = 0; k < 8 && Math.abs(gb) > tol_m; k++) {
+      if (gb === ga) return -1;
+      const zn = Math.min(top_m, Math.max(bottom_m, zb - (gb * (zb - za)) / (gb - ga)));
+      za = zb;
+      ga = gb;
+      zb = zn;
+      at(zb, out);
+      hb = ground.height(out[0], out[1]);
+      if (hb === null) return -1;
+      gb = zb - hb;
+    }
+    if (!(Math.abs(gb) <= tol_m)) return -1;
+    z = zb;
+    x = out[0];
+    y = out[1];
+  }
+  const zTop = Math.min(top_m, ground.maxHeight_m);
+  if (z < zTop) {
+    const r = pathSlope * (zTop - z) + ground.cell_m;
+    FAST_BOX.xMin = x - r;
+    FAST_BOX.xMax = x + r;
+    FAST_BOX.yMin = y - r;
+    FAST_BOX.yMax = y + r;
+    if (!(ground.maxSlopeIn(FAST_BOX) * pathSlope < 0.999)) return -1;
+  }
+  return crossDone(out, x, y, z, CROSS_GROUND);
 }

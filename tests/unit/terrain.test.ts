@@ -11,6 +11,11 @@ import {
   hiddenGround,
   linePath,
   reachPolygon,
+  CROSS_GROUND,
+  fastCrossing,
+  firstCrossing,
+  type PathAt,
+  sampledGround,
 } from '../../app/model';
 import { expectClose } from './helpers';
 
@@ -189,5 +194,76 @@ describe('hiddenGround', () => {
     const v = hiddenGround(ridge(150), path, site); // the path passes x = 800 at 200 m
     expect(v.hidden).toBe(false);
     expectClose(v.crossing.x, 1000, 2e-3, 'landing x');
+  });
+});
+
+describe('fastCrossing (the Monte Carlo shortcut) against the walk', () => {
+  const box = { xMin: -1600, yMin: -1600, xMax: 1600, yMax: 1600 };
+  // A straight descent from (x0, y0, top) moving (vx, vy) metres per metre of altitude lost.
+  const line = (x0: number, y0: number, top: number, vx: number, vy: number): PathAt => {
+    return (z, out) => {
+      out[0] = x0 + vx * (top - z);
+      out[1] = y0 + vy * (top - z);
+    };
+  };
+
+  it('finds the walk’s first crossing whenever it certifies one (random hills and descents)', () => {
+    // Property: whatever fastCrossing returns as ground is the crossing firstCrossing finds
+    // (the walk is the reference; direct definition of the first zero of z − h(p(z))).
+    let certified = 0;
+    let refused = 0;
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0, max: 60, noNaN: true }),
+        fc.double({ min: 50, max: 600, noNaN: true }),
+        fc.double({ min: -3, max: 3, noNaN: true }),
+        fc.double({ min: -3, max: 3, noNaN: true }),
+        fc.double({ min: 90, max: 300, noNaN: true }),
+        (amp, wave, vx, vy, top) => {
+          const g = sampledGround(
+            (x, y) => 50 + amp * Math.sin(x / wave) * Math.cos(y / (1.3 * wave)),
+            box,
+            10,
+          );
+          const at = line(-100, 50, top, vx, vy);
+          const walk = new Float64Array(4);
+          firstCrossing(g, at, top, -100, walk, 5, 1e-4);
+          // Start the shortcut where the level-ground answer would be: altitude 50.
+          const p = new Float64Array(2);
+          at(50, p);
+          const fast = new Float64Array(4);
+          const v = Math.hypot(vx, vy);
+          const kind = fastCrossing(g, at, 50, p[0], p[1], top, -100, v, fast, 1e-4);
+          if (kind === CROSS_GROUND) {
+            certified++;
+            expect(walk[3]).toBe(CROSS_GROUND);
+            expect(Math.abs(fast[2] - walk[2])).toBeLessThan(0.01);
+            expect(Math.hypot(fast[0] - walk[0], fast[1] - walk[1])).toBeLessThan(0.05);
+          } else {
+            refused++;
+            expect(kind).toBe(-1);
+          }
+        },
+      ),
+      { numRuns: 100 },
+    );
+    // Both branches were tried: gentle hills certify, steep ones fall back to the walk.
+    expect(certified).toBeGreaterThan(10);
+    expect(refused).toBeGreaterThan(0);
+  }, 120_000);
+
+  it('refuses to certify behind a ridge, where the secant finds the far side', () => {
+    // A 40 m ridge 100 m wide across the descent (150 < x < 250); level ground at 0 elsewhere.
+    // A descent from x = 0 at 100 m moving 3 m per m, x = 3(100 − z), is at 40 m over x = 180,
+    // on the ridge's top, before it reaches level ground at x = 300 (direct algebra).
+    const g = sampledGround((x) => (Math.abs(x - 200) < 50 ? 40 : 0), box, 5);
+    const at = line(0, 0, 100, 3, 0);
+    const fast = new Float64Array(4);
+    const kind = fastCrossing(g, at, 0, 300, 0, 100, -50, 3, fast, 1e-3);
+    expect(kind).toBe(-1);
+    const walk = new Float64Array(4);
+    expect(firstCrossing(g, at, 100, -50, walk)).toBe(CROSS_GROUND);
+    expectClose(walk[0], 180, 0.01, 'meets the ridge top at x = 180');
+    expectClose(walk[2], 40, 0.001, 'at the ridge height');
   });
 });
