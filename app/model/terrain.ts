@@ -282,6 +282,8 @@ export interface TerrainGround extends Ground {
    * the box touches unknown ground. Optional: without it every descent is walked.
    */
   maxSlopeIn?(box: LocalBox): number;
+  /** Height and its gradient (m per m, into grad[0..1]); optional, speeds the shortcut up. */
+  heightGrad?(x_m: number, y_m: number, grad: Float64Array): number | null;
 }
 
 /** An elevation model the planner can fly over (app/formats Dem implements it). */
@@ -473,6 +475,40 @@ export class GridGround implements TerrainGround {
       s += fx * fy * v11;
     }
     return s;
+  }
+
+  /**
+   * Height (as `height`) and its gradient ∂h/∂x, ∂h/∂y (m per m, written to grad[0..1]) of the
+   * bilinear patch at a point; null where `height` is null.
+   */
+  heightGrad(x_m: number, y_m: number, grad: Float64Array): number | null {
+    const h = this.height(x_m, y_m);
+    if (h === null) return null;
+    const a = this.map.col;
+    const b = this.map.row;
+    const c = this.colOf(x_m, y_m);
+    const r = this.rowOf(x_m, y_m);
+    const cols = this.cols;
+    const i = Math.min(Math.floor(c), cols - 2);
+    const j = Math.min(Math.floor(r), this.rows - 2);
+    const fx = c - i;
+    const fy = r - j;
+    const v = this.values;
+    const k = j * cols + i;
+    const v00 = v[k];
+    const v10 = v[k + 1];
+    const v01 = v[k + cols];
+    const v11 = v[k + cols + 1];
+    // Corners with zero weight may be unknown (NaN): their differences then count as level.
+    let hc = 0;
+    let hr = 0;
+    if (v10 === v10 && v00 === v00) hc += (1 - fy) * (v10 - v00);
+    if (v11 === v11 && v01 === v01) hc += fy * (v11 - v01);
+    if (v01 === v01 && v00 === v00) hr += (1 - fx) * (v01 - v00);
+    if (v11 === v11 && v10 === v10) hr += fx * (v11 - v10);
+    grad[0] = hc * (a[1] + 2 * a[3] * x_m + a[4] * y_m) + hr * (b[1] + 2 * b[3] * x_m + b[4] * y_m);
+    grad[1] = hc * (a[2] + a[4] * x_m + 2 * a[5] * y_m) + hr * (b[2] + b[4] * x_m + 2 * b[5] * y_m);
+    return h;
   }
 
   /**
@@ -852,6 +888,7 @@ function refineCrossing(
 }
 
 const FAST_BOX: LocalBox = { xMin: 0, yMin: 0, xMax: 0, yMax: 0 };
+const FAST_GRAD = new Float64Array(2);
 
 /**
  * The first crossing of a descent found from a known point of it, for the Monte Carlo loop:
@@ -876,7 +913,10 @@ export function fastCrossing(
   tol_m: number,
 ): number {
   if (!ground.maxSlopeIn) return -1;
-  const h0 = ground.height(x0, y0);
+  const grad = FAST_GRAD;
+  grad[0] = 0;
+  grad[1] = 0;
+  const h0 = ground.heightGrad ? ground.heightGrad(x0, y0, grad) : ground.height(x0, y0);
   if (h0 === null) return -1;
   let za = z0;
   let ga = z0 - h0;
@@ -884,7 +924,14 @@ export function fastCrossing(
   let x = x0;
   let y = y0;
   if (Math.abs(ga) > tol_m) {
-    let zb = Math.min(top_m, Math.max(bottom_m, z0 - ga));
+    // Newton's first step: G′(z0) = 1 − ∇h · p′(z0), p′ from the path 1 m above.
+    let slope = 1;
+    if (grad[0] !== 0 || grad[1] !== 0) {
+      at(z0 + 1, out);
+      const s = 1 - grad[0] * (out[0] - x0) - grad[1] * (out[1] - y0);
+      if (s > 0.2 && s < 5) slope = s;
+    }
+    let zb = Math.min(top_m, Math.max(bottom_m, z0 - ga / slope));
     at(zb, out);
     let hb = ground.height(out[0], out[1]);
     if (hb === null) return -1;
@@ -908,11 +955,53 @@ export function fastCrossing(
   const zTop = Math.min(top_m, ground.maxHeight_m);
   if (z < zTop) {
     const r = pathSlope * (zTop - z) + ground.cell_m;
-    FAST_BOX.xMin = x - r;
-    FAST_BOX.xMax = x + r;
-    FAST_BOX.yMin = y - r;
-    FAST_BOX.yMax = y + r;
-    if (!(ground.maxSlopeIn(FAST_BOX) * pathSlope < 0.999)) return -1;
+    // Neighbouring samples reach over nearly the same square: a bound over a square four times as
+    // wide, kept from an earlier sample of the same ground, serves every square inside it.
+    const c = FAST_CACHE;
+    let slope: number;
+    if (
+      c.ground === ground &&
+      x - r >= c.xMin &&
+      x + r <= c.xMax &&
+      y - r >= c.yMin &&
+      y + r <= c.yMax &&
+      c.slope * pathSlope < 0.999
+    ) {
+      slope = c.slope;
+    } else {
+      FAST_BOX.xMin = x - 4 * r;
+      FAST_BOX.xMax = x + 4 * r;
+      FAST_BOX.yMin = y - 4 * r;
+      FAST_BOX.yMax = y + 4 * r;
+      const wide = ground.maxSlopeIn(FAST_BOX);
+      if (wide * pathSlope < 0.999) {
+        [c.ground, c.slope] = [ground, wide];
+        [c.xMin, c.xMax, c.yMin, c.yMax] = [
+          FAST_BOX.xMin,
+          FAST_BOX.xMax,
+          FAST_BOX.yMin,
+          FAST_BOX.yMax,
+        ];
+        slope = wide;
+      } else {
+        FAST_BOX.xMin = x - r;
+        FAST_BOX.xMax = x + r;
+        FAST_BOX.yMin = y - r;
+        FAST_BOX.yMax = y + r;
+        slope = ground.maxSlopeIn(FAST_BOX);
+      }
+    }
+    if (!(slope * pathSlope < 0.999)) return -1;
   }
   return crossDone(out, x, y, z, CROSS_GROUND);
 }
+
+// The last wide square whose slope bound certified a crossing (see fastCrossing).
+const FAST_CACHE: {
+  ground: TerrainGround | null;
+  slope: number;
+  xMin: number;
+  xMax: number;
+  yMin: number;
+  yMax: number;
+} = { ground: null, slope: Infinity, xMin: 0, xMax: 0, yMin: 0, yMax: 0 };
