@@ -37,6 +37,7 @@ export const USAGE = `usage:
   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom]
                              [--terrain <dem.tif|dem.asc>]
   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
+                             [--terrain <dem.tif|dem.asc>]
 --terrain: a GeoTIFF or ESRI ASCII grid of ground heights MSL (m); overrides the plan's
   terrain.file (which is relative to the plan file). Only the window the plan can reach is read.
 `;
@@ -45,7 +46,7 @@ const OPTIONS: Record<Command, string[]> = {
   plan: ['--format', '--samples', '--seed', '--terrain'],
   brief: ['--out', '--pdf', '--paper', '--samples', '--seed', '--sweep', '--terrain'],
   export: ['--format', '--out', '--samples', '--seed', '--bom', '--terrain'],
-  timeline: ['--step', '--format', '--samples', '--seed'],
+  timeline: ['--step', '--format', '--samples', '--seed', '--terrain'],
 };
 
 const FORMATS: Record<Command, Format[]> = {

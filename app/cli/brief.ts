@@ -1,5 +1,6 @@
 // `brief`: the drop brief as HTML and/or PDF, with an optional P(hit)-against-altitude sweep.
 import { briefHtml, briefSafety } from '../brief';
+import type { ElevationModel } from '../model';
 import type { Plan } from '../plan';
 import {
   altitudeSweep,
@@ -22,6 +23,7 @@ export async function briefCommand(
   plan: Plan,
   result: PlanResult,
   terrainNote?: string,
+  terrain?: ElevationModel,
 ): Promise<void> {
   let sweep: { title: string; points: SweepPoint[] } | undefined;
   if (args.sweep) {
@@ -43,7 +45,7 @@ export async function briefCommand(
     const heights = sweepHeightsAGL(plan, result.releaseAltitudeMSL_m);
     sweep = {
       title: `${siteId} · ${variantId}`,
-      points: altitudeSweep(plan, siteId, variantId, heights),
+      points: altitudeSweep(plan, siteId, variantId, heights, { terrain }),
     };
   }
   // The same timeline as the app's Timeline button (planTimeline, every 15 min) when there are
@@ -52,7 +54,7 @@ export async function briefCommand(
   const flights = forecasts ? timelineFlights(plan, TIMELINE_STEP_S) : 0;
   const timeline =
     forecasts && flights <= BRIEF_TIMELINE_MAX_FLIGHTS
-      ? planTimeline(plan, { step_s: TIMELINE_STEP_S })
+      ? planTimeline(plan, { step_s: TIMELINE_STEP_S, terrain })
       : undefined;
   const timelineOmitted =
     forecasts && timeline === undefined

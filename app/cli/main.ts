@@ -42,17 +42,17 @@ async function main(argv: string[], io: CliIO): Promise<void> {
     const work = workIssue(plan);
     if (work) fail(`--samples: ${oneLine(work.message)}`, 2);
   }
-  // The timeline runs its own planDrop per time; the plan time's result alone is not needed.
-  if (args.command === 'timeline') {
-    if (plan.terrain) {
-      io.err(
-        `seedfall: note: the timeline is flown over flat ground; terrain.file ${oneLine(plan.terrain.file)} is not read\n`,
-      );
-    }
-    return timelineCommand(args, io, plan, warnings);
-  }
   // Read before planning: a bad elevation model ends the command before anything is written.
   const terrain = await loadTerrain(args, plan);
+  // The timeline runs its own planDrop per time; the plan time's result alone is not needed.
+  if (args.command === 'timeline') {
+    try {
+      return timelineCommand(args, io, plan, warnings, terrain?.dem);
+    } catch (e) {
+      if (e instanceof DemError) fail(oneLine(e.message), 1);
+      throw e;
+    }
+  }
   let result: PlanResult;
   try {
     result = planDrop(plan, terrain ? { terrain: terrain.dem } : {});
@@ -64,7 +64,14 @@ async function main(argv: string[], io: CliIO): Promise<void> {
 
   if (args.command === 'plan') planCommand(args, io, plan, result);
   else if (args.command === 'export') exportCommand(args, io, plan, result);
-  else await briefCommand(args, io, plan, result, terrain?.note);
+  else {
+    try {
+      await briefCommand(args, io, plan, result, terrain?.note, terrain?.dem);
+    } catch (e) {
+      if (e instanceof DemError) fail(oneLine(e.message), 1);
+      throw e;
+    }
+  }
 }
 
 /** First line of an unexpected error, for the one-line "internal error" report. */

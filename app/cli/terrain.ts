@@ -13,7 +13,7 @@ import {
 } from '../formats';
 import { formatUTM } from '../model';
 import type { Plan } from '../plan';
-import { terrainArea } from '../planner';
+import { type AreaBox, sweepHeightsAGL, terrainArea } from '../planner';
 import { errCode, fail, oneLine, type Args } from './args';
 
 /** What the CLI read: the model, the file it came from and how much of it. */
@@ -86,6 +86,29 @@ function ascEpsg(head: string, plan: Plan): number | undefined {
 }
 
 /**
+ * The box to read: terrainArea(plan); for a brief with --sweep also the area of the sweep's
+ * highest release (sweepHeightsAGL), which reaches farther.
+ */
+function readArea(args: Args, plan: Plan): AreaBox {
+  const box = terrainArea(plan);
+  if (args.command !== 'brief' || !args.sweep) return box;
+  const ground = plan.groundElevation_m;
+  const top = plan.release.altitude_m + (plan.release.reference === 'AGL' ? ground : 0);
+  const highest = Math.max(...sweepHeightsAGL(plan, top));
+  if (!Number.isFinite(highest)) return box;
+  const far = terrainArea({
+    ...plan,
+    release: { ...plan.release, altitude_m: highest, reference: 'AGL' },
+  });
+  return {
+    south: Math.min(box.south, far.south),
+    west: Math.min(box.west, far.west),
+    north: Math.max(box.north, far.north),
+    east: Math.max(box.east, far.east),
+  };
+}
+
+/**
  * Reads the elevation model for this plan, or undefined when neither --terrain nor the plan names
  * one. A file that cannot be used ends the command (exit 1) with a message naming it.
  */
@@ -107,7 +130,7 @@ export async function loadTerrain(args: Args, plan: Plan): Promise<TerrainRead |
   try {
     const st = fstatSync(fd);
     if (!st.isFile()) fail(`${shown} (${from}) is not a regular file`, 1);
-    const box = terrainArea(plan);
+    const box = readArea(args, plan);
     if (isTiff) {
       const r = await readGeoTiffDem(shown, fdSource(fd, st.size), { box });
       const note =

@@ -10,6 +10,7 @@ import {
   zoneClockText,
   UTC_ZONE,
 } from '../brief';
+import type { ElevationModel } from '../model';
 import type { Plan } from '../plan';
 import {
   planForecastSeries,
@@ -26,7 +27,13 @@ import { fail, oneLine, STEP_RANGE_S, terminalText, type Args, type CliIO } from
 const SITES_PER_BLOCK = 8;
 
 /** Writes the plan's timeline in the format asked for; warnings (from reading the plan) included. */
-export function timelineCommand(args: Args, io: CliIO, plan: Plan, warnings: string[]): void {
+export function timelineCommand(
+  args: Args,
+  io: CliIO,
+  plan: Plan,
+  warnings: string[],
+  terrain?: ElevationModel,
+): void {
   if ((plan.winds.forecasts ?? []).length === 0) {
     fail(
       'the plan has no wind forecasts (winds.forecasts): the timeline needs at least one forecast valid at another time than the plan time; store one in the app (Winds tab) or add it to the file',
@@ -64,7 +71,7 @@ export function timelineCommand(args: Args, io: CliIO, plan: Plan, warnings: str
     );
   }
   const samples = timelineSamples(plan, args.samples);
-  const entries = planTimeline(plan, { step_s, samples: args.samples });
+  const entries = planTimeline(plan, { step_s, samples: args.samples, terrain });
   const zone = planZone(plan.time);
   const allWarnings = [...warnings, ...problems];
   if (args.format === 'json') {
