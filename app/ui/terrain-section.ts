@@ -161,7 +161,9 @@ export class SfTerrainSection extends StoreElement {
       <p class="hint">
         Only the part of the file around the plan area is read. An .asc grid is read in WGS 84
         degrees, or in the release point's UTM zone when its corner cannot be degrees. The file is
-        kept in this browser for the next visit and for use offline.
+        kept in this browser for the next visit and for use offline. Each descent ends where it
+        meets this ground; the release altitude and wind layers given above ground (AGL) stay
+        referred to the plan's ground elevation above.
       </p>
     `;
   }
