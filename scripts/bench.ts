@@ -247,7 +247,7 @@ line(
   }
   let tFlat = Infinity;
   let tHills = Infinity;
-  const hillRuns = 9;
+  const hillRuns = 15;
   for (let i = 0; i < hillRuns; i++) {
     let t0 = performance.now();
     planDrop(plan);

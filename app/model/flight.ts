@@ -61,8 +61,9 @@ export class AltitudePath {
   readonly top_m: number;
   readonly mid_m: number;
   readonly low_m: number;
-  private readonly h1: number;
-  private readonly n1: number;
+  /** grid step (m) and node count from the top to the table's bottom */
+  readonly h1: number;
+  readonly n1: number;
   private readonly h2: number;
   private readonly n2: number;
   /** time, east and north drift at the grid nodes, from the top down */
@@ -295,6 +296,14 @@ function combinedAR(
   return { arPhi, arInn };
 }
 
+let workArray = new Float64Array(256);
+
+/** The shared work array of flySamples, grown to at least n. */
+function workBuffer(n: number): Float64Array {
+  if (workArray.length < n) workArray = new Float64Array(Math.max(n, 2 * workArray.length));
+  return workArray;
+}
+
 /** Where and how a batch of samples is released. */
 export interface SampleRequest {
   n: number;
@@ -376,11 +385,14 @@ export function flySamples(
   const path = ter ? altitudePath(s) : null;
   const tRef = tab.fallTime_s;
   const entryEnd = tab.entryEnd_m;
-  const cross = new Float64Array(4);
+  // Work arrays from one module-level buffer (flySamples does not nest): no allocation per call.
+  const work = workBuffer(16 + 4 * (k + 1));
+  const cross = work.subarray(0, 4);
+  const rise = work.subarray(4, 6);
   // Per-sample state in a typed array (closure slots written per sample would box doubles):
   // 0,1 position after the throw; 2,3 wind-error displacement at the table's bottom; 4 1/f;
   // 5 programme's steered drop; 6,7 its heading unit; 8,9 homing's last band error.
-  const ss = new Float64Array(10);
+  const ss = work.subarray(6, 16);
   const openPath: PathAt = (z, out) => {
     const p = path as AltitudePath;
     const fi = p.index(z);
@@ -397,13 +409,13 @@ export function flySamples(
     out[1] = y;
   };
   // Homing: band-end positions (index b = top of band b; k = the table's bottom).
-  const hx = new Float64Array(k + 1);
-  const hy = new Float64Array(k + 1);
-  const zb = new Float64Array(k + 1);
+  const hx = work.subarray(16, 16 + (k + 1));
+  const hy = work.subarray(16 + (k + 1), 16 + 2 * (k + 1));
+  const zb = work.subarray(16 + 2 * (k + 1), 16 + 3 * (k + 1));
   zb[0] = tab.top_m;
   for (let b = 0; b < k; b++) zb[b + 1] = zb[b] - bandDz[b];
   zb[k] = tab.bottom_m;
-  const invDz2 = new Float64Array(k);
+  const invDz2 = work.subarray(16 + 3 * (k + 1), 16 + 4 * (k + 1));
   for (let b = 0; b < k; b++) invDz2[b] = 1 / (bandDz[b] * bandDz[b]);
   const homingPath: PathAt = (z, out) => {
     if (z <= zb[k]) {
@@ -529,6 +541,19 @@ export function flySamples(
         v = (p.driftRate + (a * p.timeRate) / tRef) * ss[4];
         if (ss[5] > 0) v += cot;
       }
+      // How the descent moves sideways per metre of altitude just above the site's level (for
+      // the shortcut's Newton step), when it is known without another path evaluation.
+      let riseOk = true;
+      if (homing) {
+        rise[0] = (hx[k - 1] - hx[k]) / bandDz[k - 1];
+        rise[1] = (hy[k - 1] - hy[k]) / bandDz[k - 1];
+      } else if (ss[5] > 0 && entryEnd - tab.bottom_m <= ss[5]) {
+        riseOk = false; // still steering at the site's level
+      } else {
+        const rt = (p.t[p.n1 - 1] - p.t[p.n1]) / p.h1 / tRef;
+        rise[0] = ((p.e[p.n1 - 1] - p.e[p.n1]) / p.h1 + ss[2] * rt) * ss[4];
+        rise[1] = ((p.n[p.n1 - 1] - p.n[p.n1]) / p.h1 + ss[3] * rt) * ss[4];
+      }
       let kind = fastCrossing(
         ter.ground,
         at,
@@ -540,6 +565,7 @@ export function flySamples(
         v,
         cross,
         SAMPLE_TOL_M,
+        riseOk ? rise : null,
       );
       if (kind < 0) {
         kind = firstCrossing(ter.ground, at, tab.top_m, ter.bottom_m, cross, 5, SAMPLE_TOL_M);

@@ -482,13 +482,14 @@ export class GridGround implements TerrainGround {
    * bilinear patch at a point; null where `height` is null.
    */
   heightGrad(x_m: number, y_m: number, grad: Float64Array): number | null {
-    const h = this.height(x_m, y_m);
-    if (h === null) return null;
     const a = this.map.col;
     const b = this.map.row;
-    const c = this.colOf(x_m, y_m);
-    const r = this.rowOf(x_m, y_m);
+    const c =
+      a[0] + a[1] * x_m + a[2] * y_m + a[3] * x_m * x_m + a[4] * x_m * y_m + a[5] * y_m * y_m;
+    const r =
+      b[0] + b[1] * x_m + b[2] * y_m + b[3] * x_m * x_m + b[4] * x_m * y_m + b[5] * y_m * y_m;
     const cols = this.cols;
+    if (!(c >= 0 && r >= 0 && c <= cols - 1 && r <= this.rows - 1)) return null;
     const i = Math.min(Math.floor(c), cols - 2);
     const j = Math.min(Math.floor(r), this.rows - 2);
     const fx = c - i;
@@ -499,16 +500,22 @@ export class GridGround implements TerrainGround {
     const v10 = v[k + 1];
     const v01 = v[k + cols];
     const v11 = v[k + cols + 1];
-    // Corners with zero weight may be unknown (NaN): their differences then count as level.
-    let hc = 0;
-    let hr = 0;
-    if (v10 === v10 && v00 === v00) hc += (1 - fy) * (v10 - v00);
-    if (v11 === v11 && v01 === v01) hc += fy * (v11 - v01);
-    if (v01 === v01 && v00 === v00) hr += (1 - fx) * (v01 - v00);
-    if (v11 === v11 && v10 === v10) hr += fx * (v11 - v10);
+    const nd = this.nodata;
+    const ok00 = v00 === v00 && v00 !== nd;
+    const ok10 = v10 === v10 && v10 !== nd;
+    const ok01 = v01 === v01 && v01 !== nd;
+    const ok11 = v11 === v11 && v11 !== nd;
+    if (!(ok00 && ok10 && ok01 && ok11)) {
+      // An unknown corner: the edge rules of `height`, and a level gradient.
+      grad[0] = 0;
+      grad[1] = 0;
+      return this.height(x_m, y_m);
+    }
+    const hc = (1 - fy) * (v10 - v00) + fy * (v11 - v01);
+    const hr = (1 - fx) * (v01 - v00) + fx * (v11 - v10);
     grad[0] = hc * (a[1] + 2 * a[3] * x_m + a[4] * y_m) + hr * (b[1] + 2 * b[3] * x_m + b[4] * y_m);
     grad[1] = hc * (a[2] + a[4] * x_m + 2 * a[5] * y_m) + hr * (b[2] + b[4] * x_m + 2 * b[5] * y_m);
-    return h;
+    return (1 - fy) * ((1 - fx) * v00 + fx * v10) + fy * ((1 - fx) * v01 + fx * v11);
   }
 
   /**
@@ -898,7 +905,8 @@ const FAST_GRAD = new Float64Array(2);
  * G′(z) = 1 − ∇h · p′(z) ≥ 1 − S·V with S the ground's slope bound there; S·V < 1 makes G grow
  * strictly above z*, so z* is the first crossing (docs/model.md §18). Writes x, y, z, kind into
  * out like firstCrossing and returns CROSS_GROUND, or −1 when it cannot certify (the caller then
- * walks with firstCrossing).
+ * walks with firstCrossing). `rise`, when given, is how far the path moves sideways (x, y) per
+ * metre of altitude above z0 (else it is measured 1 m up); it only speeds the first step up.
  */
 export function fastCrossing(
   ground: TerrainGround,
@@ -911,6 +919,7 @@ export function fastCrossing(
   pathSlope: number,
   out: Float64Array,
   tol_m: number,
+  rise: Float64Array | null = null,
 ): number {
   if (!ground.maxSlopeIn) return -1;
   const grad = FAST_GRAD;
@@ -927,8 +936,17 @@ export function fastCrossing(
     // Newton's first step: G′(z0) = 1 − ∇h · p′(z0), p′ from the path 1 m above.
     let slope = 1;
     if (grad[0] !== 0 || grad[1] !== 0) {
-      at(z0 + 1, out);
-      const s = 1 - grad[0] * (out[0] - x0) - grad[1] * (out[1] - y0);
+      let dx: number;
+      let dy: number;
+      if (rise) {
+        dx = rise[0];
+        dy = rise[1];
+      } else {
+        at(z0 + 1, out);
+        dx = out[0] - x0;
+        dy = out[1] - y0;
+      }
+      const s = 1 - grad[0] * dx - grad[1] * dy;
       if (s > 0.2 && s < 5) slope = s;
     }
     let zb = Math.min(top_m, Math.max(bottom_m, z0 - ga / slope));
