@@ -307,6 +307,124 @@ export interface GridMap {
   row: readonly number[];
 }
 
+/** The maxima and slope pyramids of a grid (see GridGround), with its lowest and highest height. */
+interface Pyramids {
+  cols: number;
+  rows: number;
+  nodata: number | null;
+  min: number;
+  max: number;
+  levels: Float32Array[];
+  slopes: Float32Array[];
+  lvCols: number[];
+  lvRows: number[];
+}
+
+// Built once per heights array (a DEM window is read once and never changed).
+const PYRAMIDS = new WeakMap<Float32Array, Pyramids>();
+
+function buildPyramids(
+  values: Float32Array,
+  cols: number,
+  rows: number,
+  nd: number | null,
+): Pyramids {
+  const out: Pyramids = {
+    cols,
+    rows,
+    nodata: nd,
+    min: Infinity,
+    max: -Infinity,
+    levels: [],
+    slopes: [],
+    lvCols: [],
+    lvRows: [],
+  };
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let k = 0; k < values.length; k++) {
+    const v = values[k];
+    if (v !== v || v === nd) continue;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  out.min = lo;
+  out.max = hi;
+  // Level 1: patches p (between centres p and p+1) grouped in pairs: values 2i … 2i+2.
+  const pc = cols - 1;
+  const pr = rows - 1;
+  let w = Math.ceil(pc / 2);
+  let h = Math.ceil(pr / 2);
+  let lv = new Float32Array(w * h);
+  let sl = new Float32Array(w * h);
+  const at = (r: number, c: number): number => {
+    const v = values[r * cols + c];
+    return v !== v || v === nd ? NaN : v;
+  };
+  for (let j = 0; j < h; j++) {
+    for (let i = 0; i < w; i++) {
+      let m = -Infinity;
+      let d = 0;
+      const r1 = Math.min(2 * j + 2, rows - 1);
+      const c1 = Math.min(2 * i + 2, cols - 1);
+      for (let r = 2 * j; r <= r1; r++) {
+        for (let c = 2 * i; c <= c1; c++) {
+          const u = at(r, c);
+          if (u !== u) {
+            m = Infinity;
+            d = Infinity;
+            continue;
+          }
+          if (u > m) m = u;
+          if (c < c1) d = Math.max(d, Math.abs(at(r, c + 1) - u));
+          if (r < r1) d = Math.max(d, Math.abs(at(r + 1, c) - u));
+        }
+      }
+      lv[j * w + i] = m;
+      sl[j * w + i] = d !== d ? Infinity : d;
+    }
+  }
+  out.levels.push(lv);
+  out.slopes.push(sl);
+  out.lvCols.push(w);
+  out.lvRows.push(h);
+  while (w > 1 || h > 1) {
+    const w2 = Math.ceil(w / 2);
+    const h2 = Math.ceil(h / 2);
+    const up = new Float32Array(w2 * h2);
+    const upS = new Float32Array(w2 * h2);
+    for (let j = 0; j < h2; j++) {
+      for (let i = 0; i < w2; i++) {
+        let m = lv[2 * j * w + 2 * i];
+        let d = sl[2 * j * w + 2 * i];
+        if (2 * i + 1 < w) {
+          m = Math.max(m, lv[2 * j * w + 2 * i + 1]);
+          d = Math.max(d, sl[2 * j * w + 2 * i + 1]);
+        }
+        if (2 * j + 1 < h) {
+          m = Math.max(m, lv[(2 * j + 1) * w + 2 * i]);
+          d = Math.max(d, sl[(2 * j + 1) * w + 2 * i]);
+          if (2 * i + 1 < w) {
+            m = Math.max(m, lv[(2 * j + 1) * w + 2 * i + 1]);
+            d = Math.max(d, sl[(2 * j + 1) * w + 2 * i + 1]);
+          }
+        }
+        up[j * w2 + i] = m;
+        upS[j * w2 + i] = d;
+      }
+    }
+    out.levels.push(up);
+    out.slopes.push(upS);
+    out.lvCols.push(w2);
+    out.lvRows.push(h2);
+    lv = up;
+    sl = upS;
+    w = w2;
+    h = h2;
+  }
+  return out;
+}
+
 /**
  * A grid of heights read in a local frame through a quadratic index map (GridGround.fit builds
  * it from any CRS transform): bilinear heights between cell centres, as Dem.sampleCrs, and a
@@ -319,11 +437,10 @@ export class GridGround implements TerrainGround {
   readonly maxHeight_m: number;
   readonly minHeight_m: number;
   /** pyramid levels 1, 2, …: maxima over 2^ℓ × 2^ℓ patches; sizes in lvCols/lvRows */
-  private readonly levels: Float32Array[] = [];
+  private readonly levels: Float32Array[];
   /** the same pyramid of the largest height step between neighbouring cell centres */
-  private readonly slopes: Float32Array[] = [];
-  private readonly lvCols: number[] = [];
-  private readonly lvRows: number[] = [];
+  private readonly slopes: Float32Array[];
+  private readonly lvCols: number[];
   // The last box's index range (set by spanOf): level, patch columns i0…i1, rows j0…j1.
   private qL = 0;
   private qI0 = 0;
@@ -346,88 +463,17 @@ export class GridGround implements TerrainGround {
     }
     const nd = nodata === null ? null : Math.fround(nodata);
     this.nodata = nd;
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (let k = 0; k < values.length; k++) {
-      const v = values[k];
-      if (v !== v || v === nd) continue;
-      if (v < lo) lo = v;
-      if (v > hi) hi = v;
+    // The pyramids depend on the heights only: grounds over the same grid share them.
+    let pyr = PYRAMIDS.get(values);
+    if (!pyr || pyr.cols !== cols || pyr.rows !== rows || !Object.is(pyr.nodata, nd)) {
+      pyr = buildPyramids(values, cols, rows, nd);
+      PYRAMIDS.set(values, pyr);
     }
-    this.minHeight_m = lo;
-    this.maxHeight_m = hi;
-    // Level 1: patches p (between centres p and p+1) grouped in pairs: values 2i … 2i+2.
-    const pc = cols - 1;
-    const pr = rows - 1;
-    let w = Math.ceil(pc / 2);
-    let h = Math.ceil(pr / 2);
-    let lv = new Float32Array(w * h);
-    let sl = new Float32Array(w * h);
-    const at = (r: number, c: number): number => {
-      const v = values[r * cols + c];
-      return v !== v || v === nd ? NaN : v;
-    };
-    for (let j = 0; j < h; j++) {
-      for (let i = 0; i < w; i++) {
-        let m = -Infinity;
-        let d = 0;
-        const r1 = Math.min(2 * j + 2, rows - 1);
-        const c1 = Math.min(2 * i + 2, cols - 1);
-        for (let r = 2 * j; r <= r1; r++) {
-          for (let c = 2 * i; c <= c1; c++) {
-            const u = at(r, c);
-            if (u !== u) {
-              m = Infinity;
-              d = Infinity;
-              continue;
-            }
-            if (u > m) m = u;
-            if (c < c1) d = Math.max(d, Math.abs(at(r, c + 1) - u));
-            if (r < r1) d = Math.max(d, Math.abs(at(r + 1, c) - u));
-          }
-        }
-        lv[j * w + i] = m;
-        sl[j * w + i] = d !== d ? Infinity : d;
-      }
-    }
-    this.levels.push(lv);
-    this.slopes.push(sl);
-    this.lvCols.push(w);
-    this.lvRows.push(h);
-    while (w > 1 || h > 1) {
-      const w2 = Math.ceil(w / 2);
-      const h2 = Math.ceil(h / 2);
-      const up = new Float32Array(w2 * h2);
-      const upS = new Float32Array(w2 * h2);
-      for (let j = 0; j < h2; j++) {
-        for (let i = 0; i < w2; i++) {
-          let m = lv[2 * j * w + 2 * i];
-          let d = sl[2 * j * w + 2 * i];
-          if (2 * i + 1 < w) {
-            m = Math.max(m, lv[2 * j * w + 2 * i + 1]);
-            d = Math.max(d, sl[2 * j * w + 2 * i + 1]);
-          }
-          if (2 * j + 1 < h) {
-            m = Math.max(m, lv[(2 * j + 1) * w + 2 * i]);
-            d = Math.max(d, sl[(2 * j + 1) * w + 2 * i]);
-            if (2 * i + 1 < w) {
-              m = Math.max(m, lv[(2 * j + 1) * w + 2 * i + 1]);
-              d = Math.max(d, sl[(2 * j + 1) * w + 2 * i + 1]);
-            }
-          }
-          up[j * w2 + i] = m;
-          upS[j * w2 + i] = d;
-        }
-      }
-      this.levels.push(up);
-      this.slopes.push(upS);
-      this.lvCols.push(w2);
-      this.lvRows.push(h2);
-      lv = up;
-      sl = upS;
-      w = w2;
-      h = h2;
-    }
+    this.minHeight_m = pyr.min;
+    this.maxHeight_m = pyr.max;
+    this.levels = pyr.levels;
+    this.slopes = pyr.slopes;
+    this.lvCols = pyr.lvCols;
   }
 
   private colOf(x: number, y: number): number {
