@@ -47,7 +47,9 @@ function siteFigure(s: SiteResult): string {
     ? 'site elevation: —'
     : ground.source === 'typed'
       ? `site ${f(ground.elevation_m, 1)} m MSL, typed in the plan (model: ${f(ground.terrain_m, 1)} m)`
-      : `site ${f(ground.elevation_m, 1)} m MSL, from the elevation model`;
+      : ground.source === 'terrain'
+        ? `site ${f(ground.elevation_m, 1)} m MSL, from the elevation model`
+        : `site ${f(ground.elevation_m, 1)} m MSL, the plan's ground (the model has no height at the site)`;
   const landing = t ? t.landingGround_m : v.landingGround_m;
   const lines = [
     `${esc(source)}; ground at the uncontrolled landing ${landing === null || landing === undefined ? 'unknown (no model height there)' : `${f(landing, 1)} m MSL`}.`,
@@ -111,11 +113,13 @@ export function terrainReportLines(result: PlanResult): string[] {
       s.id,
       v.variant,
       f(s.ground?.elevation_m, 1),
-      s.ground?.source === 'typed'
-        ? `typed (model ${f(s.ground.terrain_m, 1)})`
-        : s.ground
-          ? 'terrain'
-          : '-',
+      !s.ground
+        ? '-'
+        : s.ground.source === 'typed'
+          ? `typed (model ${f(s.ground.terrain_m, 1)})`
+          : s.ground.source === 'terrain'
+            ? 'terrain'
+            : 'plan ground (no model height)',
       landing === null || landing === undefined ? 'unknown' : f(landing, 1),
       t ? `${f(100 * t.offTerrain, 1)} %` : '-',
     ]);

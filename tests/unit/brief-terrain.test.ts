@@ -100,6 +100,27 @@ describe('the brief over terrain', () => {
     );
   });
 
+  it("says where each site's elevation came from: the model, typed, or the plan's ground", () => {
+    const r = structuredClone(result);
+    const [a, b, c] = r.sites;
+    a.ground = { elevation_m: 101.25, source: 'terrain', terrain_m: 101.25 };
+    b.ground = { elevation_m: 90, source: 'typed', terrain_m: 97.5 };
+    // The planner falls back to the plan's ground, with a warning, where the model has no height.
+    c.ground = { elevation_m: plan.groundElevation_m, source: 'plan-ground', terrain_m: null };
+    const html = terrainSection(plan, r, { maxSites: 3 });
+    const fig = (id: string) => html.split(`data-site="${id}"`)[1].split('</div>\n')[1];
+    expect(fig(a.id)).toContain('site 101.3 m MSL, from the elevation model');
+    expect(fig(b.id)).toContain('site 90.0 m MSL, typed in the plan (model: 97.5 m)');
+    expect(fig(c.id)).toContain('the plan&#39;s ground (the model has no height at the site)');
+    expect(fig(c.id)).not.toContain('from the elevation model');
+    const text = formatPlanText(plan, r).split('\n');
+    // The ground table follows the results table: its row is the id's last.
+    const row = (id: string) => text.filter((l) => l.startsWith(`${id} `)).pop() ?? '';
+    expect(row(a.id)).toMatch(/ 101\.3 +terrain /);
+    expect(row(b.id)).toMatch(/ 90\.0 +typed \(model 97\.5\) /);
+    expect(row(c.id)).toContain('plan ground (no model height)');
+  });
+
   it('leaves the brief and the text report as they were without an elevation model', () => {
     expect(terrainSection(plan, flat)).toBe('');
     expect(briefHtml(plan, flat)).not.toContain('Fall profile over the ground');
