@@ -117,10 +117,12 @@ export function renderStatus(s: PlanStore): TemplateResult[] {
   }
   const named = s.plan?.terrain?.file;
   if (named && s.terrainStatus.state !== 'loading' && s.dem?.name !== baseName(named)) {
+    // Another model may be in use (one kept in this browser, or opened before this plan).
+    const over = s.dem ? `planned over ${s.dem.name} instead` : 'planned over flat ground';
     parts.push(
       html`<span class="notice-error" data-testid="terrain-missing"
-        >The plan names the elevation model ${named}, which is not open here: planned over flat
-        ground. Open it under Release &amp; plan → Terrain.</span
+        >The plan names the elevation model ${named}, which is not open here: ${over}. Open it under
+        Release &amp; plan → Terrain.</span
       >`,
     );
   }

@@ -3,6 +3,7 @@ import { Dem } from '../../app/formats';
 import { type PlanFile, resolvePlan } from '../../app/plan';
 import { terrainArea } from '../../app/planner';
 import { PlanStore } from '../../app/ui/plan-store';
+import { renderStatus } from '../../app/ui/status-area';
 import { areasToRead, boxInside, grownBox } from '../../app/ui/terrain-loader';
 import demo from '../../data/demo-plan.json';
 
@@ -102,6 +103,37 @@ describe('the store hands the elevation model to the planning worker', () => {
     } finally {
       vi.useRealTimers();
     }
+  });
+});
+
+/** The words of Lit templates, values in place (no DOM needed). */
+function words(x: unknown): string {
+  if (Array.isArray(x)) return x.map(words).join('');
+  const t = x as { strings?: readonly string[]; values?: unknown[] } | null;
+  if (t && typeof t === 'object' && t.strings) {
+    return t.strings
+      .map((s, i) => s + (i < (t.values ?? []).length ? words(t.values![i]) : ''))
+      .join('');
+  }
+  return typeof x === 'string' || typeof x === 'number' ? String(x) : '';
+}
+
+describe('the status line on the model a plan names', () => {
+  it('says flat ground with no model open, and names the model in use when another is open', () => {
+    const s = new PlanStore(demo as Record<string, unknown>, null);
+    s.edit('terrain', { file: 'dem/valley.tif' });
+    const line = () => words(renderStatus(s)).replace(/\s+/g, ' ');
+    expect(line()).toContain(
+      'The plan names the elevation model dem/valley.tif, which is not open here: planned over flat ground.',
+    );
+    s.setTerrain(smallDem(), { name: 'small.asc', state: 'ready' });
+    expect(line()).toContain('which is not open here: planned over small.asc instead.');
+    expect(line()).not.toContain('flat ground');
+    s.setTerrain(new Dem({ ...smallDem().grid, file: 'valley.tif' }), {
+      name: 'valley.tif',
+      state: 'ready',
+    });
+    expect(line()).not.toContain('not open here');
   });
 });
 
