@@ -3,7 +3,7 @@
  *   npm run --silent plan  -- <plan.json> [--format json|text] [--samples N] [--seed N] [--terrain F]
  *   npm run --silent brief -- <plan.json> --out <brief.html> [--pdf <brief.pdf>] [--paper A4|Letter] [--terrain F]
  *   npm run --silent export -- <plan.json> --format geojson|kml|gpx|csv [--out <file>] [--bom] [--terrain F]
- *   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N]
+ *   npm run --silent timeline -- <plan.json> [--step 5m] [--format json|text] [--samples N] [--terrain F]
  * Exit codes: 0 done, 1 usage or file error, 2 invalid plan, 3 internal error (one line, no trace).
  *
  * Everything is written through the `CliIO` given to `runCli` and the exit code is returned, never
