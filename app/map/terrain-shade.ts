@@ -116,10 +116,10 @@ export function flatShade(altitude_deg = 45): number {
 /**
  * Hillshade of a grid, one byte per cell: 0 where the height is unknown, else 1 … 255.
  *
- * The ESRI hillshade (Burrough & McDonnell 1998, "Principles of GIS", §8.3; the definition
- * GDAL's `gdaldem hillshade` implements): slope and aspect from Horn's (1981, Proc. IEEE 69(1))
- * 3 × 3 kernel — dz/dx = ((c + 2f + i) − (a + 2d + g)) / 8Δx, dz/dy = ((g + 2h + i) − (a + 2b +
- * c)) / 8Δy over the window a b c / d e f / g h i (north row first) — then
+ * The common hillshade (the definition `gdaldem hillshade` implements; the tests check against
+ * it): slope and aspect from Horn's 3 × 3 kernel — dz/dx = ((c + 2f + i) − (a + 2d + g)) / 8Δx,
+ * dz/dy = ((g + 2h + i) − (a + 2b + c)) / 8Δy over the window a b c / d e f / g h i (north row
+ * first) — then
  * cos(zenith)·cos(slope) + sin(zenith)·sin(slope)·cos(azimuth_math − aspect), mapped as GDAL
  * maps it: 1 + 254·value, 1 where the value is ≤ 0. A neighbour off the grid is extrapolated
  * linearly from the cell and the one opposite it (2e − opposite); an unknown neighbour takes the
