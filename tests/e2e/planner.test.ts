@@ -389,7 +389,7 @@ describe('the map planner in Chromium', () => {
     await gust.fill('1');
     await gust.press('Enter');
     await settled();
-    await page.locator('sf-plan-panel .hint').scrollIntoViewIfNeeded();
+    await page.locator('sf-plan-panel .hint', { hasText: 'Turbulence' }).scrollIntoViewIfNeeded();
     await shot(page, 'planner-plan-panel-turbulence');
     await page.locator('[data-tab=results]').click();
     await expect.poll(() => included.innerText(), { timeout: 15_000 }).toContain('gusts');

@@ -59,7 +59,9 @@ async function offCentre(id: string): Promise<number> {
 describe('the safety panel in Chromium', () => {
   it('shows every automatic check and the hazard area on the map', async () => {
     await open();
-    expect(await page.locator('sf-safety-panel [data-check]').count()).toBe(10);
+    expect(await page.locator('sf-safety-panel [data-check]').count()).toBe(11);
+    // Planned without an elevation model: the carrier's terrain clearance is not applicable.
+    expect(await status('terrain-clearance')).toBe('n/a');
     // The demo's layers span the fall: no wind-coverage warning, no warning line.
     expect(await status('wind-coverage')).toBe('pass');
     expect(await page.locator('[data-testid=plan-warnings]').count()).toBe(0);
