@@ -3,6 +3,7 @@
 import { closeSync, constants, fstatSync, openSync, read, readSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import {
+  asciiCornerInMetres,
   type ByteSource,
   type Dem,
   DemError,
@@ -10,8 +11,8 @@ import {
   MAX_ASCII_GRID_CHARS,
   readAsciiGrid,
   readGeoTiffDem,
+  utmZoneEpsg,
 } from '../formats';
-import { formatUTM } from '../model';
 import type { Plan } from '../plan';
 import { type AreaBox, sweepHeightsAGL, terrainArea } from '../planner';
 import { errCode, fail, oneLine, type Args } from './args';
@@ -69,20 +70,20 @@ const stats = (r: DemRead): Omit<TerrainRead, 'file' | 'note'> => ({
   bytesRead: r.bytesRead,
 });
 
-/** EPSG code of the WGS 84 / UTM zone of a point (an ASCII grid in the plan's zone). */
-function utmEpsg(p: { lat: number; lon: number }): number {
-  const zone = Number(/^\d+/.exec(formatUTM(p))?.[0]);
-  return (p.lat >= 0 ? 32600 : 32700) + zone;
-}
-
 /**
- * An ASCII grid carries no CRS: a lower-left corner that cannot be degrees (|x| > 360 or
- * |y| > 90) is read in the plan's UTM zone, anything else as WGS 84 degrees.
+ * An ASCII grid carries no CRS: a lower-left corner that cannot be degrees is read in the plan's
+ * UTM zone, anything else as WGS 84 degrees.
  */
-function ascEpsg(head: string, plan: Plan): number | undefined {
-  const x = Number(/^\s*xll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
-  const y = Number(/^\s*yll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
-  return Math.abs(x) > 360 || Math.abs(y) > 90 ? utmEpsg(plan.release) : undefined;
+function ascEpsg(shown: string, head: string, plan: Plan): number | undefined {
+  if (!asciiCornerInMetres(head)) return undefined;
+  const epsg = utmZoneEpsg(plan.release);
+  if (epsg === undefined) {
+    fail(
+      `${shown}: its corner is in metres, and the release point has no UTM zone to read it in`,
+      1,
+    );
+  }
+  return epsg;
 }
 
 /**
@@ -153,7 +154,7 @@ export async function loadTerrain(args: Args, plan: Plan): Promise<TerrainRead |
     }
     // latin1: one character per byte; the reader refuses anything that is not a number.
     const text = bytes.subarray(0, got).toString('latin1');
-    const epsg = ascEpsg(text.slice(0, 4096), plan);
+    const epsg = ascEpsg(shown, text.slice(0, 4096), plan);
     const r = readAsciiGrid(shown, text, { box, epsg });
     const note =
       `${r.window.cols} × ${r.window.rows} cells read of ${r.fileCols} × ${r.fileRows}` +

@@ -5,11 +5,35 @@
  * states a UTM zone (EPSG:326zz / 327zz). Every value is counted; only those inside the window
  * are parsed, checked and kept.
  */
+import { formatUTM, type LatLon } from '../model';
 import { Dem, DemError, type GridGeometry, isGeographic, MAX_DEM_CELLS, windowFor } from './dem';
 import type { DemRead, DemReadOptions } from './geotiff-dem';
 
 /** Longest text read (characters): a 4000 × 4000 grid of 8-character heights is ~140 M. */
 export const MAX_ASCII_GRID_CHARS = 400_000_000;
+
+/**
+ * True when an ASCII grid's lower-left corner cannot be degrees (|x| > 360 or |y| > 90): it is
+ * in metres, and read in the plan's UTM zone. `head` is the start of the file (its header).
+ */
+export function asciiCornerInMetres(head: string): boolean {
+  const x = Number(/^\s*xll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
+  const y = Number(/^\s*yll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
+  return Math.abs(x) > 360 || Math.abs(y) > 90;
+}
+
+/** EPSG code of the WGS 84 / UTM zone holding a point (an ASCII grid in metres is read in it). */
+export function utmZoneEpsg(p: LatLon): number | undefined {
+  try {
+    // The model gives the zone only inside its UTM text ("32T 512345 5228765").
+    const zone = Number(/^\d+/.exec(formatUTM(p))?.[0]);
+    return Number.isInteger(zone) && zone >= 1 && zone <= 60
+      ? (p.lat >= 0 ? 32600 : 32700) + zone
+      : undefined;
+  } catch {
+    return undefined; // outside the UTM's latitudes
+  }
+}
 
 const KEYS = [
   'ncols',

@@ -53,7 +53,13 @@ export {
   type WindsAloftLayer,
   type WindsAloftStation,
 } from './winds-aloft';
-export { readAsciiGrid, MAX_ASCII_GRID_CHARS, type AsciiGridOptions } from './ascii-grid';
+export {
+  asciiCornerInMetres,
+  readAsciiGrid,
+  MAX_ASCII_GRID_CHARS,
+  type AsciiGridOptions,
+  utmZoneEpsg,
+} from './ascii-grid';
 export {
   boxText,
   crsConverter,

@@ -3,8 +3,7 @@
  * DEM worker, hands the model to the store (store.dem), keeps the file in IndexedDB for the next
  * visit, and reads it again when an edit moves the plan area out of the window read.
  */
-import { Dem, type LatLonBox } from '../formats';
-import { formatUTM } from '../model';
+import { Dem, type LatLonBox, utmZoneEpsg } from '../formats';
 import type { Plan } from '../plan';
 import { sweepHeightsAGL, terrainArea } from '../planner';
 import type { DemReply, DemRequest } from '../worker';
@@ -84,17 +83,6 @@ export function areasToRead(plan: Plan, area: LatLonBox = terrainArea(plan)): La
 /** True when box a lies inside box b. */
 export function boxInside(a: LatLonBox, b: LatLonBox): boolean {
   return a.south >= b.south && a.north <= b.north && a.west >= b.west && a.east <= b.east;
-}
-
-/** EPSG code of the WGS 84 / UTM zone holding a point (an ASCII grid "in the plan's zone"). */
-export function utmEpsg(p: { lat: number; lon: number }): number | undefined {
-  try {
-    // The model's door gives the zone only inside its UTM text ("32T 512345 5228765").
-    const zone = Number(/^\d+/.exec(formatUTM(p))?.[0]);
-    return Number.isInteger(zone) ? (p.lat >= 0 ? 32600 : 32700) + zone : undefined;
-  } catch {
-    return undefined; // outside the UTM's latitudes
-  }
 }
 
 /** One loader per store (store.terrain). */
@@ -256,7 +244,7 @@ export class TerrainLoader {
         file: src.file,
         name: src.name,
         boxes: areasToRead(plan, area),
-        utmEpsg: utmEpsg(plan.release),
+        utmEpsg: utmZoneEpsg(plan.release),
       });
     } catch (e) {
       if (id === this.lastId) this.fail(src, `${src.name}: ${errorText(e)}`, why);

@@ -3,6 +3,7 @@
 // off the main thread, so a 4000 × 4000 model never holds up the page; the grid's heights are
 // transferred, not copied, to the page.
 import {
+  asciiCornerInMetres,
   blobSource,
   type DemGrid,
   type DemRead,
@@ -54,13 +55,6 @@ function demFormat(name: string): 'geotiff' | 'ascii' | null {
   return null;
 }
 
-/** An ASCII grid's corner cannot be degrees (|x| > 360 or |y| > 90): it is in metres. */
-function ascInMetres(head: string): boolean {
-  const x = Number(/^\s*xll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
-  const y = Number(/^\s*yll(?:corner|center)\s+(\S+)/im.exec(head)?.[1]);
-  return Math.abs(x) > 360 || Math.abs(y) > 90;
-}
-
 async function read(
   req: DemRequest,
   box: LatLonBox,
@@ -70,7 +64,7 @@ async function read(
     return readGeoTiffDem(req.name, blobSource(req.file), { box });
   }
   const t = await text();
-  if (!ascInMetres(t.slice(0, 4096))) return readAsciiGrid(req.name, t, { box });
+  if (!asciiCornerInMetres(t.slice(0, 4096))) return readAsciiGrid(req.name, t, { box });
   if (req.utmEpsg === undefined) {
     throw new Error(
       `${req.name}: its corner is in metres, and the release point has no UTM zone to read it in`,

@@ -8,7 +8,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import proj4 from 'proj4';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { DemError, type LatLonBox, readAsciiGrid } from '../../app/formats';
+import {
+  asciiCornerInMetres,
+  DemError,
+  type LatLonBox,
+  readAsciiGrid,
+  utmZoneEpsg,
+} from '../../app/formats';
 import { Rng } from '../../app/model';
 import { expectClose } from './helpers';
 
@@ -217,5 +223,27 @@ describe('Hostile ASCII grids name the file and the line', () => {
     expect(msg).toMatch(
       /bad\.asc: the elevation model does not cover the plan area: it lies 10[67]\.\d km away/,
     );
+  });
+});
+
+describe('the CRS a grid without one is read in', () => {
+  it('takes a corner that cannot be degrees as metres', () => {
+    expect(asciiCornerInMetres('ncols 2\nnrows 2\nxllcorner 7.1\nyllcorner 46.2\n')).toBe(false);
+    expect(asciiCornerInMetres('ncols 2\nnrows 2\nxllcorner -179.5\nyllcenter -89\n')).toBe(false);
+    expect(asciiCornerInMetres('ncols 2\nnrows 2\nxllcorner 512000\nyllcorner 5100000\n')).toBe(
+      true,
+    );
+    expect(asciiCornerInMetres('NCOLS 2\nXLLCENTER 300000.5\nYLLCENTER 12.5\n')).toBe(true);
+    // No corner at all: not metres (the reader then reports the header).
+    expect(asciiCornerInMetres('ncols 2\nnrows 2\n')).toBe(false);
+  });
+
+  it('names the WGS 84 / UTM zone of a point', () => {
+    // Zone = floor((lon + 180) / 6) + 1; EPSG 326zz north, 327zz south; zone 32 is widened over
+    // south-west Norway (56–64° N, 3–12° E). // common practice
+    expect(utmZoneEpsg({ lat: 46.2, lon: 7.1 })).toBe(32632);
+    expect(utmZoneEpsg({ lat: -33.9, lon: 18.4 })).toBe(32734);
+    expect(utmZoneEpsg({ lat: 60.4, lon: 5.3 })).toBe(32632);
+    expect(utmZoneEpsg({ lat: 0.5, lon: -179.9 })).toBe(32601);
   });
 });
