@@ -347,8 +347,8 @@ function evaluate(
       ? false
       : v.guidance === 'passive'
         ? miss <= tol
-        : ring
-          ? inRing(ring, site, tol)
+        : ctx.ground
+          ? ring !== null && inRing(ring, site, tol)
           : miss <= reach + tol,
     ellipse50: geoEllipse(frame, stats.ellipse50),
     ellipse95: geoEllipse(frame, stats.ellipse95),
@@ -426,6 +426,13 @@ function groundedSite(
       site: s,
       ground: { elevation_m: s.elevation_m, source: 'plan-ground', terrain_m: null },
     };
+  }
+  if (!(h < ctx.top_m - 1)) {
+    // The plan's checks compare typed elevations with the release; the model's are checked here.
+    throw new Error(
+      `${model.name}: the ground at site ${s.id} is ${r1(h)} m MSL, not below the release ` +
+        `altitude ${r1(ctx.top_m)} m MSL; raise the release or type the site's elevation`,
+    );
   }
   return {
     site: { ...s, elevation_m: h },
@@ -515,26 +522,58 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
   };
 }
 
-/** Hidden sites and descents that left the model, in words. */
+/** Most sites a terrain warning names (the rest are counted). */
+const WARN_SITES = 20;
+
+/**
+ * Hidden sites, descents that left the model and reach areas that did not meet known ground, in
+ * words: one warning per kind, naming at most WARN_SITES sites (each with its variants) and
+ * counting the rest.
+ */
 function terrainWarnings(name: string, sites: SiteResult[]): string[] {
-  const out: string[] = [];
+  const hidden: string[] = [];
+  const off: string[] = [];
+  const noReach: string[] = [];
   for (const s of sites) {
+    const h: string[] = [];
+    const o: string[] = [];
+    const n: string[] = [];
     for (const r of s.byVariant) {
       const t = r.terrain;
       if (!t) continue;
       if (t.hiddenBy) {
-        out.push(
-          `site ${s.id}, ${r.variant}: hidden by higher ground — the descent aimed at it meets ` +
-            `the ground ${r1(t.hiddenBy.aboveSite_m)} m above the site, ${r1(t.hiddenBy.fromSite_m)} m from it`,
+        h.push(
+          `${r.variant}: ground ${r1(t.hiddenBy.aboveSite_m)} m above the site, ` +
+            `${r1(t.hiddenBy.fromSite_m)} m from it`,
         );
       }
-      if (t.offTerrain > 0) {
-        out.push(
-          `site ${s.id}, ${r.variant}: ${r1(t.offTerrain * 100)} % of the descents met no known ` +
-            `ground in ${name} (nodata or outside it); they count as misses`,
-        );
+      if (t.offTerrain > 0) o.push(`${r.variant} ${r1(t.offTerrain * 100)} %`);
+      if (r.guidance !== 'passive' && r.reachRadius_m > 0 && t.reachPolygon === null) {
+        n.push(r.variant);
       }
     }
+    if (h.length) hidden.push(`${s.id} (${h.join('; ')})`);
+    if (o.length) off.push(`${s.id} (${o.join(', ')})`);
+    if (n.length) noReach.push(`${s.id} (${n.join(', ')})`);
+  }
+  const list = (xs: string[]): string =>
+    xs.slice(0, WARN_SITES).join(', ') +
+    (xs.length > WARN_SITES ? ` and ${xs.length - WARN_SITES} more sites` : '');
+  const out: string[] = [];
+  if (hidden.length) {
+    out.push(
+      `hidden by higher ground — the descent aimed at the site meets the ground first: ${list(hidden)}`,
+    );
+  }
+  if (off.length) {
+    out.push(
+      `descents that met no known ground in ${name} (nodata or outside it) count as misses: ${list(off)}`,
+    );
+  }
+  if (noReach.length) {
+    out.push(
+      `reach area not known (a steered glide met no known ground in ${name}); counted not reachable: ${list(noReach)}`,
+    );
   }
   return out;
 }

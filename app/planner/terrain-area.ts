@@ -20,7 +20,8 @@ export const MAX_TERRAIN_MARGIN_M = 30_000;
  * the fall time bound T = H / (0.6 · slowest sea-level descent rate) over the fall height H from
  * the release to 100 m below the lowest site, times the strongest wind plus three standard
  * deviations of wind error plus the gust (set, else 1.5 m/s), plus the farthest glide cot γ · H,
- * the forward throw (carrier speed × 2 s) and 200 m; at most MAX_TERRAIN_MARGIN_M.
+ * the forward throw and the carrier's track checked beyond the windows (carrier speed × 32 s)
+ * and 200 m; at most MAX_TERRAIN_MARGIN_M.
  */
 export function terrainMargin_m(plan: Plan): number {
   const ground = plan.groundElevation_m;
@@ -39,7 +40,7 @@ export function terrainMargin_m(plan: Plan): number {
       v.guidance === 'passive' ? 0 : h / Math.tan(v.glideAngle_deg * DEG),
     ),
   );
-  const m = (wind + spread) * t + glide + 2 * plan.carrier.groundSpeed_mps + 200;
+  const m = (wind + spread) * t + glide + 32 * plan.carrier.groundSpeed_mps + 200;
   return Math.min(MAX_TERRAIN_MARGIN_M, m);
 }
 

@@ -7,6 +7,7 @@ import {
   firstCrossing,
   type FlightSetup,
   type FlightTerrain,
+  type LocalBox,
   LocalFrame,
   MIN_REACH_RAYS,
   nominalPath,
@@ -35,6 +36,8 @@ const LOWEST_GROUND_M = -500;
 export const ELEVATION_NOTICE_M = 5;
 /** Points of a fall profile (≤ 121). */
 const PROFILE_POINTS = 121;
+/** The carrier's track is checked this long before the first window and after the last, s. */
+export const TRACK_MARGIN_S = 30;
 /** Most points along the carrier's track. */
 const MAX_TRACK_POINTS = 2001;
 
@@ -42,6 +45,8 @@ const MAX_TRACK_POINTS = 2001;
 export interface PlanGround {
   model: ElevationModel;
   ground: TerrainGround;
+  /** the local box the ground was built for (terrainLocalBox) */
+  box: LocalBox;
 }
 
 // The last ground built per model: re-plans of the same area reuse it (building one scans the grid).
@@ -52,10 +57,10 @@ export function planGround(plan: Plan, frame: LocalFrame, model: ElevationModel)
   const box = terrainLocalBox(plan, frame);
   const key = [frame.center.lat, frame.center.lon, box.xMin, box.yMin, box.xMax, box.yMax].join();
   const hit = grounds.get(model);
-  if (hit && hit.key === key) return { model, ground: hit.ground };
+  if (hit && hit.key === key) return { model, ground: hit.ground, box };
   const ground = model.localGround(frame, box);
   grounds.set(model, { key, ground });
-  return { model, ground };
+  return { model, ground, box };
 }
 
 /**
@@ -239,12 +244,20 @@ export function planTerrain(
       t0 = Math.min(t0, a);
       t1 = Math.max(t1, b);
     }
-    t0 -= 30;
-    t1 += 30;
+    t0 -= TRACK_MARGIN_S;
+    t1 += TRACK_MARGIN_S;
+    // Only the part of the track inside the area the model was read for (terrainLocalBox).
+    const b = pg.box;
+    const inside = (d: number): boolean => {
+      const x = unit.x * d;
+      const y = unit.y * d;
+      return x >= b.xMin && x <= b.xMax && y >= b.yMin && y <= b.yMax;
+    };
     const len = (t1 - t0) * speed;
     const n = Math.max(2, Math.min(MAX_TRACK_POINTS, Math.ceil(len / pg.ground.cell_m) + 1));
     for (let i = 0; i < n; i++) {
       const d = (t0 + ((t1 - t0) * i) / (n - 1)) * speed;
+      if (!inside(d)) continue;
       const p = frame.toLatLon(unit.x * d, unit.y * d);
       carrier.push({ ...p, ground_m: model.sample(p), kind: 'track' });
     }

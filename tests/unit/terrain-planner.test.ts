@@ -463,6 +463,23 @@ describe('a flat elevation model', () => {
     },
     SLOW,
   );
+
+  it('refuses a model whose ground at an untyped site is not below the release, naming both', () => {
+    // The demo's release is 110 m above its 89 m plan ground, 199 m MSL: ground at 250 m under
+    // a site without a typed elevation cannot be flown to (direct comparison).
+    const file: PlanFile = {
+      ...flatFile,
+      sites: flatFile.sites.map((s, i) => {
+        const copy = { ...s };
+        if (i === 0) delete copy.elevation_m;
+        return copy;
+      }),
+    };
+    const high = geoDem('high-250.asc', grow(area, 0.002), 120, 120, () => 250);
+    expect(() => planDrop(resolve(file), { terrain: high })).toThrow(
+      /high-250\.asc: the ground at site \S+ is 250 m MSL, not below the release altitude/,
+    );
+  });
 });
 
 describe('a ridge between the release and a site', () => {
@@ -562,6 +579,14 @@ describe('a model that does not serve the plan', () => {
       expect(Math.max(...onFlat.byVariant.map((v) => v.pHit))).toBeGreaterThan(0.5);
       expect(site.meetsRequired).toBe(false);
       expect(result.warnings.some((w) => w.includes(s6.id))).toBe(true);
+      // A steered glide into the hole leaves the reach area unknown: not reachable, with a
+      // warning, never the level-ground circle.
+      for (const vr of site.byVariant.filter((v) => v.guidance !== 'passive')) {
+        expect(vr.reachPolygon).toBeNull();
+        expect(vr.reachable).toBe(false);
+      }
+      const unknown = result.warnings.find((w) => w.startsWith('reach area not known'));
+      expect(unknown).toContain(s6.id);
       // A site away from the hole is untouched.
       const far = result.sites.find((s) => s.id === 's11') as SiteResult;
       expect(far.byVariant.every((v) => v.terrain?.offTerrain === 0)).toBe(true);
