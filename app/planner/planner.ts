@@ -297,7 +297,12 @@ function evaluate(
     const aimed = aimedPath(su, rel, site, flatNominal, prog);
     const aimedHit = crossing(su, aimed);
     const siteGround = ctx.ground.ground.height(site.x, site.y) ?? s.elevation_m;
-    const hiddenAt = hiddenBy(frame, aimedHit, site, siteGround, tol);
+    // Hidden only when the aimed descent would pass over the site at its level: a descent that
+    // misses the site anyway (out of reach, a passive release off the best line) is not hidden.
+    const atLevel = new Float64Array(2);
+    aimed(s.elevation_m, atLevel);
+    const aimedAtSite = Math.hypot(atLevel[0] - site.x, atLevel[1] - site.y) <= tol;
+    const hiddenAt = aimedAtSite ? hiddenBy(frame, aimedHit, site, siteGround, tol) : undefined;
     hidden = hiddenAt !== undefined;
     const reachPolygon = ring ? geoPolygon(frame, ring) : null;
     terrainPart = {
