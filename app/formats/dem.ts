@@ -58,6 +58,17 @@ export class DemError extends Error {
   }
 }
 
+/**
+ * A file that does not hold the area asked for (does not cover it, or would need more cells than
+ * the limit): a smaller area may still be read from it, unlike any other DemError.
+ */
+export class DemAreaError extends DemError {
+  constructor(file: string, what: string) {
+    super(file, what);
+    this.name = 'DemAreaError';
+  }
+}
+
 /** Largest window (cells) a reader keeps in memory: 4000 × 4000 Float32 = 64 MB. */
 export const MAX_DEM_CELLS = 16_000_000;
 /** Cells kept beyond the requested box on every side, so bilinear sampling at its edge has neighbours. */
@@ -193,7 +204,7 @@ export function windowFor(g: GridGeometry, box: LatLonBox, maxCells = MAX_DEM_CE
   const cy0 = gy1 + g.dy / 2;
   const cy1 = g.y0 - g.dy / 2;
   if (xMin < cx0 || xMax > cx1 || yMin < cy0 || yMax > cy1) {
-    throw new DemError(
+    throw new DemAreaError(
       g.file,
       notCoveredText(conv, box, { xMin, xMax, yMin, yMax }, { cx0, cx1, cy0, cy1 }),
     );
@@ -204,7 +215,7 @@ export function windowFor(g: GridGeometry, box: LatLonBox, maxCells = MAX_DEM_CE
   const row1 = Math.min(g.rows - 1, Math.floor((g.y0 - yMin) / g.dy - 0.5) + 1 + DEM_MARGIN_CELLS);
   const w: GridWindow = { col0, row0, cols: col1 - col0 + 1, rows: row1 - row0 + 1 };
   if (w.cols * w.rows > maxCells) {
-    throw new DemError(
+    throw new DemAreaError(
       g.file,
       `the plan area needs ${w.cols} × ${w.rows} = ${w.cols * w.rows} cells, more than the ` +
         `limit of ${maxCells}; use a coarser model or a smaller plan area`,

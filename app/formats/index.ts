@@ -65,6 +65,7 @@ export {
   crsConverter,
   Dem,
   DEM_MARGIN_CELLS,
+  DemAreaError,
   DemError,
   type DemGrid,
   type GridGeometry,

@@ -5,6 +5,7 @@
 import {
   asciiCornerInMetres,
   blobSource,
+  DemAreaError,
   type DemGrid,
   type DemRead,
   type LatLonBox,
@@ -96,8 +97,9 @@ self.onmessage = async (ev: MessageEvent<DemRequest>) => {
         r = await read(req, b, text);
         break;
       } catch (e) {
-        // A larger area may pass the cell limit or the file's edge: a smaller one may not.
-        if (i === req.boxes.length - 1) throw e;
+        // A larger area may pass the cell limit or the file's edge: a smaller one may not. Any
+        // other fault (a damaged file, an unknown CRS) is the same for every area.
+        if (i === req.boxes.length - 1 || !(e instanceof DemAreaError)) throw e;
       }
     }
     if (!r) throw new Error('nothing was read');

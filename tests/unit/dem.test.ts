@@ -23,7 +23,14 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 
 // GDAL runs as child processes; on two loaded cores they may take a while (no timing is asserted).
 vi.setConfig({ testTimeout: 60_000, hookTimeout: 60_000 });
-import { type ByteSource, Dem, DemError, type LatLonBox, readGeoTiffDem } from '../../app/formats';
+import {
+  type ByteSource,
+  Dem,
+  DemAreaError,
+  DemError,
+  type LatLonBox,
+  readGeoTiffDem,
+} from '../../app/formats';
 import { LocalFrame, Rng } from '../../app/model';
 import { expectClose, geodesicDistance_m } from './helpers';
 
@@ -345,6 +352,11 @@ describe('Hostile GeoTIFFs', () => {
       (e: unknown) => e,
     );
     expect(err).toBeInstanceOf(DemError);
+    // Only an area the file does not hold is an area error (a smaller area may still be read).
+    const areaFault = parts.some((p) =>
+      /does not cover|covers only part|cells, more than/.test(p.source),
+    );
+    expect(err instanceof DemAreaError).toBe(areaFault);
     const msg = (err as Error).message;
     expect(msg.startsWith('hostile.tif: ')).toBe(true);
     for (const p of parts) expect(msg).toMatch(p);
