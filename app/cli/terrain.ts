@@ -58,7 +58,7 @@ function readAt(fd: number, offset: number, length: number): Promise<ArrayBuffer
 }
 
 /** A ByteSource over an open file: each read fetches only its own byte range. */
-export function fdSource(fd: number, size: number): ByteSource {
+function fdSource(fd: number, size: number): ByteSource {
   return { size, read: (offset, length) => readAt(fd, offset, length) };
 }
 

@@ -108,6 +108,7 @@ function* prepare(dem: Dem, units: TerrainUnits): Steps<Drawn> {
     const merc = new Float64Array(2 * n);
     const box: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
     for (let i = 0; i < n; i++) {
+      // Grid coordinates (cell-centre units, see ContourLine) to the grid's CRS, then Mercator.
       toMerc(
         g.x0 + (line.xy[2 * i] + 0.5) * g.dx,
         g.y0 - (line.xy[2 * i + 1] + 0.5) * g.dy,

@@ -250,11 +250,6 @@ export interface ContourLine {
   xy: Float64Array;
 }
 
-/** CRS coordinates of a point in grid coordinates (cell centre units, see ContourLine). */
-export function gridToCrs(g: ShadeGrid, x: number, y: number): { x: number; y: number } {
-  return { x: g.x0 + (x + 0.5) * g.dx, y: g.y0 - (y + 0.5) * g.dy };
-}
-
 /**
  * Contour lines of a grid by marching squares over the cells' centres (linear interpolation
  * along each side; a saddle decided by the mean of its four corners), joined into polylines.

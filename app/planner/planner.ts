@@ -15,6 +15,7 @@ import {
   magneticHeading,
   nominalPath,
   passiveOffset,
+  pathTimeAt,
   type Programme,
   reachRadius,
   Rng,
@@ -49,7 +50,6 @@ import {
   crossing,
   ELEVATION_NOTICE_M,
   fallProfile,
-  fallTimeTo,
   flightTerrain,
   geoPolygon,
   hiddenBy,
@@ -291,7 +291,7 @@ function evaluate(
     const open = crossing(su, nominalPath(su, rel));
     if (open) {
       nominal = { x: open.x, y: open.y };
-      fallTime_s = fallTimeTo(su, open.z);
+      fallTime_s = pathTimeAt(su, open.z);
     }
     ring = reachRing(su, rel);
     const aimed = aimedPath(su, rel, site, flatNominal, prog);

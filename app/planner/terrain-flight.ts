@@ -12,7 +12,6 @@ import {
   MIN_REACH_RAYS,
   nominalPath,
   type PathAt,
-  pathTimeAt,
   type Programme,
   type TerrainGround,
   type Vec,
@@ -214,11 +213,6 @@ export function hiddenBy(
   if (!(aboveSite_m > 1 && fromSite_m > tol_m)) return undefined;
   const p = frame.toLatLon(hit.x, hit.y);
   return { lat: p.lat, lon: p.lon, ground_m: hit.z, aboveSite_m, fromSite_m };
-}
-
-/** Nominal time to the altitude where a descent met the ground, s. */
-export function fallTimeTo(su: FlightSetup, z: number): number {
-  return pathTimeAt(su, z);
 }
 
 /**
