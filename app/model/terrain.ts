@@ -486,17 +486,32 @@ export class GridGround implements TerrainGround {
     return b[0] + b[1] * x + b[2] * y + b[3] * x * x + b[4] * x * y + b[5] * y * y;
   }
 
-  height(x_m: number, y_m: number): number | null {
+  // The cell of the last `locate`: index of its north-west centre and the fractions east/south.
+  private lk = 0;
+  private lfx = 0;
+  private lfy = 0;
+
+  /** Finds the patch under a point (sets lk, lfx, lfy); false outside the cell centres. */
+  private locate(x_m: number, y_m: number): boolean {
     const c = this.colOf(x_m, y_m);
     const r = this.rowOf(x_m, y_m);
     const cols = this.cols;
-    if (!(c >= 0 && r >= 0 && c <= cols - 1 && r <= this.rows - 1)) return null;
+    if (!(c >= 0 && r >= 0 && c <= cols - 1 && r <= this.rows - 1)) return false;
     const i = Math.min(Math.floor(c), cols - 2);
     const j = Math.min(Math.floor(r), this.rows - 2);
-    const fx = c - i;
-    const fy = r - j;
+    this.lk = j * cols + i;
+    this.lfx = c - i;
+    this.lfy = r - j;
+    return true;
+  }
+
+  height(x_m: number, y_m: number): number | null {
+    if (!this.locate(x_m, y_m)) return null;
+    const fx = this.lfx;
+    const fy = this.lfy;
     const v = this.values;
-    const k = j * cols + i;
+    const k = this.lk;
+    const cols = this.cols;
     const v00 = v[k];
     const v10 = v[k + 1];
     const v01 = v[k + cols];
@@ -528,40 +543,30 @@ export class GridGround implements TerrainGround {
    * bilinear patch at a point; null where `height` is null.
    */
   heightGrad(x_m: number, y_m: number, grad: Float64Array): number | null {
-    const a = this.map.col;
-    const b = this.map.row;
-    const c =
-      a[0] + a[1] * x_m + a[2] * y_m + a[3] * x_m * x_m + a[4] * x_m * y_m + a[5] * y_m * y_m;
-    const r =
-      b[0] + b[1] * x_m + b[2] * y_m + b[3] * x_m * x_m + b[4] * x_m * y_m + b[5] * y_m * y_m;
-    const cols = this.cols;
-    if (!(c >= 0 && r >= 0 && c <= cols - 1 && r <= this.rows - 1)) return null;
-    const i = Math.min(Math.floor(c), cols - 2);
-    const j = Math.min(Math.floor(r), this.rows - 2);
-    const fx = c - i;
-    const fy = r - j;
+    grad[0] = 0;
+    grad[1] = 0;
+    const h = this.height(x_m, y_m);
+    if (h === null) return null;
+    const fx = this.lfx;
+    const fy = this.lfy;
     const v = this.values;
-    const k = j * cols + i;
+    const k = this.lk;
+    const cols = this.cols;
     const v00 = v[k];
     const v10 = v[k + 1];
     const v01 = v[k + cols];
     const v11 = v[k + cols + 1];
     const nd = this.nodata;
-    const ok00 = v00 === v00 && v00 !== nd;
-    const ok10 = v10 === v10 && v10 !== nd;
-    const ok01 = v01 === v01 && v01 !== nd;
-    const ok11 = v11 === v11 && v11 !== nd;
-    if (!(ok00 && ok10 && ok01 && ok11)) {
-      // An unknown corner: the edge rules of `height`, and a level gradient.
-      grad[0] = 0;
-      grad[1] = 0;
-      return this.height(x_m, y_m);
-    }
+    // An unknown corner (zero weight, or `height` would be null): a level gradient.
+    if (v00 !== v00 || v10 !== v10 || v01 !== v01 || v11 !== v11) return h;
+    if (v00 === nd || v10 === nd || v01 === nd || v11 === nd) return h;
+    const a = this.map.col;
+    const b = this.map.row;
     const hc = (1 - fy) * (v10 - v00) + fy * (v11 - v01);
     const hr = (1 - fx) * (v01 - v00) + fx * (v11 - v10);
     grad[0] = hc * (a[1] + 2 * a[3] * x_m + a[4] * y_m) + hr * (b[1] + 2 * b[3] * x_m + b[4] * y_m);
     grad[1] = hc * (a[2] + a[4] * x_m + 2 * a[5] * y_m) + hr * (b[2] + b[4] * x_m + 2 * b[5] * y_m);
-    return (1 - fy) * ((1 - fx) * v00 + fx * v10) + fy * ((1 - fx) * v01 + fx * v11);
+    return h;
   }
 
   /**
