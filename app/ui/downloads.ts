@@ -8,7 +8,7 @@ import type { PlanStore } from './plan-store';
 export type ExportKind = 'geojson' | 'kml' | 'gpx' | 'csv' | 'sites';
 
 /** A file name from a plan name: letters, digits, dots and dashes only. */
-function fileBase(name: unknown): string {
+export function fileBase(name: unknown): string {
   return (
     String(name ?? 'plan')
       .replace(/[^\w.-]+/g, '-')
@@ -17,7 +17,7 @@ function fileBase(name: unknown): string {
 }
 
 /** Hands text to the browser as a file download. */
-function download(text: string, type: string, name: string): void {
+export function download(text: string, type: string, name: string): void {
   const a = document.createElement('a');
   a.href = URL.createObjectURL(new Blob([text], { type }));
   a.download = name;

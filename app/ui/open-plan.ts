@@ -3,29 +3,22 @@ import { MAX_PLAN_BYTES, validatePlan } from '../plan';
 import type { PlanStore } from './plan-store';
 
 /**
- * Replaces the plan with the chosen JSON file (one undo step), or leaves the plan as it is and
- * says why in the notice. Files over MAX_PLAN_BYTES are refused unread; a UTF-8 byte-order mark is
- * skipped, as the CLI does.
+ * A plan file checked as hostile input: its JSON when it validates, or why not (naming the file's
+ * problems). Files over MAX_PLAN_BYTES are refused unread; a UTF-8 byte-order mark is skipped, as
+ * the CLI does. Open and the plan library's Import both use it.
  */
-export async function openPlanFile(s: PlanStore, file: File | undefined): Promise<void> {
-  if (!file) return;
+export async function readPlanFile(
+  file: File,
+): Promise<{ ok: true; raw: Record<string, unknown> } | { ok: false; why: string }> {
   if (file.size > MAX_PLAN_BYTES) {
     const mib = MAX_PLAN_BYTES / 1024 / 1024;
-    s.setNotice(
-      'error',
-      `${file.name} was not opened: it is larger than ${mib} MiB, more than any plan needs. Your plan is unchanged.`,
-    );
-    return;
+    return { ok: false, why: `it is larger than ${mib} MiB, more than any plan needs.` };
   }
   let raw: unknown;
   try {
     raw = JSON.parse((await file.text()).replace(/^\uFEFF/, ''));
   } catch (err) {
-    s.setNotice(
-      'error',
-      `${file.name} was not opened: it is not JSON (${(err as Error).message}). Your plan is unchanged.`,
-    );
-    return;
+    return { ok: false, why: `it is not JSON (${(err as Error).message}).` };
   }
   const v = validatePlan(raw);
   if (!v.ok) {
@@ -34,8 +27,18 @@ export async function openPlanFile(s: PlanStore, file: File | undefined): Promis
       .map((x) => x.message)
       .join('; ');
     const more = v.errors.length > 4 ? ` and ${v.errors.length - 4} more` : '';
-    s.setNotice('error', `${file.name} was not opened: ${first}${more}. Your plan is unchanged.`);
+    return { ok: false, why: `${first}${more}.` };
+  }
+  return { ok: true, raw: raw as Record<string, unknown> };
+}
+
+/** Replaces the plan with the chosen JSON file (one undo step), or leaves it and says why. */
+export async function openPlanFile(s: PlanStore, file: File | undefined): Promise<void> {
+  if (!file) return;
+  const r = await readPlanFile(file);
+  if (!r.ok) {
+    s.setNotice('error', `${file.name} was not opened: ${r.why} Your plan is unchanged.`);
     return;
   }
-  s.replace(raw as Record<string, unknown>, `Opened ${file.name}.`);
+  s.replace(r.raw, `Opened ${file.name}.`);
 }

@@ -4,6 +4,7 @@ import { parseCoordinate } from '../model';
 import { allowedRange, type Plan, type PlanIssue, validatePlan } from '../plan';
 import type { PlanSafety } from '../safety';
 import type { PlanResult, SweepPoint, TimelineEntry } from '../planner';
+import { LibraryLink } from './library-link';
 import { getAt, setAt } from './paths';
 import { PlanHistory } from './plan-history';
 import { PlanningRun } from './planning-run';
@@ -80,6 +81,9 @@ export class PlanStore extends EventTarget {
 
   /** Opens, keeps and re-reads the elevation model file (started with the planning worker). */
   readonly terrain = new TerrainLoader(this);
+
+  /** The plan library: which plan is being edited, where autosave writes (library-link.ts). */
+  readonly library = new LibraryLink(this);
 
   private history: PlanHistory;
   private readonly run = new PlanningRun(this, () => this.emit());
@@ -242,6 +246,20 @@ export class PlanStore extends EventTarget {
     this.changed(0);
   }
 
+  /**
+   * Starts editing another plan of the library: its own undo history from here (undo never
+   * crosses into another plan), no typed text or results of the one before.
+   */
+  loadPlan(draft: Draft): void {
+    this.texts.clear();
+    this.draft = withTime(draft);
+    this.history = new PlanHistory(JSON.stringify(this.draft));
+    this.sweep = null;
+    this.timeline = null;
+    this.selectSite(null);
+    this.changed(0);
+  }
+
   /** Makes the current plan an undo step (after transient edits). */
   commit(): void {
     this.history.commit(JSON.stringify(this.draft));
@@ -307,6 +325,15 @@ export class PlanStore extends EventTarget {
     this.dispatchEvent(new CustomEvent<string | null>('select-site', { detail: id }));
   }
 
+  /**
+   * Selects a site and tells the views even when it was selected already: its details view opens
+   * and takes the focus (Enter on the map).
+   */
+  openSite(id: string): void {
+    this.selected = id;
+    this.dispatchEvent(new CustomEvent<string | null>('select-site', { detail: id }));
+  }
+
   /** Writes the draft to storage now (page hide). */
   flush(): void {
     clearTimeout(this.saveTimer);
@@ -360,6 +387,7 @@ export class PlanStore extends EventTarget {
 
   /** Starts the planning worker made by make(); a worker that cannot be made is reported. */
   startWorker(make: () => Worker): void {
+    this.library.start(this.storage);
     this.terrain.start();
     if (this.run.start(make)) this.changed(0);
   }
@@ -404,13 +432,18 @@ export class PlanStore extends EventTarget {
 
   /** Autosave: a failure keeps the edit in memory and stands in saveError until a save works. */
   private writeDraft(): void {
-    if (this.holdSave || !this.storage.storage) return;
-    let err: unknown;
+    if (this.holdSave) return;
+    let text: string | null = null;
+    let err: unknown = null;
     try {
-      err = this.storage.write(DRAFT_KEY, JSON.stringify(this.draft));
+      text = JSON.stringify(this.draft);
     } catch (e) {
       err = e; // a draft that cannot be written as JSON
     }
+    // The plan library takes it (library-link.ts); without one, the single autosave of old.
+    if (text !== null && this.library.save(text)) return;
+    if (!this.storage.storage) return;
+    if (text !== null) err = this.storage.write(DRAFT_KEY, text);
     const before = this.saveError;
     this.saveError =
       err === null

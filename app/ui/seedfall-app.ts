@@ -20,6 +20,7 @@ import './sf-sites-panel';
 import './sf-variants-panel';
 import './sf-wind-panel';
 import './sf-wind-sources';
+import './plan-library';
 
 type Tab = 'results' | 'safety' | 'plan' | 'winds' | 'sites' | 'variants' | 'settings';
 const TABS: [Tab, string][] = [
@@ -261,6 +262,8 @@ export class SeedfallApp extends LitElement {
       <header>
         <h1>Seedfall</h1>
         <span class="plan-name">${String(s.get('name') ?? 'Untitled plan')}</span>
+        <button data-testid="open-library" @click=${() => s.library.showView()}>Plans…</button>
+        <sf-plan-library .store=${s}></sf-plan-library>
         <label
           ><input
             type="file"

@@ -136,6 +136,13 @@ export function renderStatus(s: PlanStore): TemplateResult[] {
   }
   if (s.workerError)
     parts.push(html`<span class="notice-error">Planning failed: ${s.workerError}</span>`);
+  if (s.library.quotaWarning) {
+    parts.push(
+      html`<span class="notice-error" data-testid="quota-warning" role="status"
+        >${s.library.quotaWarning}</span
+      >`,
+    );
+  }
   if (s.notice) {
     parts.push(
       html`<span

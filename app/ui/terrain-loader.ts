@@ -1,7 +1,7 @@
 /**
  * Brings an elevation model file to the planner: reads the window about the plan area in the
- * DEM worker, hands the model to the store (store.dem), keeps the file in IndexedDB for the next
- * visit, and reads it again when an edit moves the plan area out of the window read.
+ * DEM worker, hands the model to the store (store.dem), keeps the file in IndexedDB with the plan
+ * being edited (the plan library) for the next visit, and reads it again when an edit moves the plan area out of the window read.
  */
 import { Dem, type LatLonBox, utmZoneEpsg } from '../formats';
 import type { Plan } from '../plan';
@@ -9,13 +9,7 @@ import { sweepHeightsAGL, terrainArea } from '../planner';
 import type { DemReply, DemRequest } from '../worker';
 import type { PlanStore } from './plan-store';
 import { errorText } from './safe-storage';
-import {
-  forgetTerrain,
-  hasTerrainStorage,
-  loadTerrain,
-  storeTerrain,
-  terrainStorageWhy,
-} from './terrain-store';
+import { hasTerrainStorage, terrainStorageWhy } from './terrain-store';
 
 /** What the last read took from the file (shown in the Terrain section). */
 export interface TerrainInfo {
@@ -105,12 +99,24 @@ export class TerrainLoader {
 
   constructor(private readonly store: PlanStore) {}
 
-  /** Listens for plan edits and brings back the model kept in the browser (once). */
+  /** Listens for plan edits and brings back the model kept with the plan (once the library is open). */
   start(): void {
     if (this.started) return;
     this.started = true;
     this.store.addEventListener('change', () => this.planChanged());
-    void this.restore();
+    void this.store.library.ready.then(() => this.restore());
+  }
+
+  /** Another plan of the library is being edited: the model kept with it (or none) comes in. */
+  async switchPlan(): Promise<void> {
+    this.lastId++; // a read under way belongs to the plan before
+    clearTimeout(this.timer);
+    this.kept = null;
+    this.readBox = null;
+    this.info = null;
+    this.triedArea = '';
+    this.store.setTerrain(null, { name: '', state: 'none' });
+    await this.restore();
   }
 
   /** The name of the file in use, or '' with none. */
@@ -127,7 +133,7 @@ export class TerrainLoader {
       return;
     }
     try {
-      await storeTerrain({ name, file, savedAt: new Date().toISOString() });
+      await this.store.library.putDem({ name, file, savedAt: new Date().toISOString() });
     } catch (e) {
       this.storageFailed(name, e);
     }
@@ -146,7 +152,7 @@ export class TerrainLoader {
     if (this.store.get('terrain') !== undefined) this.store.edit('terrain', undefined);
     if (!hasTerrainStorage()) return;
     try {
-      await forgetTerrain();
+      await this.store.library.deleteDem();
     } catch (e) {
       this.store.setNotice(
         'error',
@@ -159,16 +165,17 @@ export class TerrainLoader {
 
   private async restore(): Promise<void> {
     if (!hasTerrainStorage()) return;
+    const before = this.lastId;
     let t;
     try {
-      t = await loadTerrain();
+      t = await this.store.library.getDem();
     } catch (e) {
       const message = `The elevation model kept in this browser could not be read: ${terrainStorageWhy(e)}.`;
       this.store.notice = { kind: 'error', text: message };
       this.store.setTerrain(this.store.dem, { name: '', state: 'error', message });
       return;
     }
-    if (!t || this.kept || this.lastId > 0) return; // nothing kept, or a file was opened meanwhile
+    if (!t || this.kept || this.lastId !== before) return; // nothing kept, or a file was opened meanwhile
     this.kept = { name: t.name, file: t.file };
     const named = this.store.plan?.terrain?.file;
     if (named && baseName(named) !== t.name) {

@@ -1,15 +1,15 @@
 /**
- * The elevation model file kept in the browser (IndexedDB) so it comes back with the autosaved
- * plan on the next visit and works offline. One file is kept — the one in use — so storage
- * never grows past one model; opening another replaces it.
+ * The elevation model file kept in the browser with the plan that uses it (the plan library's
+ * `dems` store, keyed by plan id: library-store.ts), so it comes back with the plan on the next
+ * visit and works offline. One file per plan; opening another replaces it. Before the library,
+ * one file was kept in its own database: the migration reads it once (loadOldTerrain).
  */
 import { errorText } from './safe-storage';
 
-const DB_NAME = 'seedfall-terrain';
-const DB_VERSION = 1;
-const STORE = 'files';
-/** The one record's key. */
-const CURRENT = 'current';
+/** The database of the single kept model before the plan library. */
+const OLD_DB_NAME = 'seedfall-terrain';
+const OLD_STORE = 'files';
+const OLD_KEY = 'current';
 
 /** What is kept: the file's bytes and how to read them again. */
 export interface StoredTerrain {
@@ -30,67 +30,71 @@ export function terrainStorageWhy(e: unknown): string {
   return `the browser refused to store it (${errorText(e)})`;
 }
 
-function open(): Promise<IDBDatabase> {
-  return new Promise((resolve, reject) => {
-    let req: IDBOpenDBRequest;
-    try {
-      if (typeof indexedDB === 'undefined') throw new Error('this browser has no IndexedDB');
-      req = indexedDB.open(DB_NAME, DB_VERSION);
-    } catch (e) {
-      reject(e instanceof Error ? e : new Error(String(e)));
-      return;
-    }
-    req.onupgradeneeded = () => {
-      if (!req.result.objectStoreNames.contains(STORE)) req.result.createObjectStore(STORE);
-    };
-    req.onsuccess = () => resolve(req.result);
-    req.onerror = () => reject(req.error ?? new Error('IndexedDB could not be opened'));
-    req.onblocked = () => reject(new Error('IndexedDB is held by another tab of this app'));
-  });
-}
-
-/** Runs one request in a transaction; resolves once the transaction has committed. */
-async function run<T>(
-  mode: IDBTransactionMode,
-  op: (s: IDBObjectStore) => IDBRequest<T>,
-): Promise<T> {
-  const db = await open();
-  try {
-    return await new Promise<T>((resolve, reject) => {
-      const tx = db.transaction(STORE, mode);
-      const req = op(tx.objectStore(STORE));
-      tx.oncomplete = () => resolve(req.result);
-      tx.onerror = () => reject(tx.error ?? req.error ?? new Error('the transaction failed'));
-      tx.onabort = () => reject(tx.error ?? new Error('the transaction was aborted'));
-    });
-  } finally {
-    db.close();
-  }
-}
-
-/** Keeps the file in use (replacing any earlier one); rejects with the browser's reason. */
-export async function storeTerrain(t: StoredTerrain): Promise<void> {
-  await run('readwrite', (s) => s.put(t, CURRENT));
-}
-
-/** The file kept, or null when none is; rejects when storage cannot be read. */
-export async function loadTerrain(): Promise<StoredTerrain | null> {
-  const v: unknown = await run('readonly', (s) => s.get(CURRENT));
+/** A kept model read back as hostile data: the record, or an error naming what is wrong. */
+export function checkStoredTerrain(v: unknown): StoredTerrain | null {
   if (v === undefined || v === null) return null;
   const r = v as Partial<StoredTerrain>;
   if (typeof r.name !== 'string' || !(r.file instanceof Blob)) {
     throw new Error('the kept elevation model record is damaged');
   }
   return {
-    name: r.name,
+    name: r.name.slice(0, 1000),
     file: r.file,
-    savedAt: typeof r.savedAt === 'string' ? r.savedAt : '',
+    savedAt: typeof r.savedAt === 'string' ? r.savedAt.slice(0, 40) : '',
   };
 }
 
-/** Forgets the kept file; rejects with the browser's reason. */
-export async function forgetTerrain(): Promise<void> {
-  await run('readwrite', (s) => s.delete(CURRENT));
+/**
+ * The old database when it exists (never creates it: indexedDB.databases() lists it), or null.
+ * Browsers without databases() are asked to open it; an empty one made by that is deleted.
+ */
+async function openOld(): Promise<IDBDatabase | null> {
+  if (typeof indexedDB.databases === 'function') {
+    const list = await indexedDB.databases();
+    if (!list.some((d) => d.name === OLD_DB_NAME)) return null;
+  }
+  return new Promise((resolve, reject) => {
+    const req = indexedDB.open(OLD_DB_NAME);
+    let created = false;
+    req.onupgradeneeded = () => {
+      created = true;
+    };
+    req.onsuccess = () => {
+      const db = req.result;
+      if (created || !db.objectStoreNames.contains(OLD_STORE)) {
+        db.close();
+        if (created) indexedDB.deleteDatabase(OLD_DB_NAME);
+        resolve(null);
+      } else resolve(db);
+    };
+    req.onerror = () => reject(req.error ?? new Error('IndexedDB could not be opened'));
+    req.onblocked = () => reject(new Error('IndexedDB is held by another tab of this app'));
+  });
+}
+
+/** The one model kept before the plan library, or null; rejects when it cannot be read. */
+export async function loadOldTerrain(): Promise<StoredTerrain | null> {
+  const db = await openOld();
+  if (!db) return null;
+  try {
+    const v = await new Promise<unknown>((resolve, reject) => {
+      const req = db.transaction(OLD_STORE).objectStore(OLD_STORE).get(OLD_KEY);
+      req.onsuccess = () => resolve(req.result);
+      req.onerror = () => reject(req.error ?? new Error('the kept file could not be read'));
+    });
+    return checkStoredTerrain(v);
+  } finally {
+    db.close();
+  }
+}
+
+/** Deletes the old database (after its model moved into the library); failures lose nothing. */
+export function forgetOldTerrain(): void {
+  try {
+    indexedDB.deleteDatabase(OLD_DB_NAME);
+  } catch {
+    // the copy stays where it was
+  }
 }
 
 /** True when the browser has IndexedDB at all (Node tests, some embedded views have none). */

@@ -43,6 +43,7 @@ afterEach(async () => {
 /**
  * Opens the app on a browser profile whose storage holds `items` before the page's own script
  * runs (once: a reload finds what the app left). `fill` first fills storage to its quota.
+ * IndexedDB writes fail as a full browser's do while `window.e2eFull` is true.
  */
 async function openWith(
   items: Record<string, Seed>,
@@ -54,6 +55,16 @@ async function openWith(
   });
   await context.addInitScript(
     ([seed, fill]) => {
+      const put = IDBObjectStore.prototype.put;
+      IDBObjectStore.prototype.put = function (
+        this: IDBObjectStore,
+        ...args: [unknown, IDBValidKey?]
+      ) {
+        if ((window as unknown as { e2eFull?: boolean }).e2eFull) {
+          throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+        }
+        return put.apply(this, args);
+      };
       if (localStorage.getItem('e2e.seeded') !== null) return;
       localStorage.setItem('e2e.seeded', '1');
       for (const [k, v] of Object.entries(seed)) {
@@ -93,6 +104,39 @@ async function visitEveryTab(): Promise<void> {
 const stored = (key: string) =>
   page.evaluate((k) => localStorage.getItem(k), key) as Promise<string | null>;
 
+/**
+ * The draft text autosave last wrote: the plan being edited in the plan library (IndexedDB
+ * seedfall-library, app/ui/library-store.ts), which took over from the single draft key.
+ */
+const savedDraft = () =>
+  page.evaluate(
+    () =>
+      new Promise<string | null>((resolve) => {
+        const req = indexedDB.open('seedfall-library');
+        req.onerror = () => resolve(null);
+        req.onsuccess = () => {
+          const db = req.result;
+          if (!db.objectStoreNames.contains('meta')) {
+            db.close();
+            resolve(null);
+            return;
+          }
+          const tx = db.transaction(['plans', 'meta']);
+          const cur = tx.objectStore('meta').get('current');
+          cur.onsuccess = () => {
+            if (typeof cur.result !== 'string') return;
+            const rec = tx.objectStore('plans').get(cur.result);
+            rec.onsuccess = () =>
+              resolve((rec.result as { draft?: string } | undefined)?.draft ?? null);
+          };
+          tx.oncomplete = () => {
+            db.close();
+            resolve(null);
+          };
+        };
+      }),
+  );
+
 /** Changes the release altitude through its field (an edit that autosave writes). */
 async function editAltitude(value: string): Promise<void> {
   await page.locator('[data-tab=plan]').click();
@@ -107,9 +151,8 @@ async function savedAltitude(m: number): Promise<void> {
     .poll(
       async () => {
         try {
-          return (
-            JSON.parse((await stored(DRAFT_KEY)) ?? '{}') as { release?: { altitude_m?: number } }
-          ).release?.altitude_m;
+          return (JSON.parse((await savedDraft()) ?? '{}') as { release?: { altitude_m?: number } })
+            .release?.altitude_m;
         } catch {
           return undefined;
         }
@@ -147,7 +190,7 @@ describe('a damaged saved draft', () => {
       await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
       expect(await stored(DAMAGED_KEY)).toBe(text);
       await visitEveryTab();
-      // Autosave may now write the draft key: the copy stays as it was.
+      // Autosave may now write (into the plan library): the copy stays as it was.
       await editAltitude('96');
       await savedAltitude(96);
       expect(await stored(DAMAGED_KEY)).toBe(text);
@@ -205,9 +248,11 @@ describe('a saved draft of the wrong shape', () => {
       /problems to fix/,
     );
     await expect(page.locator('[data-testid=stale]').innerText()).resolves.toMatch(/problems? in/);
-    // Nothing was replaced: the draft is still the one stored.
-    await page.waitForTimeout(500);
-    expect(JSON.parse((await stored(DRAFT_KEY)) ?? '{}')).toMatchObject({ sites: 5, name: 3 });
+    // Nothing was replaced: the draft moved into the plan library as it was stored.
+    await expect
+      .poll(async () => JSON.parse((await savedDraft()) ?? '{}') as unknown, { timeout: 30_000 })
+      .toMatchObject({ sites: 5, name: 3 });
+    await expect.poll(() => stored(DRAFT_KEY), { timeout: 30_000 }).toBeNull();
     await shot(page, 'drafts-wrong-shape');
     expect(errors).toEqual([]);
   });
@@ -266,8 +311,12 @@ describe('damaged settings', () => {
 
 describe('browser storage full', () => {
   it('autosave failure is shown and kept until a save works; the edit stays in the page', async () => {
+    // Autosave writes into the plan library (IndexedDB) since it took over from the single draft
+    // key: both storages are full here (localStorage filled, IndexedDB writes refused).
     await openWith({}, { fill: true });
     await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
+    await expect.poll(savedDraft, { timeout: 30_000 }).not.toBeNull();
+    await page.evaluate(() => ((window as unknown as { e2eFull: boolean }).e2eFull = true));
     await editAltitude('94');
     const alert = page.locator('[data-testid=save-error]');
     await expect(alert.innerText()).resolves.toBe(
@@ -281,15 +330,19 @@ describe('browser storage full', () => {
     await page.evaluate(() => {
       for (const k of Object.keys(localStorage))
         if (k.startsWith('e2e.fill.')) localStorage.removeItem(k);
+      (window as unknown as { e2eFull: boolean }).e2eFull = false;
     });
     await editAltitude('93');
     await savedAltitude(93);
     await expect.poll(() => alert.count(), { timeout: 10_000 }).toBe(0);
     await page.reload();
     await page.locator('[data-tab=plan]').click();
-    await expect(
-      page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
-    ).resolves.toBe('93');
+    await expect
+      .poll(
+        () => page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
+        { timeout: 30_000 },
+      )
+      .toBe('93');
     expect(errors).toEqual([]);
   });
 });

@@ -347,27 +347,31 @@ describe('an elevation model when the browser will not keep it (Chromium)', () =
 describe('a kept elevation model that no longer reads (Chromium)', () => {
   it('is reported and kept until removed', async () => {
     ({ context, page, errors } = await openApp(browser, inject('baseUrl')));
-    // What the app keeps (app/ui/terrain-store.ts), written as a damaged file would be found.
-    const put = (record: unknown) =>
+    // What the app keeps (app/ui/terrain-store.ts): the model is kept with the plan being edited,
+    // in the plan library's dems store under the plan's id; written as a damaged file would be found.
+    const put = (record: { name: string; text: string }) =>
       page.evaluate(
         (r) =>
-          new Promise<void>((resolve, reject) => {
-            const req = indexedDB.open('seedfall-terrain', 1);
-            req.onupgradeneeded = () => req.result.createObjectStore('files');
+          new Promise<boolean>((resolve, reject) => {
+            const req = indexedDB.open('seedfall-library');
             req.onerror = () => reject(req.error);
             req.onsuccess = () => {
               const db = req.result;
-              const tx = db.transaction('files', 'readwrite');
-              if (r) {
-                const { name, text } = r as { name: string; text: string };
-                tx.objectStore('files').put(
-                  { name, file: new Blob([text]), savedAt: '' },
-                  'current',
-                );
-              }
+              const tx = db.transaction(['dems', 'meta'], 'readwrite');
+              let done = false;
+              const cur = tx.objectStore('meta').get('current');
+              cur.onsuccess = () =>
+                typeof cur.result === 'string' &&
+                (done = true) &&
+                tx
+                  .objectStore('dems')
+                  .put(
+                    { name: r.name, file: new Blob([r.text]), savedAt: '' },
+                    cur.result as string,
+                  );
               tx.oncomplete = () => {
                 db.close();
-                resolve();
+                resolve(done);
               };
               tx.onerror = () => reject(tx.error);
             };
@@ -378,19 +382,31 @@ describe('a kept elevation model that no longer reads (Chromium)', () => {
       page.evaluate(
         () =>
           new Promise<unknown>((resolve, reject) => {
-            const req = indexedDB.open('seedfall-terrain', 1);
+            const req = indexedDB.open('seedfall-library');
             req.onerror = () => reject(req.error);
             req.onsuccess = () => {
               const db = req.result;
-              const get = db.transaction('files').objectStore('files').get('current');
-              get.onsuccess = () => {
+              const tx = db.transaction(['dems', 'meta']);
+              let name: string | null = null;
+              const cur = tx.objectStore('meta').get('current');
+              cur.onsuccess = () => {
+                const get = tx.objectStore('dems').get(cur.result as string);
+                get.onsuccess = () =>
+                  (name = (get.result as { name?: string } | undefined)?.name ?? null);
+              };
+              tx.oncomplete = () => {
                 db.close();
-                resolve((get.result as { name?: string } | undefined)?.name ?? null);
+                resolve(name);
               };
             };
           }),
       );
-    await put({ name: 'gone.asc', text: 'ncols 3\nnrows 3\ncellsize 0.1\n' });
+    // Once the library is open (a plan is current) the record goes in.
+    await expect
+      .poll(() => put({ name: 'gone.asc', text: 'ncols 3\nnrows 3\ncellsize 0.1\n' }), {
+        timeout: 30_000,
+      })
+      .toBe(true);
     await page.reload();
     await page.locator('[data-testid=planned]').waitFor({ timeout: 60_000 });
     await tab('plan');
