@@ -17,11 +17,14 @@ export function siteIcon(label: string, bad: boolean): L.DivIcon {
   return L.divIcon({ className: `sf-site-icon sf-site`, html: dot, iconSize: [14, 14] });
 }
 
-/** A draggable site marker at [lat, lon] (degrees). */
+/**
+ * A draggable site marker at [lat, lon] (degrees). No mark is a tab stop: the map is the one
+ * focusable element, and its keys act on the selected site (ui/map-keys.ts).
+ */
 export function siteMarker(at: L.LatLngTuple, label: string, bad: boolean): L.Marker {
   return L.marker(at, {
     draggable: true,
-    keyboard: true,
+    keyboard: false,
     riseOnHover: true,
     icon: siteIcon(label, bad),
   });
@@ -34,7 +37,7 @@ function dragMark(
 ): L.Marker {
   return L.marker(at, {
     draggable: true,
-    keyboard: true,
+    keyboard: false,
     title: opts.title,
     icon: L.divIcon({
       className: opts.className,

@@ -71,6 +71,11 @@ export class SeedfallApp extends LitElement {
       header button:hover:not(:disabled) {
         background: #3a6358;
       }
+      /* On the dark header the ring is white (12:1 on its green, 9:1 on a button). */
+      header button:focus-visible {
+        outline-color: #fff;
+        box-shadow: none;
+      }
       .caution {
         background: var(--sf-warn-bg);
         border-bottom: 1px solid var(--sf-warn-line);
@@ -110,15 +115,20 @@ export class SeedfallApp extends LitElement {
       .plan-warnings summary {
         cursor: pointer;
       }
+      /* The panels come first in the page (the tab order reaches them in a few steps), the map
+         is drawn on their left. */
       main {
         display: grid;
         grid-template-columns: minmax(0, 1fr) minmax(380px, 48%);
+        grid-template-areas: 'map panels';
         min-height: 0;
       }
       sf-map {
+        grid-area: map;
         min-height: 0;
       }
       aside {
+        grid-area: panels;
         border-left: 1px solid var(--sf-line);
         display: flex;
         flex-direction: column;
@@ -129,6 +139,23 @@ export class SeedfallApp extends LitElement {
         flex-wrap: wrap;
         border-bottom: 1px solid var(--sf-line);
         background: var(--sf-panel);
+      }
+      /* Off screen until it has the keyboard focus, then over the header's top left corner. */
+      .skip {
+        position: absolute;
+        left: 8px;
+        top: 0;
+        z-index: 2000;
+        padding: 6px 12px;
+        background: #fff;
+        color: var(--sf-ink);
+        border: 2px solid var(--sf-accent);
+        border-radius: 0 0 4px 4px;
+        font-weight: 600;
+        transform: translateY(-120%);
+      }
+      .skip:focus {
+        transform: none;
       }
       nav button {
         border: none;
@@ -188,6 +215,7 @@ export class SeedfallApp extends LitElement {
         main {
           grid-template-columns: 1fr;
           grid-template-rows: 60vh auto;
+          grid-template-areas: 'map' 'panels';
         }
         aside {
           border-left: none;
@@ -209,6 +237,7 @@ export class SeedfallApp extends LitElement {
 
   connectedCallback(): void {
     super.connectedCallback();
+    this.addEventListener('sf-open-site', this.onOpenSite);
     window.addEventListener('keydown', this.onKey);
     window.addEventListener('pagehide', this.onHide);
   }
@@ -220,6 +249,46 @@ export class SeedfallApp extends LitElement {
   }
 
   private readonly onHide = (): void => this.store.flush();
+
+  /** A view (the map, from the keyboard) asks for a site's details: the results tab shows them. */
+  private readonly onOpenSite = (e: Event): void => {
+    const id = (e as CustomEvent<string>).detail;
+    this.tab = 'results';
+    void this.updateComplete.then(() => this.store.openSite(id));
+  };
+
+  /** The selected tab's button. */
+  private selectedTab(): HTMLElement | null {
+    return this.renderRoot.querySelector<HTMLElement>('[role=tab][aria-selected=true]');
+  }
+
+  /** Selects a tab and gives its button the focus (arrow keys, Home, End on the tab list). */
+  private async moveToTab(t: Tab): Promise<void> {
+    this.tab = t;
+    await this.updateComplete;
+    this.selectedTab()?.focus();
+  }
+
+  /** The WAI-ARIA tabs pattern with automatic activation: Left/Right wrap, Home/End. */
+  private onTabKey(e: KeyboardEvent): void {
+    const i = TABS.findIndex(([t]) => t === this.tab);
+    const n = TABS.length;
+    const to: Record<string, number> = {
+      ArrowLeft: (i - 1 + n) % n,
+      ArrowRight: (i + 1) % n,
+      Home: 0,
+      End: n - 1,
+    };
+    if (!(e.key in to) || e.altKey || e.ctrlKey || e.metaKey) return;
+    e.preventDefault();
+    void this.moveToTab(TABS[to[e.key]][0]);
+  }
+
+  /** The skip link: focus to the selected panel tab (no change of the page's address). */
+  private skipToPanels(e: Event): void {
+    e.preventDefault();
+    this.selectedTab()?.focus();
+  }
 
   private readonly onKey = (e: KeyboardEvent): void => {
     if (!(e.ctrlKey || e.metaKey)) return;
@@ -259,6 +328,9 @@ export class SeedfallApp extends LitElement {
   render() {
     const s = this.store;
     return html`
+      <a class="skip" href="#panel-tabs" @click=${(e: Event) => this.skipToPanels(e)}
+        >Skip to the panels</a
+      >
       <header>
         <h1>Seedfall</h1>
         <span class="plan-name">${String(s.get('name') ?? 'Untitled plan')}</span>
@@ -293,23 +365,47 @@ export class SeedfallApp extends LitElement {
         ${renderAlerts(s)}
       </div>
       <main>
-        <sf-map .store=${s}></sf-map>
         <aside>
-          <nav role="tablist">
+          <nav
+            id="panel-tabs"
+            role="tablist"
+            aria-label="Panels"
+            @keydown=${(e: KeyboardEvent) => this.onTabKey(e)}
+          >
             ${TABS.map(
               ([t, label]) =>
                 html`<button
                   role="tab"
+                  id=${`tab-${t}`}
                   data-tab=${t}
+                  aria-controls=${`panel-${t}`}
                   aria-selected=${this.tab === t ? 'true' : 'false'}
+                  tabindex=${this.tab === t ? '0' : '-1'}
                   @click=${() => (this.tab = t)}
                 >
                   ${label}
                 </button>`,
             )}
           </nav>
-          <div class="panel" role="tabpanel">${this.renderPanel()}</div>
+          ${TABS.map(([t]) =>
+            t === this.tab
+              ? html`<div
+                  class="panel"
+                  role="tabpanel"
+                  id=${`panel-${t}`}
+                  aria-labelledby=${`tab-${t}`}
+                >
+                  ${this.renderPanel()}
+                </div>`
+              : html`<div
+                  role="tabpanel"
+                  id=${`panel-${t}`}
+                  aria-labelledby=${`tab-${t}`}
+                  hidden
+                ></div>`,
+          )}
         </aside>
+        <sf-map .store=${s}></sf-map>
       </main>
       <footer>${renderStatus(s)}</footer>
     `;

@@ -19,6 +19,7 @@ import {
 import type { Site, Variant } from '../plan';
 import { layerBar, layerBarStyles } from './map-layer-bar';
 import { CursorReadout, finite, planLatLon } from './map-position';
+import { MAP_KEYS_HELP, MapKeys } from './map-keys';
 import { MarkerDrag } from './marker-drag';
 import { planMarkStyles } from './plan-mark-styles';
 import type { PlanStore } from './plan-store';
@@ -70,8 +71,26 @@ export class SfMap extends LitElement {
         outline: none;
       }
       #map:focus-visible {
-        outline: 2px solid #0f766e;
-        outline-offset: -2px;
+        outline: 3px solid #0f766e;
+        outline-offset: -3px;
+      }
+      /* The keys in words while the map has the keyboard focus. */
+      .map-help {
+        display: none;
+        position: absolute;
+        left: 56px;
+        right: 56px;
+        bottom: 44px;
+        z-index: 1100;
+        padding: 4px 8px;
+        background: rgb(255 255 255 / 94%);
+        border: 1px solid #0f766e;
+        border-radius: 4px;
+        font-size: 12px;
+        pointer-events: none;
+      }
+      #map:focus-visible ~ .map-help {
+        display: block;
       }
       .leaflet-control-container {
         user-select: none;
@@ -220,6 +239,13 @@ export class SfMap extends LitElement {
     map.on('zoomend', () => this.syncWindows());
     map.on('click', (e: L.LeafletMouseEvent) => this.onMapClick(e));
     this.cursor.addTo(map);
+    new MapKeys(
+      () => this.store,
+      (id) =>
+        this.dispatchEvent(
+          new CustomEvent<string>('sf-open-site', { detail: id, bubbles: true, composed: true }),
+        ),
+    ).addTo(map);
     new ResizeObserver(() => map.invalidateSize()).observe(el);
     this.sync();
   }
@@ -457,7 +483,9 @@ export class SfMap extends LitElement {
         class=${this.addMode ? 'add-mode' : ''}
         role="application"
         aria-label="Planning map"
+        aria-describedby="map-help"
       ></div>
+      <p id="map-help" class="map-help">${MAP_KEYS_HELP}</p>
     `;
   }
 }

@@ -68,7 +68,12 @@ function includedLine(sources: readonly ErrorSource[]) {
   </p>`;
 }
 
-/** Per-site results of the latest plan: sortable; a row (click, Enter or Space) opens the site's details and shows it on the map. */
+/**
+ * Per-site results of the latest plan: sortable; a row (click, Enter or Space) opens the site's
+ * details and shows it on the map. The rows are one tab stop (roving focus: the row last
+ * focused, else the selected site's, else the first; Up, Down, Page Up, Page Down, Home and End
+ * move between rows), so a plan of a thousand sites is not a thousand Tab presses.
+ */
 @customElement('sf-results-table')
 export class SfResultsTable extends StoreElement {
   static styles = [
@@ -134,6 +139,8 @@ export class SfResultsTable extends StoreElement {
 
   @state() private key: Key = 'id';
   @state() private asc = true;
+  /** The row (site id) that is the table's tab stop, once one has had the focus. */
+  @state() private current: string | null = null;
 
   private listening?: PlanStore;
   private readonly onSelect = (): void => this.requestUpdate();
@@ -158,12 +165,45 @@ export class SfResultsTable extends StoreElement {
 
   private onRowKey(e: KeyboardEvent, id: string): void {
     if (e.target !== e.currentTarget) return;
+    const row = e.currentTarget as HTMLElement;
+    const to = this.rowFor(row, e.key);
+    if (to) {
+      e.preventDefault();
+      to.focus();
+      return;
+    }
     if (e.key === 'Enter' || e.key === ' ') {
       e.preventDefault();
       this.open(id);
     } else if (e.key === 'Escape' && this.store?.selectedSite !== null) {
       e.preventDefault();
       this.store?.selectSite(null);
+    }
+  }
+
+  /** The row a moving key leads to from `row` (null: not a moving key, or no row there). */
+  private rowFor(row: HTMLElement, key: string): HTMLElement | null {
+    const rows = (): HTMLElement[] => [
+      ...(row.parentElement?.querySelectorAll<HTMLElement>(':scope > tr') ?? []),
+    ];
+    const page = 10;
+    switch (key) {
+      case 'ArrowDown':
+        return row.nextElementSibling as HTMLElement | null;
+      case 'ArrowUp':
+        return row.previousElementSibling as HTMLElement | null;
+      case 'Home':
+        return rows()[0] ?? null;
+      case 'End':
+        return rows().at(-1) ?? null;
+      case 'PageDown':
+      case 'PageUp': {
+        const all = rows();
+        const i = all.indexOf(row) + (key === 'PageDown' ? page : -page);
+        return all[Math.max(0, Math.min(all.length - 1, i))] ?? null;
+      }
+      default:
+        return null;
     }
   }
 
@@ -200,6 +240,13 @@ export class SfResultsTable extends StoreElement {
     });
     const u = s.settings.units;
     const selected = s.selectedSite;
+    // The one row in the tab order: the last focused, else the selected site's, else the first.
+    const has = (id: string | null) => id !== null && rows.some((x) => x.id === id);
+    const stop = has(this.current)
+      ? this.current
+      : has(selected)
+        ? selected
+        : (rows[0]?.id ?? null);
     const h = (k: Key, label: string, title = '') => {
       const sorted = this.key === k ? (this.asc ? 'ascending' : 'descending') : 'none';
       return html`<th aria-sort=${sorted} title=${title}>
@@ -235,7 +282,8 @@ export class SfResultsTable extends StoreElement {
               (x) =>
                 html`<tr
                   data-site=${x.id}
-                  tabindex="0"
+                  tabindex=${x.id === stop ? '0' : '-1'}
+                  @focus=${() => (this.current = x.id)}
                   aria-selected=${selected === x.id ? 'true' : 'false'}
                   class=${selected === x.id ? 'selected' : ''}
                   @click=${() => this.open(x.id)}

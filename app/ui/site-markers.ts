@@ -132,6 +132,8 @@ export class SiteMarkers {
       if (drawn?.icon !== iconKey) {
         const el = m.getElement();
         el?.setAttribute('data-site', label);
+        // Not a tab stop (the map is): an image named after its site.
+        el?.setAttribute('role', 'img');
         el?.setAttribute('aria-label', `Site ${label}`);
         el?.classList.toggle('selected', label === this.selected);
       }

@@ -50,12 +50,14 @@ export function soundingSection(host: WindSourcesHost) {
       Columns altitude, direction, speed, and optionally temperature and pressure; units are read
       from the header (m/ft, m/s/kt/km/h, °C/K, hPa). Bad rows are listed and skipped.
     </p>
-    <input
-      type="file"
-      accept=".csv,.txt"
-      data-testid="sounding-file"
-      @change=${(e: Event) => onSoundingFile(host, e)}
-    />
+    <label
+      >Open a sounding file
+      <input
+        type="file"
+        accept=".csv,.txt"
+        data-testid="sounding-file"
+        @change=${(e: Event) => onSoundingFile(host, e)}
+    /></label>
     ${
       sounding?.levels?.length
         ? html`<div class="row">
