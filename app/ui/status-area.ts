@@ -2,6 +2,7 @@
 import { html, type TemplateResult } from 'lit';
 import { downloadDamaged } from './downloads';
 import type { PlanStore } from './plan-store';
+import { renderAppUpdate } from './pwa-update';
 import { DAMAGED_KEY } from './saved-state';
 import { baseName } from './terrain-loader';
 
@@ -153,5 +154,7 @@ export function renderStatus(s: PlanStore): TemplateResult[] {
       >`,
     );
   }
+  const update = renderAppUpdate();
+  if (update) parts.push(update);
   return parts;
 }

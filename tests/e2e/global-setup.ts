@@ -28,6 +28,8 @@ export async function setup(project: TestProject): Promise<void> {
   const url = server.resolvedUrls?.local[0];
   if (!url) throw new Error('vite preview did not report a URL');
   project.provide('baseUrl', url);
+  // The folder served: a test may put a new version of a file there (tests/e2e/offline.test.ts).
+  project.provide('outDir', outDir);
 }
 
 export async function teardown(): Promise<void> {
@@ -38,5 +40,6 @@ export async function teardown(): Promise<void> {
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
+    outDir: string;
   }
 }
