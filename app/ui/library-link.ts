@@ -30,6 +30,7 @@ import {
   setMeta,
   sizeProblem,
   utf8Bytes,
+  withName,
 } from './library-store';
 import { readPlanFile } from './open-plan';
 import { errorText, type SafeStorage, storageWhy } from './safe-storage';
@@ -58,7 +59,9 @@ export function sizeText(bytes: number): string {
 /** A stored record read as hostile data: its draft, or why it cannot be opened. */
 export function readRecord(
   v: unknown,
-): { ok: true; name: string; draft: Draft } | { ok: false; name: string; reason: string } {
+):
+  | { ok: true; name: string; draft: Draft; text: string }
+  | { ok: false; name: string; reason: string } {
   if (v === null || typeof v !== 'object' || Array.isArray(v)) {
     return { ok: false, name: '(no name)', reason: 'the entry is not a plan record' };
   }
@@ -66,7 +69,7 @@ export function readRecord(
   const name = nameFrom(r.name, '(no name)');
   if (typeof r.draft !== 'string') return { ok: false, name, reason: 'its plan text is missing' };
   const d = readDraftText(r.draft);
-  if (d.kind === 'ok') return { ok: true, name, draft: d.draft };
+  if (d.kind === 'ok') return { ok: true, name, draft: d.draft, text: r.draft };
   return { ok: false, name, reason: d.kind === 'damaged' ? d.reason : 'its plan text is missing' };
 }
 
@@ -89,6 +92,10 @@ export class LibraryLink {
   private migrationPending = false;
   private storage: SafeStorage | null = null;
   private queued: string | null = null;
+  /** The name the queued draft holds (the entry follows it), or undefined when it has none. */
+  private queuedName: string | undefined;
+  /** The draft text the library holds for the plan being edited (an unchanged draft is not written again). */
+  private lastText: string | null = null;
   private pump: Promise<void> | null = null;
   private lastQuotaCheck = 0;
 
@@ -121,6 +128,9 @@ export class LibraryLink {
       return true;
     }
     this.queued = text;
+    const name = this.store.get('name');
+    this.queuedName =
+      typeof name === 'string' && nameProblem(name) === null ? name.trim() : undefined;
     if (this.active) this.pump ??= this.writeQueued().finally(() => (this.pump = null));
     return true;
   }
@@ -157,6 +167,7 @@ export class LibraryLink {
     }
     await setMeta(db, 'current', id);
     this.id = id;
+    this.lastText = r.text;
     this.store.loadPlan(r.draft);
     this.store.setNotice('info', `Opened “${r.name}” from the library.`);
     await this.store.terrain.switchPlan();
@@ -177,15 +188,23 @@ export class LibraryLink {
     } catch {
       dem = null; // a damaged model stays with the original only
     }
-    await addPlan(db, makeRecord(name, v.draft), dem);
+    await addPlan(db, makeRecord(name, String(withName(v.draft, name))), dem);
     this.store.setNotice('info', `Made “${name}”.`);
   }
 
-  /** Renames a plan; the problem with the name (shown beside it), or null when renamed. */
+  /**
+   * Renames a plan and its name field; the problem with the name (shown beside it), or null when
+   * renamed. The plan being edited is renamed as an edit (one undo step; autosave stores it).
+   */
   async rename(id: string, name: string): Promise<string | null> {
     const problem = nameProblem(name);
     if (problem) return problem;
-    await renamePlan(await this.need(), id, name.trim());
+    const db = await this.need();
+    if (id === this.id) {
+      this.store.edit('name', name.trim());
+      this.store.flush();
+      await this.settled();
+    } else await renamePlan(db, id, name.trim());
     return null;
   }
 
@@ -342,6 +361,7 @@ export class LibraryLink {
       const r = readRecord(v);
       if (r.ok) {
         this.id = cur;
+        this.lastText = r.text;
         this.store.loadPlan(r.draft);
         return;
       }
@@ -357,6 +377,7 @@ export class LibraryLink {
     await addPlan(db, rec);
     await setMeta(db, 'current', rec.id);
     this.id = rec.id;
+    this.lastText = rec.draft;
     this.emit();
   }
 
@@ -383,6 +404,7 @@ export class LibraryLink {
     if (tooBig) throw new Error(tooBig);
     await addMigrated(db, rec, dem);
     this.id = rec.id;
+    this.lastText = rec.draft;
     if (had) this.storage?.remove(DRAFT_KEY);
     if (dem) forgetOldTerrain();
     if (demProblem) {
@@ -404,7 +426,9 @@ export class LibraryLink {
     const db = this.db;
     while (db && this.id && this.queued !== null) {
       const text = this.queued;
+      const name = this.queuedName;
       this.queued = null;
+      if (text === this.lastText) continue;
       const bytes = utf8Bytes(text);
       const tooBig = sizeProblem(bytes);
       let error: string | null = null;
@@ -412,7 +436,8 @@ export class LibraryLink {
         error = `Autosave failed: ${tooBig} — save the plan to a file (Save) to keep your edits`;
       else {
         try {
-          await saveDraft(db, this.id, text, bytes);
+          await saveDraft(db, this.id, text, bytes, name);
+          this.lastText = text;
         } catch (e) {
           error = `Autosave failed: ${storageWhy(e)} — save the plan to a file (Save) to keep your edits`;
         }

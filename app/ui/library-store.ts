@@ -119,6 +119,18 @@ export function sizeProblem(bytes: number): string | null {
 /** The limit message when the library is full. */
 export const FULL_MESSAGE = `The library holds ${MAX_PLANS} plans, its limit: export plans you no longer need and delete them to make room.`;
 
+/** The draft text with its name field set, or the text unchanged when it is not a plan object. */
+export function withName<T>(draft: T, name: string): T | string {
+  if (typeof draft !== 'string') return draft;
+  try {
+    const v: unknown = JSON.parse(draft);
+    if (v === null || typeof v !== 'object' || Array.isArray(v)) return draft;
+    return JSON.stringify({ ...(v as object), name });
+  } catch {
+    return draft;
+  }
+}
+
 /** A new record for a draft text. */
 export function makeRecord(name: string, draft: string): PlanRecord {
   return {
@@ -176,17 +188,22 @@ export async function addPlan(
   await tx.done;
 }
 
-/** Writes the draft text of a plan (autosave); rejects when it is gone or storage refuses. */
+/**
+ * Writes the draft text of a plan (autosave) and, when given, the name the draft holds; rejects
+ * when the plan is gone or storage refuses.
+ */
 export async function saveDraft(
   db: LibraryDb,
   id: string,
   draft: string,
   bytes: number,
+  name?: string,
 ): Promise<void> {
   const tx = db.transaction('plans', 'readwrite');
   const rec = await tx.store.get(id);
   if (!rec) abortWith(tx, new Error('the plan is no longer in the library'));
-  await tx.store.put({ ...rec, draft, bytes, updatedAt: new Date().toISOString() });
+  const updatedAt = new Date().toISOString();
+  await tx.store.put({ ...rec, draft, bytes, updatedAt, ...(name ? { name } : {}) });
   await tx.done;
 }
 
@@ -195,12 +212,18 @@ export async function getPlan(db: LibraryDb, id: string): Promise<unknown> {
   return db.get('plans', id);
 }
 
-/** Renames a plan (the name checked by the caller). */
+/**
+ * Renames a plan (the name checked by the caller): the entry and the plan's own name field, so
+ * the file it exports and the title it opens with say the same; a draft that does not read
+ * keeps its text as it is.
+ */
 export async function renamePlan(db: LibraryDb, id: string, name: string): Promise<void> {
   const tx = db.transaction('plans', 'readwrite');
   const rec = await tx.store.get(id);
   if (!rec) abortWith(tx, new Error('the plan is no longer in the library'));
-  await tx.store.put({ ...rec, name, updatedAt: new Date().toISOString() });
+  const draft = withName(rec.draft, name);
+  const bytes = typeof draft === 'string' ? utf8Bytes(draft) : rec.bytes;
+  await tx.store.put({ ...rec, name, draft, bytes, updatedAt: new Date().toISOString() });
   await tx.done;
 }
 

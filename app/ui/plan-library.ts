@@ -155,7 +155,11 @@ export class PlanLibraryView extends StoreElement {
       await f();
       this.message = s.notice !== before && s.notice ? { ...s.notice } : null;
     } catch (e) {
-      this.message = { kind: 'error', text: `${what} failed: ${errorText(e)}.` };
+      const why = errorText(e);
+      this.message = {
+        kind: 'error',
+        text: `${what} failed: ${why}${/[.!?]$/.test(why) ? '' : '.'}`,
+      };
     } finally {
       this.busy = false;
     }

@@ -165,6 +165,9 @@ describe('the plan library', () => {
     await row('(copy)').locator('[data-testid=open-plan]').click();
     await view().waitFor({ state: 'hidden', timeout: 10_000 });
     await expect(shownAltitude()).resolves.toBe('96'); // the copy holds the original's edit
+    await expect(page.locator('header .plan-name').innerText()).resolves.toBe(
+      'Varla oxbow wetland sensor drop (copy)',
+    );
     await editAltitude('97');
     await savedAltitude(97);
 
@@ -228,6 +231,67 @@ describe('the plan library', () => {
       .poll(async () => (await names()).sort())
       .toEqual([markup, 'Varla oxbow wetland sensor drop'].sort());
     await expect.poll(async () => (await held()).plans.length).toBe(2);
+
+    // Renaming the open plan renames the plan itself (its title, its file when saved).
+    await row('Varla').locator('[data-testid=rename-plan]').click();
+    await input.fill('Field day A');
+    await input.press('Enter');
+    await expect.poll(names).toContain('Field day A');
+    await expect(page.locator('header .plan-name').innerText()).resolves.toBe('Field day A');
+    expect(errors).toEqual([]);
+  });
+
+  it('holds at most 200 plans and says so when asked for more', async () => {
+    await start();
+    const id = (await held()).current!;
+    const rec = (await held()).plans.find((p) => p.id === id)!;
+    // 199 more copies of the open plan: 200 in all.
+    await page.evaluate(
+      (r) =>
+        new Promise<void>((resolve, reject) => {
+          const req = indexedDB.open('seedfall-library');
+          req.onerror = () => reject(req.error);
+          req.onsuccess = () => {
+            const db = req.result;
+            const tx = db.transaction('plans', 'readwrite');
+            for (let i = 1; i < 200; i++) {
+              tx.objectStore('plans').put({
+                id: `filler-${i}`,
+                name: `Filler ${i}`,
+                updatedAt: '2026-01-01T00:00:00Z',
+                draft: r.draft,
+                bytes: 10,
+                baseMaps: [],
+              });
+            }
+            tx.oncomplete = () => {
+              db.close();
+              resolve();
+            };
+            tx.onerror = () => reject(tx.error);
+          };
+        }),
+      rec as { draft: string },
+    );
+    await openView();
+    await expect.poll(async () => (await names()).length).toBe(200);
+    await row('Filler 199').locator('[data-testid=duplicate-plan]').click();
+    await expect
+      .poll(() => view().locator('[data-testid=library-message]').innerText())
+      .toBe(
+        'Duplicate failed: The library holds 200 plans, its limit: export plans you no longer need and delete them to make room.',
+      );
+    await view()
+      .locator('[data-testid=import-file]')
+      .setInputFiles({
+        name: 'one-more.json',
+        mimeType: 'application/json',
+        buffer: Buffer.from(JSON.stringify(demo)),
+      });
+    await expect
+      .poll(() => view().locator('[data-testid=library-message]').innerText())
+      .toMatch(/^Import failed: The library holds 200 plans, its limit/);
+    expect((await held()).plans).toHaveLength(200);
     expect(errors).toEqual([]);
   });
 
