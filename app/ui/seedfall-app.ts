@@ -328,10 +328,10 @@ export class SeedfallApp extends LitElement {
   render() {
     const s = this.store;
     return html`
-      <a class="skip" href="#panel-tabs" @click=${(e: Event) => this.skipToPanels(e)}
-        >Skip to the panels</a
-      >
       <header>
+        <a class="skip" href="#panel-tabs" @click=${(e: Event) => this.skipToPanels(e)}
+          >Skip to the panels</a
+        >
         <h1>Seedfall</h1>
         <span class="plan-name">${String(s.get('name') ?? 'Untitled plan')}</span>
         <button data-testid="open-library" @click=${() => s.library.showView()}>Plans…</button>
@@ -360,7 +360,7 @@ export class SeedfallApp extends LitElement {
           Demo plan
         </button>
       </header>
-      <div>
+      <div role="region" aria-label="Caution and notices">
         <div class="caution" role="note"><strong>Caution:</strong> ${CAUTION_TEXT}</div>
         ${renderAlerts(s)}
       </div>

@@ -61,7 +61,9 @@ async function axeProblems(label: string): Promise<string[]> {
   const bad = r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
   const minor = r.violations.filter((v) => !bad.includes(v));
   if (minor.length)
-    console.log(`${label}: axe (minor/moderate) ${minor.map((v) => `${v.id} ×${v.nodes.length}`)}`);
+    console.log(
+      `${label}: axe (minor/moderate) ${minor.map((v) => `${v.id} ×${v.nodes.length} (${v.nodes[0].target.join(' > ')})`).join('; ')}`,
+    );
   return bad.map(
     (v) =>
       `${label}: ${v.id} (${v.impact}) ${v.help} — ${v.nodes
@@ -96,7 +98,8 @@ describe('keyboard and screen readers in Chromium', () => {
     problems.push(...(await axeProblems('site details')));
     expect(problems).toEqual([]);
     expect(errors).toEqual([]);
-  });
+    // Eight full-page axe runs over a map of SVG shapes: minutes on two busy cores.
+  }, 600_000);
 
   it('reaches the panel tabs within 10 Tab presses, past a skip link that is shown when focused', async () => {
     await open();
@@ -113,6 +116,7 @@ describe('keyboard and screen readers in Chromium', () => {
         expect(box.height).toBeGreaterThan(10);
         await shot(page, 'a11y-skip-link');
       }
+      if (k === 3) await shot(page, 'a11y-header-button-focus');
       if (f.tab === 'results') {
         presses = k;
         break;
