@@ -362,7 +362,9 @@ export class LibraryLink {
       if (r.ok) {
         this.id = cur;
         this.lastText = r.text;
-        this.store.loadPlan(r.draft);
+        // The page started on the same plan (no edit since): nothing to replace or plan again.
+        if (r.text !== JSON.stringify(this.store.draft)) this.store.loadPlan(r.draft);
+        this.emit();
         return;
       }
       this.store.notice = {

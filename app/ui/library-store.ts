@@ -55,16 +55,19 @@ export type LibraryDb = IDBPDatabase<LibrarySchema>;
 /** Opens (and on first use creates) the library; rejects with the browser's reason. */
 export async function openLibrary(): Promise<LibraryDb> {
   if (typeof indexedDB === 'undefined') throw new Error('this browser has no IndexedDB');
-  return openDB<LibrarySchema>(DB_NAME, DB_VERSION, {
-    upgrade(db) {
-      if (!db.objectStoreNames.contains('plans')) db.createObjectStore('plans', { keyPath: 'id' });
-      if (!db.objectStoreNames.contains('dems')) db.createObjectStore('dems');
-      if (!db.objectStoreNames.contains('meta')) db.createObjectStore('meta');
+  const db: LibraryDb = await openDB<LibrarySchema>(DB_NAME, DB_VERSION, {
+    upgrade(up) {
+      if (!up.objectStoreNames.contains('plans')) up.createObjectStore('plans', { keyPath: 'id' });
+      if (!up.objectStoreNames.contains('dems')) up.createObjectStore('dems');
+      if (!up.objectStoreNames.contains('meta')) up.createObjectStore('meta');
     },
     blocking() {
-      // A newer version of the app in another tab wants to upgrade: let it.
+      // A newer version of the app in another tab must upgrade the database: this tab lets it
+      // (its later writes fail and are reported as autosave failures; the edits stay in the page).
+      db.close();
     },
   });
+  return db;
 }
 
 /** Ends a transaction unwritten and throws err (the transaction's own rejection is expected). */

@@ -68,6 +68,11 @@ export class PlanLibraryView extends StoreElement {
       td.size {
         white-space: nowrap;
       }
+      td.size .dem {
+        white-space: normal;
+        overflow-wrap: anywhere;
+        max-width: 12em;
+      }
       td.actions {
         white-space: nowrap;
         text-align: right;
@@ -216,8 +221,8 @@ export class PlanLibraryView extends StoreElement {
     return html`<tr class=${current ? 'current' : ''} data-plan=${p.id}>
       ${this.renderName(p, current)}
       <td class="when">${when(p.updatedAt)}</td>
-      <td>
-        ${sizeText(p.bytes)}${p.demName ? html`<div class="muted">with ${p.demName}</div>` : ''}
+      <td class="size">
+        ${sizeText(p.bytes)}${p.demName ? html`<div class="muted dem">with ${p.demName}</div>` : ''}
       </td>
       <td class="actions">
         ${
@@ -228,6 +233,7 @@ export class PlanLibraryView extends StoreElement {
                 <button @click=${() => (this.renaming = null)}>Cancel</button>`
             : html`<button
                   data-testid="open-plan"
+                  aria-label="Open “${p.name}”"
                   ?disabled=${current || this.busy}
                   @click=${() =>
                     this.act('Open', async () => {
@@ -239,6 +245,7 @@ export class PlanLibraryView extends StoreElement {
                 </button>
                 <button
                   data-testid="duplicate-plan"
+                  aria-label="Duplicate “${p.name}”"
                   ?disabled=${this.busy}
                   @click=${() => this.act('Duplicate', () => lib.duplicate(p.id))}
                 >
@@ -246,6 +253,7 @@ export class PlanLibraryView extends StoreElement {
                 </button>
                 <button
                   data-testid="rename-plan"
+                  aria-label="Rename “${p.name}”"
                   ?disabled=${this.busy}
                   @click=${() => (this.renaming = { id: p.id, text: p.name, problem: null })}
                 >
@@ -253,6 +261,7 @@ export class PlanLibraryView extends StoreElement {
                 </button>
                 <button
                   data-testid="export-plan"
+                  aria-label="Export “${p.name}”"
                   ?disabled=${this.busy}
                   @click=${() => this.act('Export', () => lib.exportPlan(p.id))}
                 >
@@ -260,6 +269,7 @@ export class PlanLibraryView extends StoreElement {
                 </button>
                 <button
                   data-testid="delete-plan"
+                  aria-label="Delete “${p.name}”"
                   ?disabled=${current || this.busy}
                   title=${current ? 'The plan being edited: open another plan to delete this one' : ''}
                   @click=${() => this.act('Delete', () => lib.remove(p.id))}
