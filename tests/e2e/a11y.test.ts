@@ -78,7 +78,7 @@ const row = (id: string) => page.locator(`sf-results-table tr[data-site="${id}"]
 const details = () => page.locator('sf-site-details [data-testid=site-details]');
 
 describe('keyboard and screen readers in Chromium', () => {
-  it('axe-core finds no serious or critical violation on any panel, with the demo plan and with site details open', async () => {
+  it('axe-core finds no serious or critical violation on any panel, with the demo plan, with site details open and in the plans dialog', async () => {
     await open();
     await page.getByRole('button', { name: 'Demo plan' }).click();
     await page.locator('[data-testid=planned]').waitFor({ timeout: 60_000 });
@@ -96,6 +96,10 @@ describe('keyboard and screen readers in Chromium', () => {
     await row('s01').click();
     await details().waitFor({ timeout: 30_000 });
     problems.push(...(await axeProblems('site details')));
+    // The plans dialog over the app.
+    await page.locator('[data-testid=open-library]').click();
+    await page.locator('[data-testid=plan-library][open]').waitFor({ timeout: 30_000 });
+    problems.push(...(await axeProblems('plans dialog')));
     expect(problems).toEqual([]);
     expect(errors).toEqual([]);
     // Eight full-page axe runs over a map of SVG shapes: minutes on two busy cores.
