@@ -11,6 +11,22 @@ export {
   trackSegment,
   type LatLngTuple,
 } from './geometry';
+export {
+  BasemapLayer,
+  type BasemapLayerOptions,
+  type TileImage,
+  type TileReader,
+} from './basemap-layer';
+export {
+  MAX_MERCATOR_LAT,
+  tileCount,
+  tileRange,
+  tilesOf,
+  tileUrlOf,
+  tileX,
+  tileY,
+  type TileArea,
+} from './basemap-tiles';
 export { defaultLabelFormat, Graticule, graticule, type GraticuleOptions } from './graticule';
 export {
   laneSide,

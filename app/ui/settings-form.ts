@@ -1,5 +1,6 @@
 /** The settings tab: display units, the brief's paper, and the background map's tile source. */
 import { html, type TemplateResult } from 'lit';
+import './basemap-panel';
 import type { PlanStore } from './plan-store';
 import { PAPERS } from './saved-state';
 import { COORD_FORMATS, LENGTH_UNITS, SPEED_UNITS, type UnitPrefs } from './units';
@@ -53,7 +54,8 @@ export function renderSettings(s: PlanStore): TemplateResult {
     <h3>Background map</h3>
     <p class="muted">
       Without a tile source the map shows a coordinate grid and scale only, which is all planning
-      needs. When online, give a tile URL template with {z}, {x}, {y} and its attribution.
+      needs. When online, give a tile URL template with {z}, {x}, {y} and its attribution; for the
+      field, open a PMTiles archive or keep the plan area's tiles below.
     </p>
     <label
       >Tile URL template
@@ -70,5 +72,6 @@ export function renderSettings(s: PlanStore): TemplateResult {
         .value=${st.tileAttribution}
         @change=${(e: Event) => s.setSettings({ tileAttribution: (e.target as HTMLInputElement).value })}
     /></label>
+    <sf-basemap-panel .store=${s}></sf-basemap-panel>
   </div>`;
 }

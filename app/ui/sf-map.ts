@@ -9,7 +9,6 @@ import {
   buildSafetyLayers,
   buildWindowLayers,
   DEFAULT_VISIBILITY,
-  escapeHtml,
   Graticule,
   type LayerFormat,
   type LayerVisibility,
@@ -17,6 +16,8 @@ import {
   TerrainLayer,
 } from '../map';
 import type { Site, Variant } from '../plan';
+import { basemap } from './basemap-state';
+import { BasemapView } from './basemap-view';
 import { layerBar, layerBarStyles } from './map-layer-bar';
 import { CursorReadout, finite, planLatLon } from './map-position';
 import { MAP_KEYS_HELP, MapKeys } from './map-keys';
@@ -37,8 +38,9 @@ export const CANVAS_SITES = 300;
 const WINDOW_PANE = 'seedfallWindows';
 
 /**
- * The planning map: coordinate grid and scale (no tiles needed; a tile URL can be set), the
- * release point, carrier track and its handle, the sites (all draggable), and the results.
+ * The planning map: coordinate grid and scale (no tiles needed; a PMTiles archive or a tile URL
+ * can be set), the release point, carrier track and its handle, the sites (all draggable), and
+ * the results.
  */
 @customElement('sf-map')
 export class SfMap extends LitElement {
@@ -130,9 +132,9 @@ export class SfMap extends LitElement {
 
   private map?: L.Map;
   private resultLayer?: L.LayerGroup;
-  private tileLayer?: L.TileLayer;
-  private tileUrl = '';
-  private tileAttribution = '';
+  /** The base layer: a PMTiles archive, the tile URL (kept tiles first), or none. */
+  private readonly basemapView = new BasemapView();
+  private readonly onBasemap = (): void => this.requestUpdate();
   private readonly drag = new MarkerDrag(() => {
     this.store?.commit();
     this.requestUpdate();
@@ -172,11 +174,14 @@ export class SfMap extends LitElement {
     super.connectedCallback();
     this.store?.addEventListener('focus-site', this.onFocus);
     this.store?.addEventListener('select-site', this.onSelect);
+    basemap.addEventListener('change', this.onBasemap);
+    void basemap.restore();
   }
 
   disconnectedCallback(): void {
     this.store?.removeEventListener('focus-site', this.onFocus);
     this.store?.removeEventListener('select-site', this.onSelect);
+    basemap.removeEventListener('change', this.onBasemap);
     super.disconnectedCallback();
   }
 
@@ -309,20 +314,7 @@ export class SfMap extends LitElement {
 
   private syncTiles(): void {
     const { tileUrl, tileAttribution } = this.store!.settings;
-    if (tileUrl === this.tileUrl && tileAttribution === this.tileAttribution) return;
-    this.tileUrl = tileUrl;
-    this.tileAttribution = tileAttribution;
-    this.tileLayer?.remove();
-    this.tileLayer = undefined;
-    if (tileUrl) {
-      // Leaflet's attribution control inserts HTML; the typed attribution is shown as text.
-      this.tileLayer = L.tileLayer(tileUrl, {
-        attribution: escapeHtml(tileAttribution),
-        maxZoom: 22,
-        maxNativeZoom: 19,
-      });
-      this.tileLayer.addTo(this.map!);
-    }
+    this.basemapView.sync(this.map!, tileUrl, tileAttribution);
   }
 
   private colour = (variantId: string): string => {

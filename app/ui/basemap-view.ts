@@ -1,0 +1,145 @@
+/**
+ * The map's base layer: a raster PMTiles archive when one is open, else the tile URL setting
+ * (kept tiles first, then the server), else none (the coordinate grid alone). Attribution goes to
+ * Leaflet's control escaped (it takes HTML); a vector archive is named as not drawn, in text.
+ */
+import L from 'leaflet';
+import { BasemapLayer, escapeHtml, tileUrlOf, type TileImage } from '../map';
+import { basemap } from './basemap-state';
+import { loadTile } from './basemap-store';
+
+/** The base layer of one map, kept in line with the base map state and the tile settings. */
+export class BasemapView {
+  private layer?: L.GridLayer;
+  private key = '';
+  private note?: L.Control;
+
+  /** Draws what `tileUrl`/`tileAttribution` and the opened archive call for (no-op when unchanged). */
+  sync(map: L.Map, tileUrl: string, tileAttribution: string): void {
+    const a = basemap.archive;
+    const key = JSON.stringify([
+      a?.info.name,
+      a?.pm === undefined ? 0 : archiveId(a.pm),
+      tileUrl,
+      tileAttribution,
+    ]);
+    if (key === this.key) return;
+    this.key = key;
+    this.layer?.remove();
+    this.layer = undefined;
+    this.note?.remove();
+    this.note = undefined;
+    if (a && a.info.kind === 'raster') {
+      const { pm, info } = a;
+      const b = info.bounds;
+      this.layer = new BasemapLayer({
+        read: async (z, x, y, signal): Promise<TileImage> => {
+          const r = await pm.getZxy(z, x, y, signal);
+          return r ? new Blob([r.data], { type: info.mime }) : null;
+        },
+        minNativeZoom: info.minZoom,
+        maxNativeZoom: info.maxZoom,
+        maxZoom: 22,
+        bounds: b ? L.latLngBounds([b[0], b[1]], [b[2], b[3]]) : undefined,
+        attribution: escapeHtml(info.attribution || `${info.name} (no attribution in the archive)`),
+      });
+    } else if (tileUrl) {
+      this.layer = new BasemapLayer({
+        read: async (z, x, y): Promise<TileImage> => {
+          const kept = await loadTile(tileUrl, z, x, y).catch(() => null);
+          if (kept) return kept;
+          // Offline, a kept tile of a lower zoom, enlarged; online the server's own.
+          if (!navigator.onLine) return keptAncestor(tileUrl, z, x, y);
+          return tileUrlOf(tileUrl, z, x, y);
+        },
+        fallback: (z, x, y) => keptAncestor(tileUrl, z, x, y),
+        maxZoom: 22,
+        maxNativeZoom: 19,
+        attribution: escapeHtml(tileAttribution),
+      });
+    }
+    this.layer?.addTo(map);
+    if (a && a.info.kind !== 'raster') {
+      this.note = noteControl(
+        a.info.kind === 'vector'
+          ? `Base map ${a.info.name}: ${a.info.tileKind} tiles are not drawn yet${tileUrl ? '' : '; coordinate grid only'}.`
+          : `Base map ${a.info.name}: its tile kind cannot be drawn.`,
+      ).addTo(map);
+    }
+  }
+}
+
+const ids = new WeakMap<object, number>();
+let nextId = 1;
+/** A number per archive object, so opening the same file name again redraws. */
+function archiveId(pm: object): number {
+  let id = ids.get(pm);
+  if (id === undefined) ids.set(pm, (id = nextId++));
+  return id;
+}
+
+/** A small text box on the map (text nodes only). */
+function noteControl(text: string): L.Control {
+  const C = L.Control.extend({
+    onAdd(): HTMLElement {
+      const el = L.DomUtil.create('div', 'sf-basemap-note');
+      el.setAttribute('role', 'status');
+      el.setAttribute('data-testid', 'basemap-note');
+      el.textContent = text;
+      Object.assign(el.style, {
+        background: 'rgb(255 255 255 / 92%)',
+        border: '1px solid #b45309',
+        borderRadius: '4px',
+        padding: '2px 6px',
+        font: '12px/1.4 system-ui, sans-serif',
+        maxWidth: '22rem',
+      });
+      return el;
+    },
+  });
+  return new C({ position: 'bottomleft' });
+}
+
+/** How many zooms up a missing tile is looked for among the kept ones (an 8× enlargement at most). */
+const MAX_ENLARGE_ZOOMS = 3;
+
+/**
+ * The part of the nearest kept tile of a lower zoom that covers tile z/x/y, enlarged to a tile's
+ * size, or null when none is kept.
+ */
+async function keptAncestor(
+  template: string,
+  z: number,
+  x: number,
+  y: number,
+): Promise<Blob | null> {
+  for (let d = 1; d <= MAX_ENLARGE_ZOOMS && z - d >= 0; d++) {
+    const px = x >> d;
+    const py = y >> d;
+    const blob = await loadTile(template, z - d, px, py).catch(() => null);
+    if (!blob) continue;
+    const bmp = await createImageBitmap(blob);
+    try {
+      const part = bmp.width / 2 ** d;
+      const canvas = document.createElement('canvas');
+      canvas.width = canvas.height = bmp.width;
+      const g = canvas.getContext('2d')!;
+      g.imageSmoothingEnabled = false;
+      g.drawImage(
+        bmp,
+        (x - (px << d)) * part,
+        (y - (py << d)) * part,
+        part,
+        part,
+        0,
+        0,
+        bmp.width,
+        bmp.width,
+      );
+      return await new Promise<Blob | null>((resolve) => canvas.toBlob(resolve, 'image/png'));
+    } finally {
+      bmp.close();
+    }
+  }
+  return null;
+}
