@@ -43,6 +43,13 @@ import {
   terrainStorageWhy,
 } from './terrain-store';
 
+/**
+ * An edit not yet in the library when the page is hidden (its write still under way, or failed),
+ * kept in localStorage at once: IndexedDB writes are asynchronous and may not finish before the
+ * page goes. Read back, and written to its plan, on the next start.
+ */
+export const UNSAVED_KEY = 'seedfall.library.unsaved.v1';
+
 /** Share of the quota past which the status line warns (80 %). */
 export const QUOTA_WARN_FRACTION = 0.8;
 /** Least time between two storage estimates (ms): they are cheap, but every autosave asks. */
@@ -96,6 +103,9 @@ export class LibraryLink {
   private queuedName: string | undefined;
   /** The draft text the library holds for the plan being edited (an unchanged draft is not written again). */
   private lastText: string | null = null;
+  /** The newest draft text autosave was given, and the one kept under UNSAVED_KEY. */
+  private latest: string | null = null;
+  private unsavedText: string | null = null;
   private pump: Promise<void> | null = null;
   private lastQuotaCheck = 0;
 
@@ -128,11 +138,22 @@ export class LibraryLink {
       return true;
     }
     this.queued = text;
+    this.latest = text;
     const name = this.store.get('name');
     this.queuedName =
       typeof name === 'string' && nameProblem(name) === null ? name.trim() : undefined;
     if (this.active) this.pump ??= this.writeQueued().finally(() => (this.pump = null));
     return true;
+  }
+
+  /** Page hide: the newest draft, when the library does not hold it yet, goes to UNSAVED_KEY now. */
+  keepUnsaved(): void {
+    const text = this.latest;
+    if (!this.active || !this.storage || text === null || text === this.lastText) return;
+    if (text === this.unsavedText) return;
+    if (this.storage.write(UNSAVED_KEY, JSON.stringify({ id: this.id, text })) === null) {
+      this.unsavedText = text;
+    }
   }
 
   /** Waits for autosave writes under way. */
@@ -157,6 +178,13 @@ export class LibraryLink {
     const db = await this.need();
     this.store.flush();
     await this.settled();
+    if (this.active && this.latest !== null && this.latest !== this.lastText) {
+      this.store.setNotice(
+        'error',
+        `Another plan was not opened: the latest edits of this one are not in the library yet${this.store.saveError ? ' (autosave failed)' : ''}. Save this plan to a file first, or try again.`,
+      );
+      return;
+    }
     const r = readRecord(await getPlan(db, id));
     if (!r.ok) {
       this.store.setNotice(
@@ -353,6 +381,36 @@ export class LibraryLink {
     this.emit();
   }
 
+  /**
+   * The edit kept under UNSAVED_KEY for plan id when it differs from what the library holds
+   * (text as kept, draft read as any stored draft); anything else there is removed.
+   */
+  private async unsavedFor(
+    db: LibraryDb,
+    id: string,
+    stored: string,
+  ): Promise<{ text: string; draft: Draft } | null> {
+    const raw = this.storage?.read(UNSAVED_KEY);
+    if (typeof raw !== 'string') return null;
+    let v: { id?: unknown; text?: unknown } = {};
+    try {
+      v = JSON.parse(raw) as typeof v;
+    } catch {
+      // not what this app wrote: dropped below
+    }
+    if (typeof v.text === 'string' && readDraftText(v.text).kind === 'ok') {
+      const d = readDraftText(v.text);
+      if (v.id === id && v.text !== stored && d.kind === 'ok')
+        return { text: v.text, draft: d.draft };
+      if (typeof v.id === 'string' && v.id !== id && (await getPlan(db, v.id)) !== undefined) {
+        // An edit of another plan of the library: it goes to that plan.
+        await saveDraft(db, v.id, v.text, utf8Bytes(v.text));
+      }
+    }
+    this.storage?.remove(UNSAVED_KEY);
+    return null;
+  }
+
   /** Opens the plan last edited; a damaged one is reported and kept, and a new plan is begun. */
   private async openCurrent(db: LibraryDb): Promise<void> {
     const cur = await getMeta(db, 'current');
@@ -362,6 +420,16 @@ export class LibraryLink {
       if (r.ok) {
         this.id = cur;
         this.lastText = r.text;
+        const unsaved = await this.unsavedFor(db, cur, r.text);
+        if (unsaved) {
+          this.unsavedText = unsaved.text;
+          this.store.notice = {
+            kind: 'info',
+            text: 'Edits made just before the page last closed were not yet in the library; they are back.',
+          };
+          this.store.loadPlan(unsaved.draft);
+          return;
+        }
         // The page started on the same plan (no edit since): nothing to replace or plan again.
         if (r.text !== JSON.stringify(this.store.draft)) this.store.loadPlan(r.draft);
         this.emit();
@@ -440,6 +508,10 @@ export class LibraryLink {
         try {
           await saveDraft(db, this.id, text, bytes, name);
           this.lastText = text;
+          if (text === this.unsavedText) {
+            this.storage?.remove(UNSAVED_KEY);
+            this.unsavedText = null;
+          }
         } catch (e) {
           error = `Autosave failed: ${storageWhy(e)} — save the plan to a file (Save) to keep your edits`;
         }

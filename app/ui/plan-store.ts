@@ -338,6 +338,7 @@ export class PlanStore extends EventTarget {
   flush(): void {
     clearTimeout(this.saveTimer);
     this.writeDraft();
+    this.library.keepUnsaved();
   }
 
   /** True while autosave is held back (see holdSave), for the notice. */

@@ -389,6 +389,58 @@ describe('the plan library', () => {
   });
 });
 
+describe('edits the library does not hold yet', () => {
+  it('are kept when the page is hidden, come back on the next start, and block a switch of plan', async () => {
+    await start(() => {
+      // IndexedDB writes fail as a full browser's do while window.e2eFull is true (this page only).
+      const put = IDBObjectStore.prototype.put;
+      IDBObjectStore.prototype.put = function (
+        this: IDBObjectStore,
+        ...args: [unknown, IDBValidKey?]
+      ) {
+        if ((window as unknown as { e2eFull?: boolean }).e2eFull) {
+          throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+        }
+        return put.apply(this, args);
+      };
+    });
+    await openView();
+    await row('Varla').locator('[data-testid=duplicate-plan]').click();
+    await expect.poll(names).toHaveLength(2);
+    await view().locator('[data-testid=close-library]').click();
+    await page.evaluate(() => ((window as unknown as { e2eFull: boolean }).e2eFull = true));
+    await editAltitude('131');
+    await page.locator('[data-testid=save-error]').waitFor({ timeout: 30_000 });
+
+    // Opening another plan now would drop the edit: refused, with the reason.
+    await openView();
+    await row('(copy)').locator('[data-testid=open-plan]').click();
+    await expect
+      .poll(() => view().locator('[data-testid=library-message]').innerText())
+      .toMatch(
+        /^Another plan was not opened: the latest edits of this one are not in the library yet \(autosave failed\)/,
+      );
+    await view().locator('[data-testid=close-library]').click();
+    await expect(shownAltitude()).resolves.toBe('131');
+
+    // The page goes (pagehide): the edit waits in localStorage and is back on the next start.
+    await page.evaluate(() => window.dispatchEvent(new Event('pagehide')));
+    await page.reload();
+    await ready();
+    await expect.poll(shownAltitude, { timeout: 30_000 }).toBe('131');
+    await savedAltitude(131);
+    await expect
+      .poll(() => page.evaluate(() => localStorage.getItem('seedfall.library.unsaved.v1')), {
+        timeout: 30_000,
+      })
+      .toBeNull();
+    await expect(page.locator('[data-testid=notice]').innerText()).resolves.toMatch(
+      /they are back/,
+    );
+    expect(errors).toEqual([]);
+  });
+});
+
 describe('the first start with a library', () => {
   it('moves the old autosave and its elevation model into the library once', async () => {
     context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
