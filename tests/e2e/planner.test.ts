@@ -170,9 +170,13 @@ describe('the map planner in Chromium', () => {
     await page.reload();
     await settled();
     await page.locator('[data-tab=plan]').click();
-    await expect(
-      page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
-    ).resolves.toBe('95');
+    // The plan comes back from the plan library (IndexedDB), read after the page starts.
+    await expect
+      .poll(
+        () => page.locator('sf-plan-panel input[data-path="release.altitude_m"]').inputValue(),
+        { timeout: 30_000 },
+      )
+      .toBe('95');
     expect(errors).toEqual([]);
   });
 

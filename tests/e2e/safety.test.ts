@@ -86,17 +86,37 @@ describe('the safety panel in Chromium', () => {
     await expect(item.locator('.meta .muted').innerText()).resolves.toMatch(
       /^\d{4}-\d\d-\d\dT\d\d:\d\d$/,
     );
-    // Autosave has written the tick before the page goes.
-    await expect
-      .poll(() => page.evaluate(() => localStorage.getItem('seedfall.draft.v1') ?? ''), {
-        timeout: 15_000,
-      })
-      .toMatch(/"state":"done","who":"R\. Okafor"/);
+    // Autosave has written the tick into the plan being edited (the plan library, IndexedDB)
+    // before the page goes.
+    const savedDraft = () =>
+      page.evaluate(
+        () =>
+          new Promise<string>((resolve) => {
+            const req = indexedDB.open('seedfall-library');
+            req.onerror = () => resolve('');
+            req.onsuccess = () => {
+              const db = req.result;
+              let text = '';
+              const tx = db.transaction(['plans', 'meta']);
+              const cur = tx.objectStore('meta').get('current');
+              cur.onsuccess = () => {
+                if (typeof cur.result !== 'string') return;
+                const rec = tx.objectStore('plans').get(cur.result);
+                rec.onsuccess = () => (text = (rec.result as { draft?: string })?.draft ?? '');
+              };
+              tx.oncomplete = () => {
+                db.close();
+                resolve(text);
+              };
+            };
+          }),
+      );
+    await expect.poll(savedDraft, { timeout: 15_000 }).toMatch(/"state":"done","who":"R\. Okafor"/);
     await page.reload();
     await page.locator('[data-testid=planned]').waitFor({ timeout: 30_000 });
     await page.locator('[data-tab=safety]').click();
     const again = page.locator('sf-safety-panel [data-item=airspace]');
-    await expect(again.locator('select').inputValue()).resolves.toBe('done');
+    await expect.poll(() => again.locator('select').inputValue(), { timeout: 30_000 }).toBe('done');
     await expect(again.locator('input[placeholder=who]').inputValue()).resolves.toBe('R. Okafor');
     expect(errors).toEqual([]);
   });
