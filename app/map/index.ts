@@ -18,6 +18,12 @@ export {
   type TileReader,
 } from './basemap-layer';
 export {
+  drawVectorTile,
+  VECTOR_STYLES,
+  VectorBasemapLayer,
+  type VectorTileReader,
+} from './basemap-vector';
+export {
   MAX_MERCATOR_LAT,
   tileCount,
   tileRange,
@@ -45,6 +51,7 @@ export {
   type LayerVisibility,
   type ShapeKind,
 } from './plan-layers';
+export { decodeMvt, MVT_LIMITS, type MvtFeature, type MvtLayer } from './mvt';
 export { releaseMarker, siteIcon, siteMarker, trackHandleMarker, trackLine } from './plan-marks';
 export { buildSafetyLayers, drawingOutline } from './safety-layers';
 export { TerrainLayer, type TerrainUnits } from './terrain-layer';

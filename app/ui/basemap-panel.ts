@@ -93,7 +93,7 @@ export class SfBasemapPanel extends StoreElement {
     const st = basemap.status;
     return html`
       <label
-        >Base map archive (.pmtiles, PMTiles version 3; raster tiles are drawn)
+        >Base map archive (.pmtiles, PMTiles version 3; raster or MVT vector tiles)
         <input
           type="file"
           accept=".pmtiles"
@@ -123,15 +123,18 @@ export class SfBasemapPanel extends StoreElement {
                 <dd data-testid="basemap-attribution">${a.info.attribution || 'none given'}</dd>
               </dl>
               ${
-                a.info.kind === 'raster'
-                  ? nothing
-                  : html`<p class="error" data-testid="basemap-not-drawn">
-                      ${
-                        a.info.kind === 'vector'
-                          ? 'This archive holds vector tiles, which the app does not draw yet: the map shows the coordinate grid (and the tile URL’s tiles, if set). Open a raster archive (PNG, JPEG or WebP tiles) for a drawn base map.'
-                          : 'This archive’s tile kind cannot be drawn.'
-                      }
+                a.info.kind === 'vector'
+                  ? html`<p class="hint" data-testid="basemap-vector-note">
+                      Vector tiles are drawn plainly in the app's own colours: land, land use,
+                      water, buildings, roads and boundaries; names and points are left out.
                     </p>`
+                  : a.info.kind === 'other'
+                    ? html`<p class="error" data-testid="basemap-not-drawn">
+                        ${a.info.tileKind} tiles cannot be drawn: the map shows the coordinate grid
+                        (and the tile URL's tiles, if set). Open a raster (PNG, JPEG, WebP) or MVT
+                        vector archive for a drawn base map.
+                      </p>`
+                    : nothing
               }
               <button data-testid="basemap-forget" @click=${() => void basemap.forget()}>
                 Remove archive

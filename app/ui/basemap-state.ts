@@ -24,7 +24,7 @@ const MAX_ZOOM = 26;
 export interface ArchiveInfo {
   name: string;
   bytes: number;
-  /** raster: drawn; vector: opened but not drawn yet; other: a tile kind the app cannot draw */
+  /** raster: drawn as images; vector: MVT, drawn in our own colours; other: not drawn */
   kind: 'raster' | 'vector' | 'other';
   /** 'PNG', 'JPEG', 'WebP', 'AVIF', 'MVT vector', 'MLT vector' or 'unknown' */
   tileKind: string;
@@ -42,7 +42,7 @@ const KINDS: Record<number, [ArchiveInfo['kind'], string, string]> = {
   [TileType.Webp]: ['raster', 'WebP', 'image/webp'],
   [TileType.Avif]: ['raster', 'AVIF', 'image/avif'],
   [TileType.Mvt]: ['vector', 'MVT vector', ''],
-  [TileType.Mlt]: ['vector', 'MLT vector', ''],
+  [TileType.Mlt]: ['other', 'MLT vector', ''],
 };
 
 /** Text of hostile metadata: control characters out, length capped. */

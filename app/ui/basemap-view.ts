@@ -1,10 +1,11 @@
 /**
- * The map's base layer: a raster PMTiles archive when one is open, else the tile URL setting
- * (kept tiles first, then the server), else none (the coordinate grid alone). Attribution goes to
- * Leaflet's control escaped (it takes HTML); a vector archive is named as not drawn, in text.
+ * The map's base layer: a PMTiles archive when one is open (raster tiles as images, MVT vector
+ * tiles drawn in our own muted colours), else the tile URL setting (kept tiles first, then the
+ * server), else none (the coordinate grid alone). Attribution goes to Leaflet's control escaped
+ * (it takes HTML); an archive of a kind that cannot be drawn is named on the map, in text.
  */
 import L from 'leaflet';
-import { BasemapLayer, escapeHtml, tileUrlOf, type TileImage } from '../map';
+import { BasemapLayer, escapeHtml, tileUrlOf, VectorBasemapLayer, type TileImage } from '../map';
 import { basemap } from './basemap-state';
 import { loadTile } from './basemap-store';
 
@@ -29,20 +30,33 @@ export class BasemapView {
     this.layer = undefined;
     this.note?.remove();
     this.note = undefined;
-    if (a && a.info.kind === 'raster') {
+    if (a && a.info.kind !== 'other') {
       const { pm, info } = a;
       const b = info.bounds;
-      this.layer = new BasemapLayer({
-        read: async (z, x, y, signal): Promise<TileImage> => {
-          const r = await pm.getZxy(z, x, y, signal);
-          return r ? new Blob([r.data], { type: info.mime }) : null;
-        },
+      const options: L.GridLayerOptions = {
         minNativeZoom: info.minZoom,
         maxNativeZoom: info.maxZoom,
         maxZoom: 22,
         bounds: b ? L.latLngBounds([b[0], b[1]], [b[2], b[3]]) : undefined,
         attribution: escapeHtml(info.attribution || `${info.name} (no attribution in the archive)`),
-      });
+      };
+      this.layer =
+        info.kind === 'raster'
+          ? new BasemapLayer({
+              read: async (z, x, y, signal): Promise<TileImage> => {
+                const r = await pm.getZxy(z, x, y, signal);
+                return r ? new Blob([r.data], { type: info.mime }) : null;
+              },
+              ...options,
+            })
+          : new VectorBasemapLayer(
+              async (z, x, y, signal) => {
+                const r = await pm.getZxy(z, x, y, signal);
+                return r ? new Uint8Array(r.data) : null;
+              },
+              info.maxZoom,
+              { ...options, maxNativeZoom: undefined },
+            );
     } else if (tileUrl) {
       this.layer = new BasemapLayer({
         read: async (z, x, y): Promise<TileImage> => {
@@ -59,11 +73,9 @@ export class BasemapView {
       });
     }
     this.layer?.addTo(map);
-    if (a && a.info.kind !== 'raster') {
+    if (a && a.info.kind === 'other') {
       this.note = noteControl(
-        a.info.kind === 'vector'
-          ? `Base map ${a.info.name}: ${a.info.tileKind} tiles are not drawn yet${tileUrl ? '' : '; coordinate grid only'}.`
-          : `Base map ${a.info.name}: its tile kind cannot be drawn.`,
+        `Base map ${a.info.name}: ${a.info.tileKind} tiles cannot be drawn${tileUrl ? '' : '; coordinate grid only'}.`,
       ).addTo(map);
     }
   }

@@ -152,3 +152,44 @@ export function pmtilesArchive(spec: ArchiveSpec): Buffer {
   h.writeInt32LE(Math.round(((s + n) / 2) * 1e7), 123);
   return Buffer.concat([h, dir, meta, Buffer.from(spec.tile)]);
 }
+
+// --- Mapbox Vector Tile (the MVT specification 2.1: protocol buffer Tile → Layer (field 3) →
+// Feature (field 2); a feature's type is field 3, its geometry commands field 4, packed) ---
+
+const key = (field: number, wire: number): number[] => varints([field * 8 + wire]);
+const bytesField = (field: number, bytes: number[]): number[] => [
+  ...key(field, 2),
+  ...varints([bytes.length]),
+  ...bytes,
+];
+
+/** One MVT layer to write: its features' types (1 point, 2 line, 3 polygon) and raw commands. */
+export interface MvtLayerSpec {
+  name: string;
+  extent?: number;
+  features: { type: number; geometry: number[] }[];
+}
+
+/** An MVT tile's bytes (layer version 2, no tags). */
+export function mvtTile(layers: MvtLayerSpec[]): Uint8Array {
+  const out: number[] = [];
+  for (const l of layers) {
+    const body = [
+      ...key(15, 0),
+      2,
+      ...bytesField(1, [...Buffer.from(l.name, 'utf8')]),
+      ...l.features.flatMap((f) =>
+        bytesField(2, [...key(3, 0), ...varints([f.type]), ...bytesField(4, varints(f.geometry))]),
+      ),
+      ...key(5, 0),
+      ...varints([l.extent ?? 4096]),
+    ];
+    out.push(...bytesField(3, body));
+  }
+  return Uint8Array.from(out);
+}
+
+/** A geometry command integer: command id in the low 3 bits, count above. */
+export const command = (id: number, count: number): number => (id & 7) | (count << 3);
+/** Zigzag encoding of a signed delta. */
+export const zz = (n: number): number => (n << 1) ^ (n >> 31);

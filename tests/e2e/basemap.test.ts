@@ -8,12 +8,15 @@ import demo from '../../data/demo-plan.json';
 import { type PlanFile, resolvePlan } from '../../app/plan';
 import { terrainArea } from '../../app/planner';
 import {
+  command,
+  mvtTile,
   pmtilesArchive,
   solidPng,
   TILE_MVT,
   TILE_PNG,
   tileId,
   type ArchiveSpec,
+  zz,
 } from './basemap-files';
 import { launch, openApp, shot } from './browser';
 
@@ -105,19 +108,30 @@ async function colourAtMapCentre(page: Page): Promise<number[] | null> {
   if (!box) return null;
   const cx = box.x + box.width / 2;
   const cy = box.y + box.height / 2;
-  return page.locator('sf-map .sf-basemap img').evaluateAll(
-    (imgs, [px, py]) => {
+  return page.locator('sf-map .sf-basemap img, sf-map .sf-basemap canvas').evaluateAll(
+    (tiles, [px, py]) => {
       let found: number[] | null = null;
-      for (const img of imgs as HTMLImageElement[]) {
-        const r = img.getBoundingClientRect();
-        if (!img.complete || img.naturalWidth === 0 || img.style.visibility === 'hidden') continue;
+      for (const el of tiles as (HTMLImageElement | HTMLCanvasElement)[]) {
+        const r = el.getBoundingClientRect();
+        const img = el instanceof HTMLImageElement;
+        const w = img ? el.naturalWidth : el.width;
+        const h = img ? el.naturalHeight : el.height;
+        if ((img && !el.complete) || w === 0 || el.style.visibility === 'hidden') continue;
         if (px < r.left || px >= r.right || py < r.top || py >= r.bottom) continue;
         const c = document.createElement('canvas');
         c.width = c.height = 1;
         const g = c.getContext('2d')!;
-        const sx = ((px - r.left) / r.width) * img.naturalWidth;
-        const sy = ((py - r.top) / r.height) * img.naturalHeight;
-        g.drawImage(img, sx, sy, 1, 1, 0, 0, 1, 1);
+        g.drawImage(
+          el,
+          ((px - r.left) / r.width) * w,
+          ((py - r.top) / r.height) * h,
+          1,
+          1,
+          0,
+          0,
+          1,
+          1,
+        );
         try {
           found = [...g.getImageData(0, 0, 1, 1).data.slice(0, 3)];
         } catch {
@@ -218,24 +232,59 @@ describe('the offline base map (Chromium)', () => {
     );
     await context.setOffline(false);
 
-    // A vector archive opens but is named as not drawn: the grid stays, with a message.
+    // An MVT vector archive is drawn in the app's own colours: water over the whole tile (the
+    // app's water fill #b8d0dc), a road along its top edge.
     await settingsTab(page);
+    const full = [
+      command(1, 1),
+      zz(0),
+      zz(0),
+      command(2, 3),
+      zz(4096),
+      zz(0),
+      zz(0),
+      zz(4096),
+      zz(-4096),
+      zz(0),
+      command(7, 1),
+    ];
     const vector = {
       ...rasterArchive(),
       tileType: TILE_MVT,
-      tile: new Uint8Array([0x1a, 0x00]),
+      tile: mvtTile([
+        { name: 'water', features: [{ type: 3, geometry: full }] },
+        {
+          name: 'roads',
+          features: [
+            { type: 2, geometry: [command(1, 1), zz(0), zz(64), command(2, 1), zz(4096), zz(0)] },
+          ],
+        },
+      ]),
       metadata: { attribution: 'Invented vector data' },
     };
     await testid(page, 'basemap-file').setInputFiles(
       write('vector.pmtiles', pmtilesArchive(vector)),
     );
+    await expect
+      .poll(() => testid(page, 'basemap-vector-note').count(), { timeout: 30_000 })
+      .toBe(1);
+    expect(await testid(page, 'basemap-kind').innerText()).toContain('MVT vector, zooms 0 to 14');
+    await expect.poll(() => colourAtMapCentre(page), { timeout: 30_000 }).toEqual([184, 208, 220]);
+    await expect.poll(() => attributionText(page)).toContain('Invented vector data');
+    await shot(page, 'basemap-vector');
+
+    // A tile kind the app cannot draw (MLT, spec tile type 6): named, the grid stays.
+    await testid(page, 'basemap-file').setInputFiles(
+      write('other.pmtiles', pmtilesArchive({ ...vector, tileType: 6 })),
+    );
     await expect.poll(() => testid(page, 'basemap-not-drawn').count(), { timeout: 30_000 }).toBe(1);
-    expect(await testid(page, 'basemap-not-drawn').innerText()).toContain('vector tiles');
+    expect(await testid(page, 'basemap-not-drawn').innerText()).toContain(
+      'MLT vector tiles cannot be drawn',
+    );
     expect(await page.locator('sf-map [data-testid=basemap-note]').innerText()).toContain(
-      'vector.pmtiles: MVT vector tiles are not drawn yet; coordinate grid only',
+      'other.pmtiles: MLT vector tiles cannot be drawn; coordinate grid only',
     );
     expect(await page.locator('sf-map .sf-basemap').count()).toBe(0);
-    await shot(page, 'basemap-vector');
 
     // Removed: the grid alone again.
     await testid(page, 'basemap-forget').click();
