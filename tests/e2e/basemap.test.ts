@@ -233,7 +233,7 @@ describe('the offline base map (Chromium)', () => {
     await context.setOffline(false);
 
     // An MVT vector archive is drawn in the app's own colours: water over the whole tile (the
-    // app's water fill #b8d0dc), a road along its top edge.
+    // app's water fill #b8d0dc) and roads (white on a casing).
     await settingsTab(page);
     const full = [
       command(1, 1),
@@ -255,9 +255,11 @@ describe('the offline base map (Chromium)', () => {
         { name: 'water', features: [{ type: 3, geometry: full }] },
         {
           name: 'roads',
-          features: [
-            { type: 2, geometry: [command(1, 1), zz(0), zz(64), command(2, 1), zz(4096), zz(0)] },
-          ],
+          // Eight roads across the tile, 512 apart, so every part of it a closer view draws has one.
+          features: Array.from({ length: 8 }, (_, k) => ({
+            type: 2,
+            geometry: [command(1, 1), zz(0), zz(128 + 512 * k), command(2, 1), zz(4096), zz(0)],
+          })),
         },
       ]),
       metadata: { attribution: 'Invented vector data' },
@@ -271,6 +273,17 @@ describe('the offline base map (Chromium)', () => {
     expect(await testid(page, 'basemap-kind').innerText()).toContain('MVT vector, zooms 0 to 14');
     await expect.poll(() => colourAtMapCentre(page), { timeout: 30_000 }).toEqual([184, 208, 220]);
     await expect.poll(() => attributionText(page)).toContain('Invented vector data');
+    // A road's white (a 1.6 px line covers no pixel fully: near-white; water and casing are darker).
+    const roadPixels = await page.locator('sf-map .sf-basemap canvas').evaluateAll((tiles) =>
+      (tiles as HTMLCanvasElement[]).some((c) => {
+        const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
+        for (let i = 0; i < d.length; i += 4) {
+          if (d[i] >= 235 && d[i + 1] >= 235 && d[i + 2] >= 235) return true;
+        }
+        return false;
+      }),
+    );
+    expect(roadPixels).toBe(true);
     await shot(page, 'basemap-vector');
 
     // A tile kind the app cannot draw (MLT, spec tile type 6): named, the grid stays.
