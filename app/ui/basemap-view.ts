@@ -9,20 +9,29 @@ import { BasemapLayer, escapeHtml, tileUrlOf, VectorBasemapLayer, type TileImage
 import { basemap } from './basemap-state';
 import { loadTile } from './basemap-store';
 
+/** True when a base map is set (an archive or a tile URL), shown or switched off. */
+export function basemapSet(tileUrl: string): boolean {
+  return basemap.archive !== null || tileUrl !== '';
+}
+
 /** The base layer of one map, kept in line with the base map state and the tile settings. */
 export class BasemapView {
   private layer?: L.GridLayer;
   private key = '';
   private note?: L.Control;
 
-  /** Draws what `tileUrl`/`tileAttribution` and the opened archive call for (no-op when unchanged). */
-  sync(map: L.Map, tileUrl: string, tileAttribution: string): void {
+  /**
+   * Draws what `tileUrl`/`tileAttribution` and the opened archive call for, or nothing when
+   * `visible` is false (no-op when unchanged).
+   */
+  sync(map: L.Map, tileUrl: string, tileAttribution: string, visible = true): void {
     const a = basemap.archive;
     const key = JSON.stringify([
       a?.info.name,
       a?.pm === undefined ? 0 : archiveId(a.pm),
       tileUrl,
       tileAttribution,
+      visible,
     ]);
     if (key === this.key) return;
     this.key = key;
@@ -30,6 +39,7 @@ export class BasemapView {
     this.layer = undefined;
     this.note?.remove();
     this.note = undefined;
+    if (!visible) return;
     if (a && a.info.kind !== 'other') {
       const { pm, info } = a;
       const b = info.bounds;

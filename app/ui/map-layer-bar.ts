@@ -1,6 +1,6 @@
 /**
  * The map's toolbar: add-sites and draw-zone buttons, switches for the hazard area, the terrain
- * (with an elevation model), each layer kind and each variant.
+ * (with an elevation model), the base map (with one set), each layer kind and each variant.
  */
 import { css, html, type TemplateResult } from 'lit';
 import { styleMap } from 'lit/directives/style-map.js';
@@ -25,12 +25,15 @@ export interface LayerBarView {
   showHazard: boolean;
   /** The terrain switch, or null when no elevation model is loaded (no switch shown). */
   terrain: boolean | null;
+  /** The base map switch, or null when there is no base map (no switch shown). */
+  basemap: boolean | null;
   vis: LayerVisibility;
   variants: readonly Partial<Variant>[];
   toggleAdding(): void;
   toggleDrawing(): void;
   setHazard(on: boolean): void;
   setTerrain(on: boolean): void;
+  setBasemap(on: boolean): void;
   /** Replaces the visibility by `change` of the current one. */
   changeVis(change: (vis: LayerVisibility) => LayerVisibility): void;
 }
@@ -106,6 +109,18 @@ export function layerBar(v: LayerBarView): TemplateResult {
                 .checked=${v.terrain}
                 @change=${(e: Event) => v.setTerrain(checked(e))}
               />Terrain</label
+            >`
+      }
+      ${
+        v.basemap === null
+          ? ''
+          : html`<label title="The base map: a PMTiles archive or the tile URL's tiles"
+              ><input
+                type="checkbox"
+                data-kind="basemap"
+                .checked=${v.basemap}
+                @change=${(e: Event) => v.setBasemap(checked(e))}
+              />Base map</label
             >`
       }
       ${SHAPE_KINDS.map(

@@ -45,6 +45,7 @@ export const MAP_LAYER_KEYS = [
   'zone',
   'chosenOnly',
   'terrain',
+  'basemap',
 ] as const;
 export type MapLayerKey = (typeof MAP_LAYER_KEYS)[number];
 

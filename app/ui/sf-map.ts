@@ -17,7 +17,7 @@ import {
 } from '../map';
 import type { Site, Variant } from '../plan';
 import { basemap } from './basemap-state';
-import { BasemapView } from './basemap-view';
+import { basemapSet, BasemapView } from './basemap-view';
 import { layerBar, layerBarStyles } from './map-layer-bar';
 import { CursorReadout, finite, planLatLon } from './map-position';
 import { MAP_KEYS_HELP, MapKeys } from './map-keys';
@@ -220,10 +220,20 @@ export class SfMap extends LitElement {
     return this.store?.settings.mapLayers.terrain ?? true;
   }
 
+  /** The base map's switch (on unless switched off; shown only with a base map set). */
+  private get showBasemap(): boolean {
+    return this.store?.settings.mapLayers.basemap ?? true;
+  }
+
   /** Keeps the switches in settings (stored for the next visit). */
   private setLayers(vis: LayerVisibility, hazard: boolean, terrain = this.showTerrain): void {
     this.variantVis = vis.variants;
-    const mapLayers: Settings['mapLayers'] = { hazard, chosenOnly: vis.chosenOnly, terrain };
+    const mapLayers: Settings['mapLayers'] = {
+      hazard,
+      chosenOnly: vis.chosenOnly,
+      terrain,
+      basemap: this.showBasemap,
+    };
     for (const k of SHAPE_KINDS) mapLayers[k] = vis.kinds[k];
     this.store?.setSettings({ mapLayers });
   }
@@ -314,7 +324,7 @@ export class SfMap extends LitElement {
 
   private syncTiles(): void {
     const { tileUrl, tileAttribution } = this.store!.settings;
-    this.basemapView.sync(this.map!, tileUrl, tileAttribution);
+    this.basemapView.sync(this.map!, tileUrl, tileAttribution, this.showBasemap);
   }
 
   private colour = (variantId: string): string => {
@@ -453,6 +463,7 @@ export class SfMap extends LitElement {
         drawing: this.drawing,
         showHazard: this.showHazard,
         terrain: this.store?.dem ? this.showTerrain : null,
+        basemap: basemapSet(this.store?.settings.tileUrl ?? '') ? this.showBasemap : null,
         vis: this.vis,
         variants: this.store?.rows<Variant>('variants') ?? [],
         toggleAdding: () => {
@@ -468,6 +479,10 @@ export class SfMap extends LitElement {
         },
         setHazard: (on) => this.setLayers(this.vis, on),
         setTerrain: (on) => this.setLayers(this.vis, this.showHazard, on),
+        setBasemap: (on) =>
+          this.store?.setSettings({
+            mapLayers: { ...this.store.settings.mapLayers, basemap: on },
+          }),
         changeVis: (change) => this.setLayers(change(this.vis), this.showHazard),
       })}
       <div

@@ -188,6 +188,7 @@ describe('the offline base map (Chromium)', () => {
     const { page, errors } = opened;
     // No tiles by default: the grid alone.
     expect(await page.locator('sf-map .sf-basemap').count()).toBe(0);
+    expect(await page.locator('sf-map input[data-kind=basemap]').count()).toBe(0);
     await settingsTab(page);
     await expect(testid(page, 'basemap-none').count()).resolves.toBe(1);
 
@@ -203,6 +204,12 @@ describe('the offline base map (Chromium)', () => {
     expect(await page.locator('sf-map .leaflet-control-attribution img').count()).toBe(0);
     await expect.poll(() => colourAtMapCentre(page), { timeout: 30_000 }).toEqual([...ARCHIVE_RGB]);
     await shot(page, 'basemap-archive');
+
+    // The map bar's switch hides the base map and brings it back.
+    await page.locator('sf-map input[data-kind=basemap]').uncheck();
+    await expect.poll(() => page.locator('sf-map .sf-basemap').count()).toBe(0);
+    await page.locator('sf-map input[data-kind=basemap]').check();
+    await expect.poll(() => colourAtMapCentre(page), { timeout: 30_000 }).toEqual([...ARCHIVE_RGB]);
 
     // A file that is not an archive: named in the message; the archive in use stays.
     await testid(page, 'basemap-file').setInputFiles(write('junk.pmtiles', Buffer.alloc(4096, 7)));
