@@ -100,10 +100,11 @@ async function loadTile(url: string, signal: AbortSignal): Promise<Blob> {
 }
 
 /**
- * Replaces the kept tiles by those of `template` over `area` from zMin to zMax; `onProgress` is
- * called after each tile. The count limit is checked before anything is deleted.
+ * Replaces the tiles kept with plan `plan` by those of `template` over `area` from zMin to zMax;
+ * `onProgress` is called after each tile. The count limit is checked before anything is deleted.
  */
 export async function fetchTiles(
+  plan: string,
   template: string,
   area: TileArea,
   zMin: number,
@@ -128,7 +129,7 @@ export async function fetchTiles(
     onProgress(p);
     return p;
   }
-  await forgetTiles();
+  await forgetTiles(plan);
   onProgress(p);
   const tiles = tilesOf(area, zMin, zMax);
   const stopped = (): boolean => signal.aborted || p.state !== 'running';
@@ -143,7 +144,7 @@ export async function fetchTiles(
           p.message = `stopped at the ${mb(MAX_FETCH_BYTES)} limit of kept tiles`;
           return;
         }
-        await saveTile(template, z, x, y, blob);
+        await saveTile(plan, template, z, x, y, blob);
         p.bytes += blob.size;
         p.kept++;
       } catch (e) {

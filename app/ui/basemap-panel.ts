@@ -164,9 +164,17 @@ export class SfBasemapPanel extends StoreElement {
     this.abort = abort;
     const template = s.settings.tileUrl;
     try {
-      await fetchTiles(template, terrainArea(s.plan), this.zMin, this.zMax, abort.signal, (p) => {
-        this.progress = { ...p, failures: [...p.failures] };
-      });
+      await fetchTiles(
+        basemap.plan,
+        template,
+        terrainArea(s.plan),
+        this.zMin,
+        this.zMax,
+        abort.signal,
+        (p) => {
+          this.progress = { ...p, failures: [...p.failures] };
+        },
+      );
     } catch (e) {
       this.progress = {
         ...(this.progress ?? { total: 0, done: 0, kept: 0, failed: 0, bytes: 0, failures: [] }),

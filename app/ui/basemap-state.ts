@@ -1,14 +1,17 @@
 /**
- * The base map in use, shared by the map and the settings panel: the opened PMTiles archive (kept
- * in IndexedDB, basemap-store.ts) and the count of tiles kept from the tile URL. The archive is
+ * The base map in use, shared by the map and the settings panel: the opened PMTiles archive of the
+ * plan being edited (kept with that plan in IndexedDB, basemap-store.ts) and the count of tiles
+ * kept for it from the tile URL. The plan library names the plan (switchPlan). The archive is
  * hostile input: its header, zooms, bounds and metadata are checked, its attribution is text.
  */
 import { PMTiles, TileType, type Header } from 'pmtiles';
 import { errorText } from './safe-storage';
 import {
+  adoptLegacy,
   countTiles,
   forgetArchive,
   hasBasemapStorage,
+  LEGACY_PLAN,
   loadArchive,
   saveArchive,
 } from './basemap-store';
@@ -134,49 +137,93 @@ export class BasemapState extends EventTarget {
   status: { state: 'idle' | 'loading'; message: string } = { state: 'idle', message: '' };
   /** tiles kept from the tile URL (any template), or null before counted */
   keptTiles: number | null = null;
-  private restored?: Promise<void>;
+  /** the key the files are kept under: the plan being edited, or LEGACY_PLAN without a library */
+  plan = LEGACY_PLAN;
+  private planSet = false;
+  private generation = 0;
+  private markKnown!: () => void;
+  private readonly known = new Promise<void>((resolve) => (this.markKnown = resolve));
 
   private changed(): void {
     this.dispatchEvent(new Event('change'));
   }
 
-  /** Brings back the kept archive and the kept-tile count once per page. */
+  /** Resolves once the plan's kept base map has been brought back (after the first switchPlan). */
   restore(): Promise<void> {
-    this.restored ??= (async () => {
+    return this.known;
+  }
+
+  /**
+   * Another plan is being edited (null: no library): its kept archive and tile count come in, or
+   * none. The first call moves an earlier version's one base map to that plan.
+   */
+  async switchPlan(id: string | null): Promise<void> {
+    const first = !this.planSet;
+    this.planSet = true;
+    const gen = ++this.generation;
+    this.plan = id ?? LEGACY_PLAN;
+    this.archive = null;
+    this.keptTiles = null;
+    this.status = { state: 'idle', message: '' };
+    this.changed();
+    try {
       if (!hasBasemapStorage()) return;
-      try {
-        const kept = await loadArchive();
-        if (kept && !this.archive) this.archive = await readArchive(kept.name, kept.file);
-      } catch (e) {
-        this.status = { state: 'idle', message: `The kept base map archive: ${errorText(e)}` };
+      if (first) {
+        try {
+          await adoptLegacy(this.plan);
+        } catch (e) {
+          this.status = {
+            state: 'idle',
+            message: `The base map kept before plans had their own could not be moved to this plan (${errorText(e)}); it is left where it was.`,
+          };
+        }
       }
-      await this.recount();
-      this.changed();
-    })();
-    return this.restored;
+      try {
+        const kept = await loadArchive(this.plan);
+        const read = kept ? await readArchive(kept.name, kept.file) : null;
+        if (gen === this.generation) this.archive = read;
+      } catch (e) {
+        if (gen === this.generation) {
+          this.status = { state: 'idle', message: `The kept base map archive: ${errorText(e)}` };
+        }
+      }
+      if (gen === this.generation) await this.recount();
+    } finally {
+      if (gen === this.generation) this.changed();
+      this.markKnown();
+    }
   }
 
   /** Counts the kept tiles again (after a fetch). */
   async recount(): Promise<void> {
+    const plan = this.plan;
+    let n: number | null;
     try {
-      this.keptTiles = await countTiles();
+      n = await countTiles(plan);
     } catch {
-      this.keptTiles = null;
+      n = null;
     }
+    if (plan !== this.plan) return;
+    this.keptTiles = n;
     this.changed();
   }
 
   /** Opens `file` as the base map and keeps it; on failure the archive in use stays. */
   async open(file: File): Promise<void> {
+    const plan = this.plan;
     this.status = { state: 'loading', message: '' };
     this.changed();
     try {
       const opened = await readArchive(file.name, file);
+      if (plan !== this.plan) {
+        this.status = { state: 'idle', message: '' }; // another plan was opened meanwhile
+        return;
+      }
       this.archive = opened;
       this.status = { state: 'idle', message: '' };
       this.changed();
       try {
-        await saveArchive(file.name, file);
+        await saveArchive(plan, file.name, file);
       } catch (e) {
         this.status = {
           state: 'idle',
@@ -189,13 +236,14 @@ export class BasemapState extends EventTarget {
     this.changed();
   }
 
-  /** Stops using the archive and deletes the kept copy. */
+  /** Stops using the archive and deletes the copy kept with the plan. */
   async forget(): Promise<void> {
+    const plan = this.plan;
     this.archive = null;
     this.status = { state: 'idle', message: '' };
     this.changed();
     try {
-      await forgetArchive();
+      await forgetArchive(plan);
     } catch (e) {
       this.status = { state: 'idle', message: `The kept archive was not deleted: ${errorText(e)}` };
       this.changed();

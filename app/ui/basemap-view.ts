@@ -32,6 +32,7 @@ export class BasemapView {
       tileUrl,
       tileAttribution,
       visible,
+      basemap.plan,
     ]);
     if (key === this.key) return;
     this.key = key;
@@ -68,15 +69,16 @@ export class BasemapView {
               { ...options, maxNativeZoom: undefined },
             );
     } else if (tileUrl) {
+      const plan = basemap.plan; // the tiles kept with the plan being edited
       this.layer = new BasemapLayer({
         read: async (z, x, y): Promise<TileImage> => {
-          const kept = await loadTile(tileUrl, z, x, y).catch(() => null);
+          const kept = await loadTile(plan, tileUrl, z, x, y).catch(() => null);
           if (kept) return kept;
           // Offline, a kept tile of a lower zoom, enlarged; online the server's own.
-          if (!navigator.onLine) return keptAncestor(tileUrl, z, x, y);
+          if (!navigator.onLine) return keptAncestor(plan, tileUrl, z, x, y);
           return tileUrlOf(tileUrl, z, x, y);
         },
-        fallback: (z, x, y) => keptAncestor(tileUrl, z, x, y),
+        fallback: (z, x, y) => keptAncestor(plan, tileUrl, z, x, y),
         maxZoom: 22,
         maxNativeZoom: 19,
         attribution: escapeHtml(tileAttribution),
@@ -126,10 +128,11 @@ function noteControl(text: string): L.Control {
 const MAX_ENLARGE_ZOOMS = 3;
 
 /**
- * The part of the nearest kept tile of a lower zoom that covers tile z/x/y, enlarged to a tile's
+ * The part of the nearest tile kept with `plan` of a lower zoom that covers tile z/x/y, enlarged to a tile's
  * size, or null when none is kept.
  */
 async function keptAncestor(
+  plan: string,
   template: string,
   z: number,
   x: number,
@@ -138,7 +141,7 @@ async function keptAncestor(
   for (let d = 1; d <= MAX_ENLARGE_ZOOMS && z - d >= 0; d++) {
     const px = x >> d;
     const py = y >> d;
-    const blob = await loadTile(template, z - d, px, py).catch(() => null);
+    const blob = await loadTile(plan, template, z - d, px, py).catch(() => null);
     if (!blob) continue;
     const bmp = await createImageBitmap(blob);
     try {

@@ -32,6 +32,15 @@ import {
   utf8Bytes,
   withName,
 } from './library-store';
+import { basemap } from './basemap-state';
+import {
+  archiveNames,
+  copyPlanFiles,
+  hasBasemapStorage,
+  type PlanBasemapFiles,
+  putPlanFiles,
+  takePlanFiles,
+} from './basemap-store';
 import { readPlanFile } from './open-plan';
 import { errorText, type SafeStorage, storageWhy } from './safe-storage';
 import { DRAFT_KEY, readDraftText } from './saved-state';
@@ -87,8 +96,9 @@ export class LibraryLink {
   failure: unknown = null;
   /** The quota warning for the status line, or null. */
   quotaWarning: string | null = null;
-  /** The last deleted plan, until the next delete (Undo puts it back). */
-  trash: { rec: PlanRecord; dem: StoredTerrain | null } | null = null;
+  /** The last deleted plan and its files, until the next delete (Undo puts it back). */
+  trash: { rec: PlanRecord; dem: StoredTerrain | null; basemap: PlanBasemapFiles | null } | null =
+    null;
   /** Resolves once the library is open and a plan chosen (or the library failed). */
   readonly ready: Promise<void>;
 
@@ -123,7 +133,10 @@ export class LibraryLink {
     if (this.started) return;
     this.started = true;
     this.storage = storage;
-    void this.openDb().finally(() => this.markReady());
+    void this.openDb().finally(() => {
+      this.markReady();
+      void basemap.switchPlan(this.id);
+    });
   }
 
   /**
@@ -168,9 +181,16 @@ export class LibraryLink {
 
   // ---- the Plans view's actions ----------------------------------------------------------------
 
+  /** The plans, each with the base map kept with it (named, its bytes counted). */
   async list(): Promise<PlanSummary[]> {
     await this.ready;
-    return this.db ? listPlans(this.db) : [];
+    if (!this.db) return [];
+    const plans = await listPlans(this.db);
+    const maps = hasBasemapStorage() ? await archiveNames().catch(() => null) : null;
+    return plans.map((p) => {
+      const m = maps?.get(p.id);
+      return m ? { ...p, bytes: p.bytes + m.bytes, basemapName: m.name } : p;
+    });
   }
 
   /** Switches to a plan: the current one's edits are written first. A damaged one is reported and kept. */
@@ -199,6 +219,7 @@ export class LibraryLink {
     this.store.loadPlan(r.draft);
     this.store.setNotice('info', `Opened “${r.name}” from the library.`);
     await this.store.terrain.switchPlan();
+    await basemap.switchPlan(id);
   }
 
   async duplicate(id: string): Promise<void> {
@@ -216,7 +237,14 @@ export class LibraryLink {
     } catch {
       dem = null; // a damaged model stays with the original only
     }
-    await addPlan(db, makeRecord(name, String(withName(v.draft, name))), dem);
+    const rec = makeRecord(name, String(withName(v.draft, name)));
+    await addPlan(db, rec, dem);
+    try {
+      if (hasBasemapStorage()) await copyPlanFiles(id, rec.id);
+    } catch (e) {
+      this.store.setNotice('error', `Made “${name}”, without its base map: ${storageWhy(e)}.`);
+      return;
+    }
     this.store.setNotice('info', `Made “${name}”.`);
   }
 
@@ -241,7 +269,18 @@ export class LibraryLink {
     if (id === this.id)
       throw new Error('the plan being edited cannot be deleted: open another first');
     const gone = await deletePlan(await this.need(), id);
-    if (gone) this.trash = gone;
+    if (!gone) return;
+    // Its base map goes with it (the files wait in the trash with the plan for Undo).
+    let files: PlanBasemapFiles | null = null;
+    try {
+      if (hasBasemapStorage()) files = await takePlanFiles(id);
+    } catch (e) {
+      this.store.setNotice(
+        'error',
+        `The base map of “${nameFrom(gone.rec.name, 'Plan')}” was not deleted: ${storageWhy(e)}.`,
+      );
+    }
+    this.trash = { ...gone, basemap: files };
   }
 
   async undoDelete(): Promise<void> {
@@ -249,6 +288,17 @@ export class LibraryLink {
     if (!t) return;
     await putBack(await this.need(), t.rec, t.dem);
     this.trash = null;
+    if (t.basemap) {
+      try {
+        await putPlanFiles(t.rec.id, t.basemap);
+      } catch (e) {
+        this.store.setNotice(
+          'error',
+          `“${nameFrom(t.rec.name, 'Plan')}” is back in the library, without its base map: ${storageWhy(e)}.`,
+        );
+        return;
+      }
+    }
     this.store.setNotice('info', `“${nameFrom(t.rec.name, 'Plan')}” is back in the library.`);
   }
 

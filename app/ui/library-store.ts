@@ -27,7 +27,7 @@ export interface PlanRecord {
   draft: string;
   /** the draft's size in UTF-8 bytes */
   bytes: number;
-  /** base-map files the plan uses (kept with it in a later version; empty for now) */
+  /** unused: a plan's base-map files are kept under its id in the base map store (basemap-store.ts) */
   baseMaps: string[];
 }
 
@@ -40,6 +40,8 @@ export interface PlanSummary {
   bytes: number;
   /** the elevation model kept with it ('' for none) */
   demName: string;
+  /** the base map archive kept with it (set by the caller, basemap-store.ts) */
+  basemapName?: string;
 }
 
 interface LibrarySchema extends DBSchema {

@@ -222,7 +222,13 @@ export class PlanLibraryView extends StoreElement {
       ${this.renderName(p, current)}
       <td class="when">${when(p.updatedAt)}</td>
       <td class="size">
-        ${sizeText(p.bytes)}${p.demName ? html`<div class="muted dem">with ${p.demName}</div>` : ''}
+        ${sizeText(p.bytes)}${p.demName ? html`<div class="muted dem">with ${p.demName}</div>` : ''}${
+          p.basemapName
+            ? html`<div class="muted dem" data-testid="plan-basemap">
+                base map ${p.basemapName}
+              </div>`
+            : ''
+        }
       </td>
       <td class="actions">
         ${

@@ -414,3 +414,197 @@ describe('the offline base map (Chromium)', () => {
     await context.setOffline(false);
   });
 });
+
+/** What the page's storage holds: the current plan, the plan ids, and the base map store's keys. */
+interface Kept {
+  current: string | null;
+  plans: string[];
+  archives: string[];
+  tiles: string[];
+}
+
+const kept = (page: Page): Promise<Kept> =>
+  page.evaluate(async () => {
+    const open = (name: string) =>
+      new Promise<IDBDatabase>((resolve, reject) => {
+        const req = indexedDB.open(name);
+        req.onerror = () => reject(req.error);
+        req.onsuccess = () => resolve(req.result);
+      });
+    const all = <T>(db: IDBDatabase, store: string, what: 'keys' | 'one', key?: string) =>
+      new Promise<T>((resolve, reject) => {
+        if (!db.objectStoreNames.contains(store)) {
+          resolve((what === 'keys' ? [] : null) as T);
+          return;
+        }
+        const s = db.transaction(store).objectStore(store);
+        const req = what === 'keys' ? s.getAllKeys() : s.get(key!);
+        req.onerror = () => reject(req.error);
+        req.onsuccess = () => resolve((req.result ?? null) as T);
+      });
+    const lib = await open('seedfall-library');
+    const current = await all<string | null>(lib, 'meta', 'one', 'current');
+    const plans = (await all<IDBValidKey[]>(lib, 'plans', 'keys')).map(String);
+    lib.close();
+    const bm = await open('seedfall-basemap');
+    const archives = (await all<IDBValidKey[]>(bm, 'archives', 'keys')).map(String);
+    const tiles = (await all<IDBValidKey[]>(bm, 'tiles', 'keys')).map((k) => JSON.stringify(k));
+    bm.close();
+    return { current, plans, archives, tiles };
+  });
+
+// A plan's files travel with it: opened with it, copied with it, deleted with it, and an earlier
+// version's data moved once, not lost. // common practice
+describe('the base map kept with each plan (Chromium)', () => {
+  const plansView = (page: Page) => page.locator('sf-plan-library dialog');
+  const planRow = (page: Page, id: string) => plansView(page).locator(`tr[data-plan="${id}"]`);
+  async function showPlans(page: Page): Promise<void> {
+    await page.locator('[data-testid=open-library]').click();
+    await plansView(page).waitFor({ state: 'visible', timeout: 10_000 });
+  }
+  async function openPlan(page: Page, id: string): Promise<void> {
+    await showPlans(page);
+    await planRow(page, id).locator('[data-testid=open-plan]').click();
+    await plansView(page).waitFor({ state: 'hidden', timeout: 60_000 });
+    await expect.poll(async () => (await kept(page)).current, { timeout: 30_000 }).toBe(id);
+  }
+  /** No base layer drawn and the panel names none: the coordinate grid alone. */
+  async function plainGrid(page: Page): Promise<void> {
+    await settingsTab(page);
+    await expect.poll(() => testid(page, 'basemap-none').count(), { timeout: 30_000 }).toBe(1);
+    await expect.poll(() => page.locator('sf-map .sf-basemap').count()).toBe(0);
+  }
+  async function archiveShown(page: Page): Promise<void> {
+    await expect.poll(() => colourAtMapCentre(page), { timeout: 30_000 }).toEqual([...ARCHIVE_RGB]);
+    await settingsTab(page);
+    await expect
+      .poll(() => testid(page, 'basemap-name').innerText(), { timeout: 30_000 })
+      .toBe('area.pmtiles');
+  }
+
+  it('follows the plan when plans are switched and after a reload, is copied with it and deleted with it', async () => {
+    const opened = await openApp(browser, inject('baseUrl'));
+    context = opened.context;
+    const { page, errors } = opened;
+    await expect.poll(async () => (await kept(page)).current, { timeout: 30_000 }).not.toBeNull();
+    const a = (await kept(page)).current!;
+    // A second plan, made before A has a base map: it has none.
+    await showPlans(page);
+    await planRow(page, a).locator('[data-testid=duplicate-plan]').click();
+    await expect.poll(async () => (await kept(page)).plans.length, { timeout: 30_000 }).toBe(2);
+    const b = (await kept(page)).plans.find((id) => id !== a)!;
+    await plansView(page).locator('[data-testid=close-library]').click();
+
+    // Plan A gets the archive; it is kept under A's id.
+    await settingsTab(page);
+    await testid(page, 'basemap-file').setInputFiles(
+      write('area.pmtiles', pmtilesArchive(rasterArchive())),
+    );
+    await archiveShown(page);
+    await expect.poll(async () => (await kept(page)).archives).toEqual([a]);
+    await showPlans(page);
+    await expect
+      .poll(() => planRow(page, a).locator('[data-testid=plan-basemap]').innerText())
+      .toBe('base map area.pmtiles');
+    expect(await planRow(page, b).locator('[data-testid=plan-basemap]').count()).toBe(0);
+    await shot(page, 'basemap-per-plan-list');
+    await plansView(page).locator('[data-testid=close-library]').click();
+
+    // Switching to B: the plain grid; back to A: the archive; after a reload, still so.
+    await openPlan(page, b);
+    await plainGrid(page);
+    await reloaded(page);
+    await expect.poll(async () => (await kept(page)).current).toBe(b);
+    await plainGrid(page);
+    await openPlan(page, a);
+    await archiveShown(page);
+    await reloaded(page);
+    await archiveShown(page);
+
+    // A copy of A takes its base map with it.
+    await showPlans(page);
+    await planRow(page, a).locator('[data-testid=duplicate-plan]').click();
+    await expect.poll(async () => (await kept(page)).plans.length, { timeout: 30_000 }).toBe(3);
+    const c = (await kept(page)).plans.find((id) => id !== a && id !== b)!;
+    await expect.poll(async () => (await kept(page)).archives.sort()).toEqual([a, c].sort());
+    await plansView(page).locator('[data-testid=close-library]').click();
+
+    // Deleting A (from B) removes its archive from storage; Undo puts it back; the copy keeps its own.
+    await openPlan(page, b);
+    await plainGrid(page);
+    await showPlans(page);
+    await planRow(page, a).locator('[data-testid=delete-plan]').click();
+    await expect.poll(async () => (await kept(page)).plans.length, { timeout: 30_000 }).toBe(2);
+    await expect.poll(async () => (await kept(page)).archives).toEqual([c]);
+    await plansView(page).locator('[data-testid=undo-delete]').click();
+    await expect.poll(async () => (await kept(page)).archives.sort()).toEqual([a, c].sort());
+    await planRow(page, a).locator('[data-testid=delete-plan]').click();
+    await expect.poll(async () => (await kept(page)).archives).toEqual([c]);
+    await plansView(page).locator('[data-testid=close-library]').click();
+    await openPlan(page, c);
+    await archiveShown(page);
+    expect(errors).toEqual([]);
+  });
+
+  it('gives the one base map an earlier version kept to the plan open at the first start', async () => {
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
+    const base = inject('baseUrl');
+    // A blank page of the app's origin writes what the earlier version kept, before the app runs.
+    await context.route(`${base}seed.html`, (r) =>
+      r.fulfill({ contentType: 'text/html', body: '<!doctype html><title>seed</title>' }),
+    );
+    await page.goto(`${base}seed.html`);
+    const bytes = [...pmtilesArchive(rasterArchive())];
+    const png = [...solidPng(SERVER_RGB)];
+    await page.evaluate(
+      ([archive, tile]) =>
+        new Promise<void>((resolve, reject) => {
+          const req = indexedDB.open('seedfall-basemap', 1);
+          req.onupgradeneeded = () => {
+            req.result.createObjectStore('archives');
+            req.result.createObjectStore('tiles');
+          };
+          req.onerror = () => reject(req.error);
+          req.onsuccess = () => {
+            const db = req.result;
+            const tx = db.transaction(['archives', 'tiles'], 'readwrite');
+            tx.objectStore('archives').put(
+              {
+                name: 'area.pmtiles',
+                file: new Blob([new Uint8Array(archive)]),
+                savedAt: '2026-11-01T00:00:00Z',
+              },
+              'current',
+            );
+            tx.objectStore('tiles').put(
+              { blob: new Blob([new Uint8Array(tile)], { type: 'image/png' }) },
+              'http://tiles.invalid/{z}/{x}/{y}.png\n3/4/2',
+            );
+            tx.oncomplete = () => {
+              db.close();
+              resolve();
+            };
+            tx.onerror = () => reject(tx.error);
+          };
+        }),
+      [bytes, png] as const,
+    );
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto(base);
+    await page.locator('[data-testid=planned]').waitFor({ timeout: 60_000 });
+    await archiveShown(page);
+    const k = await kept(page);
+    expect(k.current).not.toBeNull();
+    expect(k.archives).toEqual([k.current]);
+    expect(k.tiles).toEqual([
+      JSON.stringify([k.current, 'http://tiles.invalid/{z}/{x}/{y}.png\n3/4/2']),
+    ]);
+    // Once: after a reload it is still the plan's, and nothing else is kept.
+    await reloaded(page);
+    await archiveShown(page);
+    expect(await kept(page)).toEqual(k);
+    expect(errors).toEqual([]);
+  });
+});
