@@ -329,7 +329,7 @@ export interface SampleRequest {
  * a fall, changes the net descent speed and so every time and drift (factor 1/f_eff).
  *
  * Over terrain (`s.terrain`) each sample's descent is followed by altitude to where it meets the
- * ground (firstCrossing, docs/model.md §18): open-loop samples by their drift, with their wind
+ * ground (fastCrossing, else the firstCrossing walk; docs/model.md §18): open-loop samples by their drift, with their wind
  * error spread over the fall in proportion to time (exact at the table's bottom) and their
  * programme's steering by altitude; homing samples along the line through their band ends; below
  * the table's bottom both continue through `terrain.below` with their last error. A sample that
