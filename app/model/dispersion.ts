@@ -102,9 +102,11 @@ export function summarize(
   let my = 0;
   let known = 0;
   for (let i = 0; i < n; i++) {
-    if (Number.isNaN(xs[i]) || Number.isNaN(ys[i])) continue;
-    mx += xs[i];
-    my += ys[i];
+    const x = xs[i];
+    const y = ys[i];
+    if (x !== x || y !== y) continue; // NaN: met no known ground
+    mx += x;
+    my += y;
     known++;
   }
   mx = known > 0 ? mx / known + shift.x : site.x;
@@ -118,7 +120,7 @@ export function summarize(
   for (let i = 0; i < n; i++) {
     const x = xs[i] + shift.x;
     const y = ys[i] + shift.y;
-    if (Number.isNaN(x) || Number.isNaN(y)) {
+    if (x !== x || y !== y) {
       miss[i] = Infinity;
       continue;
     }

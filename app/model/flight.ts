@@ -13,8 +13,8 @@ import type { FallTurbulence } from './turbulence';
 
 const DEG = Math.PI / 180;
 
-/** Altitude tolerance of a Monte Carlo sample's ground crossing, m (a few cm sideways; the nominal flight uses 1 mm). */
-const SAMPLE_TOL_M = 0.02;
+/** Altitude tolerance of a Monte Carlo sample's ground crossing, m (some cm sideways; the nominal flight uses 1 mm). */
+const SAMPLE_TOL_M = 0.05;
 
 /** East/north vector in the planner's local frame, m or m/s. */
 export interface Vec {
@@ -49,6 +49,8 @@ export interface FlightTerrain {
   below: FallTable | null;
   /** Lowest altitude a descent is followed to, m MSL. */
   bottom_m: number;
+  /** A bound of the ground's slope over the whole area (m per m; Infinity when unknown). */
+  maxSlope?: number;
 }
 
 /**
@@ -296,7 +298,64 @@ function combinedAR(
   return { arPhi, arInn };
 }
 
-let workArray = new Float64Array(256);
+let workArray: Float64Array = new Float64Array(256);
+const NO_WORK: Float64Array = new Float64Array(0);
+
+/** What the module's sample path functions read: set by flySamples before it uses them. */
+const FP = {
+  path: null as AltitudePath | null,
+  tRef: 1,
+  entryEnd: 0,
+  cot: 0,
+  k: 0,
+  ss: NO_WORK,
+  hx: NO_WORK,
+  hy: NO_WORK,
+  zb: NO_WORK,
+};
+
+/** An open-loop sample's descent by altitude (see flySamples): drift, spread error, steering. */
+function openPathAt(z: number, out: Float64Array): void {
+  const p = FP.path as AltitudePath;
+  const ss = FP.ss;
+  const fi = p.index(z);
+  const r = lerpAt(p.t, fi) / FP.tRef;
+  let x = ss[0] + (lerpAt(p.e, fi) + ss[2] * r) * ss[4];
+  let y = ss[1] + (lerpAt(p.n, fi) + ss[3] * r) * ss[4];
+  const drop = ss[5];
+  if (drop > 0) {
+    const d = FP.cot * Math.min(drop, Math.max(0, FP.entryEnd - z));
+    x += d * ss[6];
+    y += d * ss[7];
+  }
+  out[0] = x;
+  out[1] = y;
+}
+
+/** A homing sample's descent: the line through its band ends, then on below the table's bottom. */
+function homingPathAt(z: number, out: Float64Array): void {
+  const { zb, hx, hy, ss } = FP;
+  const k = FP.k;
+  if (z <= zb[k]) {
+    const p = FP.path as AltitudePath;
+    const fi = p.index(z);
+    const m = p.index(zb[k]);
+    const dt = lerpAt(p.t, fi) - lerpAt(p.t, m);
+    out[0] = hx[k] + (lerpAt(p.e, fi) - lerpAt(p.e, m) + ss[8] * dt) * ss[4];
+    out[1] = hy[k] + (lerpAt(p.n, fi) - lerpAt(p.n, m) + ss[9] * dt) * ss[4];
+    return;
+  }
+  let lo = 0;
+  let hi = k;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (zb[mid] >= z) lo = mid;
+    else hi = mid;
+  }
+  const f = zb[lo] === zb[hi] ? 0 : (zb[lo] - z) / (zb[lo] - zb[hi]);
+  out[0] = hx[lo] + f * (hx[hi] - hx[lo]);
+  out[1] = hy[lo] + f * (hy[hi] - hy[lo]);
+}
 
 /** The shared work array of flySamples, grown to at least n. */
 function workBuffer(n: number): Float64Array {
@@ -380,64 +439,45 @@ export function flySamples(
   const cot = s.cotGamma;
   const budget0 = s.controlTime_s;
 
-  // Terrain: one path closure per kind over per-sample state (no allocation per sample).
+  // Terrain: the module's path functions read the per-call state set here (no allocation).
   const ter = s.terrain;
   const path = ter ? altitudePath(s) : null;
   const tRef = tab.fallTime_s;
   const entryEnd = tab.entryEnd_m;
-  // Work arrays from one module-level buffer (flySamples does not nest): no allocation per call.
-  const work = workBuffer(16 + 4 * (k + 1));
-  const cross = work.subarray(0, 4);
-  const rise = work.subarray(4, 6);
-  // Per-sample state in a typed array (closure slots written per sample would box doubles):
-  // 0,1 position after the throw; 2,3 wind-error displacement at the table's bottom; 4 1/f;
-  // 5 programme's steered drop; 6,7 its heading unit; 8,9 homing's last band error.
-  const ss = work.subarray(6, 16);
-  const openPath: PathAt = (z, out) => {
-    const p = path as AltitudePath;
-    const fi = p.index(z);
-    const r = lerpAt(p.t, fi) / tRef;
-    let x = ss[0] + (lerpAt(p.e, fi) + ss[2] * r) * ss[4];
-    let y = ss[1] + (lerpAt(p.n, fi) + ss[3] * r) * ss[4];
-    const drop = ss[5];
-    if (drop > 0) {
-      const d = cot * Math.min(drop, Math.max(0, entryEnd - z));
-      x += d * ss[6];
-      y += d * ss[7];
-    }
-    out[0] = x;
-    out[1] = y;
-  };
-  // Homing: band-end positions (index b = top of band b; k = the table's bottom).
-  const hx = work.subarray(16, 16 + (k + 1));
-  const hy = work.subarray(16 + (k + 1), 16 + 2 * (k + 1));
-  const zb = work.subarray(16 + 2 * (k + 1), 16 + 3 * (k + 1));
-  zb[0] = tab.top_m;
-  for (let b = 0; b < k; b++) zb[b + 1] = zb[b] - bandDz[b];
-  zb[k] = tab.bottom_m;
-  const invDz2 = work.subarray(16 + 3 * (k + 1), 16 + 4 * (k + 1));
-  for (let b = 0; b < k; b++) invDz2[b] = 1 / (bandDz[b] * bandDz[b]);
-  const homingPath: PathAt = (z, out) => {
-    if (z <= zb[k]) {
-      const p = path as AltitudePath;
-      const fi = p.index(z);
-      const m = p.index(zb[k]);
-      const dt = lerpAt(p.t, fi) - lerpAt(p.t, m);
-      out[0] = hx[k] + (lerpAt(p.e, fi) - lerpAt(p.e, m) + ss[8] * dt) * ss[4];
-      out[1] = hy[k] + (lerpAt(p.n, fi) - lerpAt(p.n, m) + ss[9] * dt) * ss[4];
-      return;
-    }
-    let lo = 0;
-    let hi = k;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (zb[mid] >= z) lo = mid;
-      else hi = mid;
-    }
-    const f = zb[lo] === zb[hi] ? 0 : (zb[lo] - z) / (zb[lo] - zb[hi]);
-    out[0] = hx[lo] + f * (hx[hi] - hx[lo]);
-    out[1] = hy[lo] + f * (hy[hi] - hy[lo]);
-  };
+  let cross = NO_WORK;
+  let rise = NO_WORK;
+  let ss = NO_WORK;
+  let hx = NO_WORK;
+  let hy = NO_WORK;
+  let invDz2 = NO_WORK;
+  if (ter && path) {
+    // Work arrays from one module-level buffer (flySamples does not nest).
+    const work = workBuffer(16 + 4 * (k + 1));
+    cross = work.subarray(0, 4);
+    rise = work.subarray(4, 6);
+    // Per-sample state: 0,1 position after the throw; 2,3 wind-error displacement at the
+    // table's bottom; 4 1/f; 5 programme's steered drop; 6,7 its heading unit; 8,9 homing's
+    // last band error.
+    ss = work.subarray(6, 16);
+    // Homing: band-end positions (index b = top of band b; k = the table's bottom).
+    hx = work.subarray(16, 16 + (k + 1));
+    hy = work.subarray(16 + (k + 1), 16 + 2 * (k + 1));
+    const zb = work.subarray(16 + 2 * (k + 1), 16 + 3 * (k + 1));
+    invDz2 = work.subarray(16 + 3 * (k + 1), 16 + 4 * (k + 1));
+    zb[0] = tab.top_m;
+    for (let b = 0; b < k; b++) zb[b + 1] = zb[b] - bandDz[b];
+    zb[k] = tab.bottom_m;
+    for (let b = 0; b < k; b++) invDz2[b] = 1 / (bandDz[b] * bandDz[b]);
+    FP.path = path;
+    FP.tRef = tRef;
+    FP.entryEnd = entryEnd;
+    FP.cot = cot;
+    FP.k = k;
+    FP.ss = ss;
+    FP.hx = hx;
+    FP.hy = hy;
+    FP.zb = zb;
+  }
   let off = 0;
 
   for (let i = 0; i < req.n; i++) {
@@ -490,8 +530,10 @@ export function flySamples(
         if (b === 0) {
           px += (airX - wx) * tau;
           py += (airY - wy) * tau;
-          hx[0] = px;
-          hy[0] = py;
+          if (ter) {
+            hx[0] = px;
+            hy[0] = py;
+          }
         }
         const dt = bandDt[b];
         if (budget > 0 && bandControl[b] === 1) {
@@ -514,16 +556,20 @@ export function flySamples(
         }
         px += (bandEast[b] + wx * dt) * invF;
         py += (bandNorth[b] + wy * dt) * invF;
-        hx[b + 1] = px;
-        hy[b + 1] = py;
+        if (ter) {
+          hx[b + 1] = px;
+          hy[b + 1] = py;
+        }
       }
-      ss[8] = wx;
-      ss[9] = wy;
-      ss[4] = invF;
+      if (ter) {
+        ss[8] = wx;
+        ss[9] = wy;
+        ss[4] = invF;
+      }
     }
     if (ter) {
       const p = path as AltitudePath;
-      const at = homing ? homingPath : openPath;
+      const at = homing ? homingPathAt : openPathAt;
       // Sideways metres per metre of altitude this descent can move (fastCrossing's V).
       let v: number;
       if (homing) {
@@ -566,6 +612,7 @@ export function flySamples(
         cross,
         SAMPLE_TOL_M,
         riseOk ? rise : null,
+        ter.maxSlope,
       );
       if (kind < 0) {
         kind = firstCrossing(ter.ground, at, tab.top_m, ter.bottom_m, cross, 5, SAMPLE_TOL_M);

@@ -958,6 +958,7 @@ const FAST_GRAD = new Float64Array(2);
  * out like firstCrossing and returns CROSS_GROUND, or −1 when it cannot certify (the caller then
  * walks with firstCrossing). `rise`, when given, is how far the path moves sideways (x, y) per
  * metre of altitude above z0 (else it is measured 1 m up); it only speeds the first step up.
+ * `areaSlope`, when given, bounds the ground's slope over the whole area the descent can reach.
  */
 export function fastCrossing(
   ground: TerrainGround,
@@ -971,6 +972,7 @@ export function fastCrossing(
   out: Float64Array,
   tol_m: number,
   rise: Float64Array | null = null,
+  areaSlope = Infinity,
 ): number {
   if (!ground.maxSlopeIn) return -1;
   const grad = FAST_GRAD;
@@ -1022,7 +1024,8 @@ export function fastCrossing(
     y = out[1];
   }
   const zTop = Math.min(top_m, ground.maxHeight_m);
-  if (z < zTop) {
+  // A slope bound over the whole area (areaSlope) that already certifies needs no square.
+  if (z < zTop && !(areaSlope * pathSlope < 0.999)) {
     const r = pathSlope * (zTop - z) + ground.cell_m;
     // Neighbouring samples reach over nearly the same square: a bound over a square four times as
     // wide, kept from an earlier sample of the same ground, serves every square inside it.

@@ -46,20 +46,26 @@ export interface PlanGround {
   ground: TerrainGround;
   /** the local box the ground was built for (terrainLocalBox) */
   box: LocalBox;
+  /** the ground's slope bound over that box (m per m) */
+  maxSlope: number;
 }
 
 // The last ground built per model: re-plans of the same area reuse it (building one scans the grid).
-const grounds = new WeakMap<ElevationModel, { key: string; ground: TerrainGround }>();
+const grounds = new WeakMap<
+  ElevationModel,
+  { key: string; ground: TerrainGround; maxSlope: number }
+>();
 
 /** The model's ground over the plan's terrain box; throws the model's own message when it falls short. */
 export function planGround(plan: Plan, frame: LocalFrame, model: ElevationModel): PlanGround {
   const box = terrainLocalBox(plan, frame);
   const key = [frame.center.lat, frame.center.lon, box.xMin, box.yMin, box.xMax, box.yMax].join();
   const hit = grounds.get(model);
-  if (hit && hit.key === key) return { model, ground: hit.ground, box };
+  if (hit && hit.key === key) return { model, ground: hit.ground, box, maxSlope: hit.maxSlope };
   const ground = model.localGround(frame, box);
-  grounds.set(model, { key, ground });
-  return { model, ground, box };
+  const maxSlope = ground.maxSlopeIn ? ground.maxSlopeIn(box) : Infinity;
+  grounds.set(model, { key, ground, maxSlope });
+  return { model, ground, box, maxSlope };
 }
 
 /**
@@ -76,7 +82,12 @@ export function flightTerrain(
     low < table.bottom_m - 0.01
       ? new FallTable({ ...input, top_m: table.bottom_m, bottom_m: low, entryLoss_m: 0 })
       : null;
-  return { ground: pg.ground, below, bottom_m: below ? low : table.bottom_m };
+  return {
+    ground: pg.ground,
+    below,
+    bottom_m: below ? low : table.bottom_m,
+    maxSlope: pg.maxSlope,
+  };
 }
 
 /** Where a path meets the ground: point, altitude, or null when it meets no known ground. */
