@@ -414,12 +414,7 @@ function groundedSite(
   const model = ctx.ground.model;
   const h = model.sample(s);
   if (!s.elevationDefaulted) {
-    if (h !== null && Math.abs(h - s.elevation_m) > ELEVATION_NOTICE_M) {
-      warnings.push(
-        `site ${s.id}: its typed elevation ${r1(s.elevation_m)} m differs from ${model.name}'s ` +
-          `${r1(h)} m by ${r1(Math.abs(h - s.elevation_m))} m; the typed one is used`,
-      );
-    }
+    // Typed elevations far from the model's are collected into one warning (elevationWarning).
     return { site: s, ground: { elevation_m: s.elevation_m, source: 'typed', terrain_m: h } };
   }
   if (h === null) {
@@ -509,7 +504,11 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
       ...(ground ? { ground } : {}),
     };
   });
-  if (ctx.ground) warnings.push(...terrainWarnings(ctx.ground.model.name, sites));
+  if (ctx.ground) {
+    const typed = elevationWarning(ctx.ground.model.name, sites);
+    if (typed) warnings.push(typed);
+    warnings.push(...terrainWarnings(ctx.ground.model.name, sites));
+  }
   return {
     name: plan.name,
     time: plan.time,
@@ -529,6 +528,28 @@ export function planDrop(plan: Plan, opts: PlanOptions = {}): PlanResult {
 
 /** Most sites a terrain warning names (the rest are counted). */
 const WARN_SITES = 20;
+
+/** Sites whose typed elevation is more than ELEVATION_NOTICE_M from the model's, in one warning. */
+function elevationWarning(name: string, sites: SiteResult[]): string | null {
+  const far: string[] = [];
+  for (const s of sites) {
+    const g = s.ground;
+    if (!g || g.source !== 'typed' || g.terrain_m === null) continue;
+    const d = Math.abs(g.terrain_m - g.elevation_m);
+    if (d > ELEVATION_NOTICE_M) {
+      far.push(
+        `${s.id} (typed ${r1(g.elevation_m)} m, model ${r1(g.terrain_m)} m, ${r1(d)} m apart)`,
+      );
+    }
+  }
+  if (far.length === 0) return null;
+  const shown = far.slice(0, WARN_SITES).join(', ');
+  const more = far.length > WARN_SITES ? ` and ${far.length - WARN_SITES} more sites` : '';
+  return (
+    `typed site elevations differ from ${name}'s by more than ${ELEVATION_NOTICE_M} m; ` +
+    `the typed ones are used: ${shown}${more}`
+  );
+}
 
 /**
  * Hidden sites, descents that left the model and reach areas that did not meet known ground, in
