@@ -17,7 +17,7 @@ import {
 import { basemap } from './basemap-state';
 import { takePickedFile } from './picked-file';
 import { errorText } from './safe-storage';
-import { sharedStyles } from './shared-styles';
+import { factListStyles, sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 
 const count = (n: number): string => n.toLocaleString('en-US');
@@ -28,6 +28,7 @@ const ZOOMS = Array.from({ length: MAX_FETCH_ZOOM + 1 }, (_, i) => i);
 export class SfBasemapPanel extends StoreElement {
   static styles = [
     sharedStyles,
+    factListStyles,
     css`
       :host {
         display: block;
@@ -40,20 +41,6 @@ export class SfBasemapPanel extends StoreElement {
       .zooms {
         display: flex;
         gap: 12px;
-      }
-      dl {
-        display: grid;
-        grid-template-columns: max-content 1fr;
-        gap: 2px 10px;
-        margin: 6px 0;
-        font-size: 13px;
-      }
-      dt {
-        color: var(--sf-muted);
-      }
-      dd {
-        margin: 0;
-        overflow-wrap: anywhere;
       }
       .error {
         color: var(--sf-bad);

@@ -119,5 +119,23 @@ export const sharedStyles = css`
   }
 `;
 
+/** A loaded file's facts as a two-column definition list (the Terrain and base-map sections). */
+export const factListStyles = css`
+  dl {
+    display: grid;
+    grid-template-columns: max-content 1fr;
+    gap: 2px 10px;
+    margin: 6px 0;
+    font-size: 13px;
+  }
+  dt {
+    color: var(--sf-muted);
+  }
+  dd {
+    margin: 0;
+    overflow-wrap: anywhere;
+  }
+`;
+
 /** Our own colours for vehicle variants, in catalogue order (repeats after the last). */
 export const VARIANT_COLOURS = ['#0f766e', '#b45309', '#7c3aed', '#be123c', '#1d4ed8', '#4d7c0f'];

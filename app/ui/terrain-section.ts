@@ -4,7 +4,7 @@ import { customElement } from 'lit/decorators.js';
 import { boxText } from '../formats';
 import { terrainArea } from '../planner';
 import { takePickedFile } from './picked-file';
-import { sharedStyles } from './shared-styles';
+import { factListStyles, sharedStyles } from './shared-styles';
 import { StoreElement } from './store-element';
 import { boxInside } from './terrain-loader';
 import { formatQuantity } from './units';
@@ -23,6 +23,7 @@ const count = (n: number): string => n.toLocaleString('en-US');
 export class SfTerrainSection extends StoreElement {
   static styles = [
     sharedStyles,
+    factListStyles,
     css`
       :host {
         display: block;
@@ -31,20 +32,6 @@ export class SfTerrainSection extends StoreElement {
         display: grid;
         gap: 2px;
         margin: 4px 0;
-      }
-      dl {
-        display: grid;
-        grid-template-columns: max-content 1fr;
-        gap: 2px 10px;
-        margin: 6px 0;
-        font-size: 13px;
-      }
-      dt {
-        color: var(--sf-muted);
-      }
-      dd {
-        margin: 0;
-        overflow-wrap: anywhere;
       }
       .error {
         color: var(--sf-bad);
